@@ -1,0 +1,166 @@
+/**
+ * Borewave core model. SI units inside: metres, seconds, kg/m3 or Mg/m3 where named, kPa where named.
+ * Sample arrays are typed arrays, never arrays of objects per sample.
+ */
+
+export type ByteOrder = 'little' | 'big';
+
+/** One channel of one recorded hit. */
+export interface Trace {
+  /** Channel number as in the file (SEG-2 CHANNEL_NUMBER, else 1-based position). */
+  channel: number;
+  /** Samples in physical units (SEG-2 DESCALING_FACTOR already applied). */
+  samples: Float32Array;
+  /** Sample interval, s. */
+  sampleIntervalS: number;
+  /** Time of sample 0 after the trigger, s (negative = pre-trigger). t_i = delayS + i * sampleIntervalS. */
+  delayS: number;
+  /** RECEIVER_LOCATION numbers as written in the file (x [y [z]], file UNITS). */
+  receiverLocation?: number[];
+  /** SOURCE_LOCATION numbers as written in the file. */
+  sourceLocation?: number[];
+  /** Trace-level keyword strings, raw values (unknown keywords kept). */
+  strings: Record<string, string>;
+}
+
+/** One file: one hit (or one stacked set of hits) recorded on one or more channels. */
+export interface WaveRecord {
+  /** Unique within a session; normally the file name (made unique with a suffix if repeated). */
+  id: string;
+  fileName: string;
+  format: 'seg2' | 'text';
+  /** SEG-2 only. */
+  byteOrder?: ByteOrder;
+  /** SEG-2 data format code of the first trace (1 int16, 2 int32, 3 20-bit float, 4 float32, 5 float64). */
+  formatCode?: number;
+  /** File-level keyword strings (SEG-2), raw values. */
+  fileStrings: Record<string, string>;
+  /** NOTE lines (file level), split on the declared line terminator. */
+  notes: string[];
+  traces: Trace[];
+}
+
+// ---------------------------------------------------------------- survey
+
+export type TestKind = 'downhole' | 'downhole-pair' | 'crosshole';
+
+/** Direction of the hit. Reversed pairs: left/right (horizontal beam), up/down (vertical hammer in a hole). */
+export type HitDirection = 'left' | 'right' | 'up' | 'down' | 'none';
+
+/** Receiver component: H1 = horizontal along the hit, H2 = horizontal across, V = vertical. */
+export type Component = 'H1' | 'H2' | 'V';
+
+/** One station of a verticality (deviation) survey: depth along hole and horizontal offsets from the collar. */
+export interface DeviationStation {
+  depthAlongM: number;
+  eastM: number;
+  northM: number;
+}
+
+export interface Borehole {
+  id: string;
+  collarEastM: number;
+  collarNorthM: number;
+  /** Deviation survey; empty = vertical hole. Sorted by depthAlongM, strictly increasing. */
+  deviation: DeviationStation[];
+}
+
+/** Which receiver and component a channel of a record carries. */
+export interface ChannelAssignment {
+  channel: number;
+  component: Component;
+  /**
+   * Receiver: for downhole 'R' (single receiver); for two-receiver downhole 'upper' | 'lower';
+   * for crosshole the borehole id of the receiver hole.
+   */
+  receiver: string;
+}
+
+/** How one record (file) is placed in the survey. */
+export interface RecordAssignment {
+  recordId: string;
+  /** Receiver depth below ground, m (two-receiver downhole: depth of the upper receiver; crosshole: test depth). null = unknown. */
+  depthM: number | null;
+  hit: HitDirection;
+  channels: ChannelAssignment[];
+  /** User excluded the whole record. */
+  excluded: boolean;
+  /** Where depth/hit came from: 'header' | 'filename' | 'manual'. */
+  assignedBy: 'header' | 'filename' | 'manual';
+}
+
+export interface SoilLayer {
+  topM: number;
+  bottomM: number;
+  name: string;
+  /** Total unit weight, kN/m3. */
+  unitWeightKnM3: number;
+  /** Exponent n for Vs1 = Vs (Pa/sigma'v)^n. */
+  stressExponent: number;
+  /** Poisson's ratio used for E where Vp cannot give the skeleton's value. */
+  poissonRatio: number;
+}
+
+export interface SoilColumn {
+  layers: SoilLayer[];
+  waterTableM: number | null;
+  /** kN/m3, default 9.81. */
+  waterUnitWeightKnM3: number;
+}
+
+export interface Survey {
+  name: string;
+  kind: TestKind;
+  boreholes: Borehole[];
+  /** Downhole: the receiver hole id. Crosshole: the source hole id. */
+  mainHoleId: string;
+  /** Downhole: horizontal source offset from the receiver hole collar, m, and source depth (usually 0). */
+  sourceOffsetM: number;
+  sourceDepthM: number;
+  /** Two-receiver downhole: vertical spacing between the upper and lower receivers, m. */
+  receiverSpacingM: number;
+  /** Crosshole: receiver holes in order of distance from the source hole (near, far). */
+  receiverHoleIds: string[];
+  records: RecordAssignment[];
+  soil: SoilColumn;
+}
+
+// ---------------------------------------------------------------- picks and delays
+
+export type Wave = 'S' | 'P';
+export type OnsetMethod = 'aic' | 'stalta';
+export type FeatureMethod = 'peak' | 'trough' | 'zero-crossing';
+export type PickMethod = OnsetMethod | FeatureMethod | 'manual';
+export type PickOrigin = 'auto' | 'edited' | 'excluded';
+
+/** A time pick on one station's working trace. */
+export interface Pick {
+  /** Station key (see survey/stations): receiver + depth + component. */
+  stationKey: string;
+  wave: Wave;
+  method: PickMethod;
+  /** Time after trigger, s. NaN never leaves the core: a failed pick is absent with a flag instead. */
+  timeS: number;
+  origin: PickOrigin;
+  /** Signal-to-noise ratio (RMS in arrival window / RMS of pre-arrival noise), linear. */
+  snr: number;
+  /** One-sigma uncertainty, s. */
+  uncertaintyS: number;
+  /** Polarity of the feature (+1 peak, -1 trough) where it applies. */
+  polarity?: 1 | -1;
+  flags: string[];
+}
+
+export type DelayMethod = 'xcorr' | 'phase';
+
+/** A delay between two stations' working traces (b later than a by delayS). */
+export interface PairDelay {
+  pairKey: string;
+  wave: Wave;
+  method: DelayMethod;
+  delayS: number;
+  /** Normalised correlation coefficient at the peak (xcorr) or mean coherence over the band (phase). */
+  coefficient: number;
+  uncertaintyS: number;
+  flags: string[];
+}

@@ -1,0 +1,21 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+import { viteSingleFile } from 'vite-plugin-singlefile';
+
+// Two builds: the normal one (dist/) and one self-contained HTML file for offline use (dist-single/).
+export default defineConfig(({ mode }) => ({
+  base: './',
+  plugins: mode === 'single' ? [react(), viteSingleFile()] : [react()],
+  build: {
+    outDir: mode === 'single' ? 'dist-single' : 'dist',
+    chunkSizeWarningLimit: 6000,
+  },
+  worker: { format: 'es' },
+  server: { port: 5173, strictPort: false },
+  preview: { port: 4173, strictPort: true },
+  test: {
+    include: ['test/**/*.test.ts'],
+    environment: 'node',
+    testTimeout: 30000,
+  },
+}));
