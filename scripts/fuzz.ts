@@ -1,0 +1,116 @@
+/**
+ * Long fuzz of the file readers: `npm run fuzz -- [count]` (default 200,000 inputs in total).
+ * Feeds random bytes, mutated and truncated valid SEG-2 files to readSeg2, and random delimiter-heavy
+ * text to readDelimitedText and readDeviationTable. Prints inputs tried per reader, typed errors by
+ * code, and unexpected exceptions (anything that is not a BorewaveError; should be 0), and the
+ * slowest single input.
+ */
+import { BorewaveError } from '../src/core/errors';
+import { readDeviationTable } from '../src/core/io/deviation';
+import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
+import { readDelimitedText } from '../src/core/io/text';
+
+const total = Number(process.argv[2] ?? 200000);
+if (!Number.isInteger(total) || total <= 0) {
+  process.stderr.write('usage: fuzz [count]\n');
+  process.exit(2);
+}
+
+// Small deterministic PRNG (mulberry32) so runs are repeatable.
+let state = 0x9e3779b9;
+function rand(): number {
+  state = (state + 0x6d2b79f5) | 0;
+  let t = state;
+  t = Math.imul(t ^ (t >>> 15), t | 1);
+  t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+}
+const randInt = (n: number) => Math.floor(rand() * n);
+
+const seeds: Uint8Array[] = [];
+for (const order of ['little', 'big'] as const) {
+  for (const code of [1, 2, 4, 5] as const) {
+    const s = Float64Array.from({ length: 32 }, (_, i) => Math.sin(i / 3) * 1e3);
+    seeds.push(writeSeg2({ fileStrings: { UNITS: 'METERS' }, notes: ['a', 'b'], traces: [1, 2, 3].map((c) => ({ channel: c, samples: s, sampleIntervalS: 1e-4, delayS: 0, receiverLocation: [0, 0, c] })) }, { byteOrder: order, formatCode: code }));
+  }
+}
+
+function seg2Input(): Uint8Array {
+  const kind = randInt(3);
+  if (kind === 0) {
+    const b = new Uint8Array(randInt(600));
+    for (let i = 0; i < b.length; i++) b[i] = randInt(256);
+    if (b.length >= 2 && rand() < 0.7) [b[0], b[1]] = rand() < 0.5 ? [0x55, 0x3a] : [0x3a, 0x55];
+    return b;
+  }
+  const s = seeds[randInt(seeds.length)];
+  if (kind === 1) {
+    const b = s.slice();
+    const edits = 1 + randInt(8);
+    for (let i = 0; i < edits; i++) b[randInt(b.length)] = randInt(256);
+    return b;
+  }
+  return s.subarray(0, randInt(s.length));
+}
+
+const ALPHABET = '0123456789.,;\t -+eE#/\n\r"abtmsfdeptheastnorth()_';
+function textInput(): string {
+  const n = randInt(400);
+  let out = '';
+  for (let i = 0; i < n; i++) out += ALPHABET[randInt(ALPHABET.length)];
+  if (rand() < 0.5) {
+    // structured: a plausible table with random damage
+    const rows = ['time_ms,a,b'];
+    for (let i = 0; i < 2 + randInt(30); i++) rows.push(`${i * 0.5},${randInt(100)},${randInt(100)}`);
+    out = rows.join('\n');
+    const chars = out.split('');
+    for (let k = randInt(4); k > 0; k--) chars[randInt(chars.length)] = ALPHABET[randInt(ALPHABET.length)];
+    out = chars.join('');
+  }
+  return out;
+}
+
+interface Tally {
+  tried: number;
+  ok: number;
+  codes: Map<string, number>;
+  unexpected: number;
+  firstUnexpected?: string;
+  slowestMs: number;
+}
+const readers: { name: string; run: () => void }[] = [
+  { name: 'readSeg2', run: () => void readSeg2(seg2Input(), 'fuzz.sg2') },
+  { name: 'readDelimitedText', run: () => void readDelimitedText(textInput(), 'fuzz.csv') },
+  { name: 'readDeviationTable', run: () => void readDeviationTable(textInput(), 'fuzz.csv') },
+];
+const tallies = readers.map((): Tally => ({ tried: 0, ok: 0, codes: new Map(), unexpected: 0, slowestMs: 0 }));
+
+const t0 = performance.now();
+for (let i = 0; i < total; i++) {
+  const k = i % readers.length;
+  const tally = tallies[k];
+  tally.tried++;
+  const start = performance.now();
+  try {
+    readers[k].run();
+    tally.ok++;
+  } catch (e) {
+    if (e instanceof BorewaveError) tally.codes.set(e.code, (tally.codes.get(e.code) ?? 0) + 1);
+    else {
+      tally.unexpected++;
+      tally.firstUnexpected ??= e instanceof Error ? `${e.name}: ${e.message}` : String(e);
+    }
+  }
+  tally.slowestMs = Math.max(tally.slowestMs, performance.now() - start);
+}
+
+let unexpected = 0;
+readers.forEach((r, k) => {
+  const t = tallies[k];
+  unexpected += t.unexpected;
+  process.stdout.write(`${r.name}: ${t.tried} inputs, ${t.ok} read, ${t.unexpected} unexpected exceptions, slowest ${t.slowestMs.toFixed(2)} ms\n`);
+  for (const [code, n] of [...t.codes.entries()].sort((a, b) => b[1] - a[1])) process.stdout.write(`  ${code.padEnd(28)} ${n}\n`);
+  if (t.firstUnexpected) process.stdout.write(`  first unexpected: ${t.firstUnexpected}\n`);
+});
+process.stdout.write(`total ${total} inputs in ${((performance.now() - t0) / 1000).toFixed(1)} s, unexpected exceptions: ${unexpected}\n`);
+process.exitCode = unexpected > 0 ? 1 : 0;

@@ -1,0 +1,32 @@
+/**
+ * Command-line dispatcher: `npm run cli -- <command> ...`.
+ */
+import { runInspect, type CliIo } from './inspect';
+import { runProfile } from './profile';
+
+type Command = (args: string[], io: CliIo) => Promise<number>;
+
+const COMMANDS: Record<string, Command> = {
+  inspect: runInspect,
+  profile: runProfile,
+};
+
+async function main(argv: string[]): Promise<number> {
+  const [name, ...rest] = argv;
+  const command = name ? COMMANDS[name] : undefined;
+  if (!command) {
+    process.stderr.write(`usage: cli <${Object.keys(COMMANDS).join('|')}> ...\n`);
+    return 2;
+  }
+  return command(rest, { stdout: process.stdout, stderr: process.stderr });
+}
+
+main(process.argv.slice(2)).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (e: unknown) => {
+    process.stderr.write(`cli: ${e instanceof Error ? e.message : String(e)}\n`);
+    process.exitCode = 1;
+  },
+);

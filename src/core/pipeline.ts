@@ -1,0 +1,334 @@
+/**
+ * The single way through Borewave: survey + records + settings + user edits -> stations, picks,
+ * delays, intervals, profile, stiffness and site summary. The UI, the worker, the command line and the
+ * benchmark all call these functions; none re-implements a stage.
+ *
+ * Three stages so that a pick edit does not redo the heavy work:
+ *   prepare()      conditioning and working traces (heavy; worker)
+ *   autoPick()     onset/feature picks and pair delays for the whole survey (heavy; worker)
+ *   derive()       user edits applied, intervals, profile, stiffness, Vs30, site classes (light; every edit)
+ */
+import { toErrorInfo, type ErrorInfo } from './errors';
+import type { PairDelay, Pick, Survey, Wave, WaveRecord } from './model';
+import { pickEditKey, stationWaveKey, type EditablePickMethod, type IntervalMethod, type Settings, type UserEdits } from './settings';
+import { autoPickSurvey, type AutoPickResult } from './picking/autopick';
+import { buildStations, type Station } from './survey/stations';
+import { horizontalDistanceM } from './survey/geometry';
+import { delayRequests, intervalValues, pairStations, type IntervalValue, type StationPair } from './velocity/intervals';
+import { correctedTimeS, fitLine } from './velocity/formulas';
+import { fitLayersWithRays, type RayFitResult } from './velocity/rayfit';
+import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
+import { defaultSoilColumn } from './stiffness/stress';
+import { siteClass, timeAveragedVs, SITE_CAUTIONS, type SiteClassResult, type SiteStandard, type TimeAveraged } from './stiffness/site';
+import { siteUncertainty, type SiteUncertainty } from './stiffness/montecarlo';
+
+export interface Prepared {
+  stations: Station[];
+  pairs: StationPair[];
+  issues: ErrorInfo[];
+}
+
+export function prepare(survey: Survey, records: ReadonlyMap<string, WaveRecord>, settings: Settings): Prepared {
+  const { stations, issues } = buildStations(survey, records, settings);
+  let pairs: StationPair[] = [];
+  try {
+    pairs = pairStations(survey, stations);
+  } catch (e) {
+    issues.push(toErrorInfo(e, survey.name));
+  }
+  return { stations, pairs, issues };
+}
+
+export function autoPick(prepared: Prepared, settings: Settings, onProgress?: (done: number, total: number) => void): AutoPickResult {
+  return autoPickSurvey(
+    prepared.stations.map((s) => s.working),
+    delayRequests(prepared.pairs, settings),
+    {
+      onsetMethod: settings.onsetMethod,
+      staS: settings.staS,
+      ltaS: settings.ltaS,
+      staLtaThreshold: settings.staLtaThreshold,
+      phaseBandHz: settings.phaseBandHz,
+    },
+    onProgress,
+  );
+}
+
+/** One row of the travel-time view: direct times at one station. */
+export interface TravelTimeRow {
+  stationKey: string;
+  receiver: string;
+  wave: Wave;
+  depthM: number;
+  pathM: number;
+  /** Time by pick method (s after trigger) and its slant-corrected value. */
+  times: Partial<Record<EditablePickMethod, { timeS: number; correctedS: number; origin: Pick['origin'] }>>;
+}
+
+export interface LayerFit {
+  wave: Wave;
+  topM: number;
+  bottomM: number;
+  method: EditablePickMethod;
+  velocityMps: number;
+  velocitySdMps: number | null;
+  stations: number;
+  rmsResidualS: number;
+}
+
+export interface ProfileRow extends StiffnessRow {
+  intervalKey: string;
+  method: IntervalMethod;
+  vpMethod: IntervalMethod | null;
+}
+
+export interface SiteSummary {
+  vs30: TimeAveraged | null;
+  classes: SiteClassResult[];
+  uncertainty: SiteUncertainty | null;
+  cautions: string[];
+}
+
+export interface Derived {
+  /** Effective picks: auto picks with user edits applied; picks of excluded stations carry origin 'excluded'. */
+  picks: Pick[];
+  delays: PairDelay[];
+  intervals: IntervalValue[];
+  profile: ProfileRow[];
+  travelTimes: TravelTimeRow[];
+  layerFits: LayerFit[];
+  rayFit: RayFitResult | null;
+  site: SiteSummary;
+  issues: ErrorInfo[];
+}
+
+export const SITE_STANDARDS: SiteStandard[] = ['asce7_16', 'asce7_22', 'en1998_1_2004'];
+
+const ONSET_METHODS = new Set(['aic', 'stalta', 'manual']);
+
+function editableMethodOf(p: Pick): EditablePickMethod | null {
+  if (ONSET_METHODS.has(p.method)) return 'onset';
+  if (p.method === 'peak' || p.method === 'trough' || p.method === 'zero-crossing') return p.method;
+  return null;
+}
+
+/** Applies the user's pick edits and exclusions to the automatic picks. */
+export function effectivePicks(stations: readonly Station[], auto: readonly Pick[], edits: UserEdits): Pick[] {
+  const excluded = new Set(edits.excludedStations);
+  const byStation = new Map<string, Pick[]>();
+  for (const p of auto) {
+    const k = stationWaveKey(p.stationKey, p.wave);
+    byStation.set(k, [...(byStation.get(k) ?? []), p]);
+  }
+  const out: Pick[] = [];
+  for (const s of stations) {
+    const k = stationWaveKey(s.key, s.wave);
+    const picks = (byStation.get(k) ?? []).map((p) => ({ ...p, flags: [...p.flags] }));
+    for (const m of ['onset', 'peak', 'trough', 'zero-crossing'] as EditablePickMethod[]) {
+      const t = edits.picks[pickEditKey(s.key, s.wave, m)];
+      if (t === undefined || !Number.isFinite(t)) continue;
+      const existing = picks.find((p) => editableMethodOf(p) === m);
+      if (existing) {
+        existing.timeS = t;
+        existing.origin = 'edited';
+        existing.flags = existing.flags.filter((f) => f !== 'no onset');
+      } else {
+        picks.push({
+          stationKey: s.key,
+          wave: s.wave,
+          method: m === 'onset' ? 'manual' : m,
+          timeS: t,
+          origin: 'edited',
+          snr: 0,
+          // A hand pick without an automatic one: two samples one-sigma (common practice).
+          uncertaintyS: 2 * s.working.sampleIntervalS,
+          flags: [],
+        });
+      }
+    }
+    if (excluded.has(k)) for (const p of picks) p.origin = 'excluded';
+    out.push(...picks);
+  }
+  return out;
+}
+
+function travelTimeRows(survey: Survey, stations: readonly Station[], picks: readonly Pick[]): TravelTimeRow[] {
+  const byStation = new Map<string, Pick[]>();
+  for (const p of picks) byStation.set(stationWaveKey(p.stationKey, p.wave), [...(byStation.get(stationWaveKey(p.stationKey, p.wave)) ?? []), p]);
+  return stations.map((s) => {
+    const times: TravelTimeRow['times'] = {};
+    for (const p of byStation.get(stationWaveKey(s.key, s.wave)) ?? []) {
+      const m = editableMethodOf(p);
+      if (!m || p.origin === 'excluded') continue;
+      const zs = s.sourcePos[2];
+      const vertical = s.receiverPos[2] - zs;
+      times[m] = {
+        timeS: p.timeS,
+        correctedS: survey.kind === 'crosshole' ? p.timeS : correctedTimeS(p.timeS, zs, s.receiverPos[2], s.straightPathM),
+        origin: p.origin,
+      };
+      void vertical;
+    }
+    return { stationKey: s.key, receiver: s.receiver, wave: s.wave, depthM: s.depthM, pathM: s.straightPathM, times };
+  });
+}
+
+/** Travel time against path length, fitted per layer (user boundaries, else the soil layers). */
+function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Settings, method: EditablePickMethod): LayerFit[] {
+  if (survey.kind === 'crosshole') return [];
+  const bounds = settings.layerBoundariesM.length
+    ? [...settings.layerBoundariesM].sort((a, b) => a - b)
+    : survey.soil.layers.map((l) => l.topM).concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
+  const fits: LayerFit[] = [];
+  for (const wave of ['S', 'P'] as Wave[]) {
+    const receiver = survey.kind === 'downhole-pair' ? 'upper' : undefined;
+    const ws = rows.filter((r) => r.wave === wave && (!receiver || r.receiver === receiver) && r.times[method]);
+    for (let i = 0; i + 1 < bounds.length; i++) {
+      const inLayer = ws.filter((r) => r.depthM >= bounds[i] - 1e-9 && r.depthM <= bounds[i + 1] + 1e-9);
+      const fit = fitLine(inLayer.map((r) => r.pathM), inLayer.map((r) => r.times[method]!.timeS));
+      if (!fit || !(fit.slope > 0)) continue;
+      fits.push({
+        wave,
+        topM: bounds[i],
+        bottomM: bounds[i + 1],
+        method,
+        velocityMps: 1 / fit.slope,
+        velocitySdMps: Number.isFinite(fit.slopeSe) ? fit.slopeSe / (fit.slope * fit.slope) : null,
+        stations: fit.n,
+        rmsResidualS: fit.rmsResidual,
+      });
+    }
+  }
+  return fits;
+}
+
+/** Direct times of one receiver for the given method: pick times, or (delay methods) the first onset plus cumulative delays. */
+function directTimesFor(stations: readonly Station[], pairs: readonly StationPair[], picks: readonly Pick[], delays: readonly PairDelay[], method: IntervalMethod): { station: Station; timeS: number }[] {
+  const list = stations.filter((s) => s.wave === 'S').sort((a, b) => a.depthM - b.depthM);
+  const pickOf = (s: Station, m: EditablePickMethod) => picks.find((p) => p.stationKey === s.key && p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === m);
+  if (method === 'xcorr' || method === 'phase') {
+    const out: { station: Station; timeS: number }[] = [];
+    let t: number | null = null;
+    for (const s of list) {
+      if (t === null) {
+        const p = pickOf(s, 'onset');
+        if (p) t = p.timeS;
+      } else {
+        const pr = pairs.find((q) => q.b.key === s.key && q.wave === 'S');
+        const d = pr && delays.find((x) => x.pairKey === pr.key && x.method === method);
+        if (!d) break;
+        t += d.delayS;
+      }
+      if (t !== null) out.push({ station: s, timeS: t });
+    }
+    return out;
+  }
+  const m: EditablePickMethod = method === 'ray-fit' ? 'onset' : method;
+  return list.map((s) => ({ station: s, timeS: pickOf(s, m)?.timeS ?? NaN })).filter((x) => Number.isFinite(x.timeS));
+}
+
+function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], delays: readonly PairDelay[], settings: Settings): { result: RayFitResult | null; byPair: Map<string, { velocityMps: number; sdMps: number }> } {
+  const byPair = new Map<string, { velocityMps: number; sdMps: number }>();
+  if (survey.kind !== 'downhole' || !settings.rayFit) return { result: null, byPair };
+  const method = settings.profileMethod === 'ray-fit' ? 'xcorr' : settings.profileMethod;
+  const direct = directTimesFor(prepared.stations, prepared.pairs, picks, delays, method);
+  if (direct.length < 2) return { result: null, byPair };
+  const result = fitLayersWithRays({
+    depthsM: direct.map((d) => d.station.receiverPos[2]),
+    timesS: direct.map((d) => d.timeS),
+    offsetsM: direct.map((d) => horizontalDistanceM(d.station.receiverPos, d.station.sourcePos)),
+    sourceDepthM: survey.sourceDepthM,
+  });
+  if (!result) return { result: null, byPair };
+  for (let j = 1; j < direct.length; j++) {
+    const pr = prepared.pairs.find((p) => p.wave === 'S' && p.a.key === direct[j - 1].station.key && p.b.key === direct[j].station.key);
+    if (!pr) continue;
+    const v = result.layers[j].velocityMps;
+    // Time misfit spread over the layer's travel time as a relative velocity uncertainty (first order).
+    const layerTimeS = (direct[j].station.receiverPos[2] - direct[j - 1].station.receiverPos[2]) / v;
+    byPair.set(pr.key, { velocityMps: v, sdMps: v * Math.min(1, (Math.SQRT2 * result.rmsMisfitS) / layerTimeS) });
+  }
+  return { result, byPair };
+}
+
+function profileRows(survey: Survey, intervals: readonly IntervalValue[], settings: Settings): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
+  const chosenS = intervals.filter((r) => r.wave === 'S' && r.chosen).sort((a, b) => a.topM - b.topM);
+  const chosenP = intervals.filter((r) => r.wave === 'P' && r.chosen);
+  const velocity: VelocityInterval[] = chosenS.map((s) => {
+    const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
+    return { topM: s.topM, bottomM: s.bottomM, vsMps: s.velocityMps!, vsSdMps: s.velocitySdMps ?? 0, vpMps: p?.velocityMps ?? null, vpSdMps: p?.velocitySdMps ?? null, flags: [...s.flags] };
+  });
+  const soil = survey.soil.layers.length ? survey.soil : { ...defaultSoilColumn(Math.max(30, ...velocity.map((v) => v.bottomM))), waterTableM: survey.soil.waterTableM };
+  const stiff = stiffnessProfile(velocity, soil);
+  const rows: ProfileRow[] = stiff.map((r, i) => {
+    const s = chosenS[i];
+    const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
+    return { ...r, intervalKey: s.key, method: s.method, vpMethod: p?.method ?? null };
+  });
+  void settings;
+  return { rows, velocity };
+}
+
+function siteSummary(velocity: readonly VelocityInterval[], settings: Settings): SiteSummary {
+  const ivs = velocity.filter((v) => v.vsMps > 0).map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps, vsSdMps: v.vsSdMps }));
+  const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.vs30Rule) : null;
+  const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.siteAnswers)) : [];
+  const uncertainty = ivs.length
+    ? siteUncertainty(ivs, { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed, toDepthM: 30, rule: settings.vs30Rule, answers: settings.siteAnswers })
+    : null;
+  return { vs30, classes, uncertainty, cautions: [...SITE_CAUTIONS] };
+}
+
+/** Light stage: everything that follows from the auto picks and the user's edits. */
+export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult, edits: UserEdits, settings: Settings): Derived {
+  const issues: ErrorInfo[] = [...prepared.issues];
+  const picks = effectivePicks(prepared.stations, auto.picks, edits);
+  const excluded = new Set(edits.excludedStations);
+  const pairs = prepared.pairs.filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)));
+  const picksByStation = new Map<string, Pick[]>();
+  for (const p of picks) {
+    if (p.origin === 'excluded') continue;
+    picksByStation.set(p.stationKey, [...(picksByStation.get(p.stationKey) ?? []), p]);
+  }
+  const delaysByPair = new Map<string, PairDelay[]>();
+  for (const d of auto.delays) delaysByPair.set(d.pairKey, [...(delaysByPair.get(d.pairKey) ?? []), d]);
+  const ray = rayFitFor(survey, { ...prepared, pairs }, picks, auto.delays, settings);
+  const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
+  const travelTimes = travelTimeRows(survey, prepared.stations, picks);
+  const { rows: profile, velocity } = profileRows(survey, intervals, settings);
+  const site = siteSummary(velocity, settings);
+  return {
+    picks,
+    delays: auto.delays,
+    intervals,
+    profile,
+    travelTimes,
+    layerFits: layerFits(survey, travelTimes, settings, 'onset'),
+    rayFit: ray.result,
+    site,
+    issues,
+  };
+}
+
+export interface PipelineInput {
+  survey: Survey;
+  records: ReadonlyMap<string, WaveRecord>;
+  settings: Settings;
+  edits: UserEdits;
+}
+
+export interface PipelineResult {
+  prepared: Prepared;
+  auto: AutoPickResult;
+  derived: Derived;
+}
+
+/** The whole pipeline in one call (command line, benchmark, tests). */
+export function runPipeline(input: PipelineInput, onProgress?: (stage: string, done: number, total: number) => void): PipelineResult {
+  const prepared = prepare(input.survey, input.records, input.settings);
+  onProgress?.('prepare', 1, 1);
+  const auto = autoPick(prepared, input.settings, (d, t) => onProgress?.('auto-pick', d, t));
+  const derived = derive(input.survey, prepared, auto, input.edits, input.settings);
+  onProgress?.('derive', 1, 1);
+  return { prepared, auto, derived };
+}

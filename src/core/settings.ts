@@ -1,0 +1,109 @@
+/**
+ * Processing settings and user edits: everything besides the survey and the waveforms that decides the
+ * result. Both are plain JSON (they go into project.json and the autosave).
+ */
+import type { Wave } from './model';
+
+/**
+ * How an interval's travel-time difference is obtained: differences of like picks (onset, first peak,
+ * first trough, zero crossing after the first peak), the cross-correlation or phase-slope delay between
+ * the two traces, or (downhole) the refracted-ray layer fit of the direct times.
+ */
+export type IntervalMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing' | 'xcorr' | 'phase' | 'ray-fit';
+export const INTERVAL_METHODS: IntervalMethod[] = ['xcorr', 'onset', 'peak', 'trough', 'zero-crossing', 'phase', 'ray-fit'];
+
+export type Vs30RuleSetting = 'no-extrapolation' | 'extend-deepest';
+
+export interface BandpassSetting {
+  lowHz: number;
+  highHz: number;
+  order: number;
+}
+
+export interface Settings {
+  /** Conditioning applied to every trace before picking. */
+  detrend: boolean;
+  taperFraction: number;
+  /** Band-pass per wave; null = none. */
+  bandpassS: BandpassSetting | null;
+  bandpassP: BandpassSetting | null;
+  /** Use the difference (S) / sum (P) of reversed hits when both directions exist. */
+  useReversedHits: boolean;
+  onsetMethod: 'aic' | 'stalta';
+  staS: number;
+  ltaS: number;
+  staLtaThreshold: number;
+  /** Band for the cross-spectrum phase-slope delay; null = off. */
+  phaseBandHz: [number, number] | null;
+  /** Plausible velocity ranges: bound the search windows and the lag search (cycle-skip guard). */
+  vsRangeMps: [number, number];
+  vpRangeMps: [number, number];
+  /** Method whose interval velocity goes into the profile unless the user chose another for an interval. */
+  profileMethod: IntervalMethod;
+  /** Flag an interval when methods differ by more than this share of the chosen value. */
+  methodDisagreementShare: number;
+  /** Downhole: also fit layer velocities to the direct times with refracted (Snell's law) rays. */
+  rayFit: boolean;
+  /** One-sigma uncertainty of each receiver/source position, m (enters the path-length uncertainty). */
+  positionSdM: number;
+  /** Depths of layer boundaries for travel-time regressions (user-chosen layers); empty = soil layers. */
+  layerBoundariesM: number[];
+  vs30Rule: Vs30RuleSetting;
+  /** Answers to the site-class questions beyond Vs30 (question id -> yes/no). */
+  siteAnswers: Record<string, boolean>;
+  monteCarloDraws: number;
+  monteCarloSeed: number;
+}
+
+export function defaultSettings(): Settings {
+  return {
+    detrend: true,
+    taperFraction: 0.02,
+    bandpassS: { lowHz: 10, highHz: 400, order: 2 },
+    bandpassP: { lowHz: 20, highHz: 1500, order: 2 },
+    useReversedHits: true,
+    onsetMethod: 'aic',
+    staS: 0.001,
+    ltaS: 0.01,
+    staLtaThreshold: 4,
+    phaseBandHz: null,
+    // domain.md section 3: 50-1500 m/s for S in soil (common practice), user-set.
+    vsRangeMps: [50, 1500],
+    vpRangeMps: [150, 5000],
+    profileMethod: 'xcorr',
+    methodDisagreementShare: 0.1,
+    rayFit: true,
+    positionSdM: 0.02,
+    layerBoundariesM: [],
+    vs30Rule: 'no-extrapolation',
+    siteAnswers: {},
+    monteCarloDraws: 10000,
+    monteCarloSeed: 20261201,
+  };
+}
+
+/** Pick methods a user can correct by hand ('onset' = the station's first-arrival pick). */
+export type EditablePickMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing';
+
+export interface UserEdits {
+  /** Hand-set pick times, s after trigger. Key: pickEditKey(stationKey, wave, method). */
+  picks: Record<string, number>;
+  /** Stations (stationWaveKey) the user excluded: none of their picks or intervals count. */
+  excludedStations: string[];
+  /** Per interval key: the method whose value goes into the profile. */
+  chosenMethod: Record<string, IntervalMethod>;
+  /** Interval keys left out of the profile. */
+  excludedIntervals: string[];
+}
+
+export function emptyEdits(): UserEdits {
+  return { picks: {}, excludedStations: [], chosenMethod: {}, excludedIntervals: [] };
+}
+
+export function stationWaveKey(stationKey: string, wave: Wave): string {
+  return `${stationKey}|${wave}`;
+}
+
+export function pickEditKey(stationKey: string, wave: Wave, method: EditablePickMethod): string {
+  return `${stationKey}|${wave}|${method}`;
+}

@@ -1,0 +1,207 @@
+/**
+ * Pairs of stations and their interval velocities by every method.
+ *
+ * Pairing rules (ASTM D7400 downhole, D4428 crosshole; shared/domain.md s.2):
+ * - downhole (one receiver, successive hits): successive depths of the same receiver -> pseudo interval;
+ * - two-receiver downhole: the upper and lower receiver of the same hit -> true interval;
+ * - crosshole: the near and far receiver holes at the same depth -> crosshole interval.
+ * Interval V = (L_b - L_a)/(t_b - t_a), L the straight source-receiver distance (slant distance for a
+ * surface source; 3-D distance between deviated positions for crosshole).
+ */
+import type { PairDelay, Pick, Survey, Wave } from '../model';
+import type { IntervalMethod, Settings, UserEdits } from '../settings';
+import type { DelayRequest } from '../picking/autopick';
+import type { Station } from '../survey/stations';
+import { intervalVelocityMps, intervalVelocitySdMps } from './formulas';
+
+export type IntervalKind = 'pseudo' | 'true' | 'crosshole';
+
+export interface StationPair {
+  key: string;
+  wave: Wave;
+  kind: IntervalKind;
+  a: Station;
+  b: Station;
+  /** Depth span the interval stands for, m. */
+  topM: number;
+  bottomM: number;
+}
+
+export interface IntervalValue {
+  key: string;
+  wave: Wave;
+  kind: IntervalKind;
+  stationA: string;
+  stationB: string;
+  topM: number;
+  bottomM: number;
+  pathAM: number;
+  pathBM: number;
+  method: IntervalMethod;
+  /** Travel-time difference used, s (null when the method gave none). */
+  dtS: number | null;
+  velocityMps: number | null;
+  velocitySdMps: number | null;
+  chosen: boolean;
+  flags: string[];
+}
+
+export function pairKey(wave: Wave, a: string, b: string): string {
+  return `${wave}:${a}>${b}`;
+}
+
+/** Pairs for the survey's test kind (excluded stations already removed by the caller). */
+export function pairStations(survey: Survey, stations: readonly Station[]): StationPair[] {
+  const pairs: StationPair[] = [];
+  for (const wave of ['S', 'P'] as Wave[]) {
+    const ws = stations.filter((s) => s.wave === wave);
+    if (survey.kind === 'downhole') {
+      const byReceiver = new Map<string, Station[]>();
+      for (const s of ws) byReceiver.set(s.receiver, [...(byReceiver.get(s.receiver) ?? []), s]);
+      for (const list of byReceiver.values()) {
+        list.sort((x, y) => x.depthM - y.depthM);
+        for (let i = 0; i + 1 < list.length; i++) {
+          const [a, b] = [list[i], list[i + 1]];
+          if (b.depthM - a.depthM < 1e-6) continue;
+          pairs.push({ key: pairKey(wave, a.key, b.key), wave, kind: 'pseudo', a, b, topM: a.depthM, bottomM: b.depthM });
+        }
+      }
+    } else if (survey.kind === 'downhole-pair') {
+      for (const up of ws.filter((s) => s.receiver === 'upper')) {
+        const low = ws.find((s) => s.receiver === 'lower' && Math.abs(s.depthM - (up.depthM + survey.receiverSpacingM)) < 1e-6);
+        if (!low) continue;
+        pairs.push({ key: pairKey(wave, up.key, low.key), wave, kind: 'true', a: up, b: low, topM: up.depthM, bottomM: low.depthM });
+      }
+    } else {
+      const [nearId, farId] = survey.receiverHoleIds;
+      const near = ws.filter((s) => s.receiver === nearId).sort((x, y) => x.depthM - y.depthM);
+      const depths = near.map((s) => s.depthM);
+      near.forEach((a, i) => {
+        const b = ws.find((s) => s.receiver === farId && Math.abs(s.depthM - a.depthM) < 1e-6);
+        if (!b) return;
+        // A crosshole test depth stands for the span halfway to its neighbours.
+        const up = i > 0 ? (depths[i - 1] + a.depthM) / 2 : Math.max(0, a.depthM - (depths.length > 1 ? (depths[1] - depths[0]) / 2 : 0.5));
+        const down = i + 1 < depths.length ? (depths[i + 1] + a.depthM) / 2 : a.depthM + (depths.length > 1 ? (depths[i] - depths[i - 1]) / 2 : 0.5);
+        pairs.push({ key: pairKey(wave, a.key, b.key), wave, kind: 'crosshole', a, b, topM: up, bottomM: down });
+      });
+    }
+  }
+  return pairs;
+}
+
+/** Delay requests for the picking engine: lag bounded by the path difference and the plausible velocities. */
+export function delayRequests(pairs: readonly StationPair[], settings: Settings): DelayRequest[] {
+  return pairs.map((p) => {
+    const dL = Math.max(p.b.straightPathM - p.a.straightPathM, 1e-6);
+    const range = p.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+    return { pairKey: p.key, wave: p.wave, a: p.a.key, b: p.b.key, minDelayS: dL / range[1], maxDelayS: dL / range[0] };
+  });
+}
+
+const PICK_METHOD_OF: Partial<Record<IntervalMethod, (p: Pick) => boolean>> = {
+  onset: (p) => p.method === 'aic' || p.method === 'stalta' || p.method === 'manual',
+  peak: (p) => p.method === 'peak',
+  trough: (p) => p.method === 'trough',
+  'zero-crossing': (p) => p.method === 'zero-crossing',
+};
+
+/** Fallback order when the chosen method has no value for an interval (common practice: like-for-like
+ * whole-pulse measures first, onset last). */
+const FALLBACK: IntervalMethod[] = ['xcorr', 'zero-crossing', 'peak', 'trough', 'onset', 'phase'];
+
+export interface IntervalInputs {
+  pairs: StationPair[];
+  /** Effective picks (auto with user edits applied; excluded ones removed). */
+  picksByStation: Map<string, Pick[]>;
+  delaysByPair: Map<string, PairDelay[]>;
+  /** Ray-fit interval velocities by pair key (downhole), when computed. */
+  rayFit: Map<string, { velocityMps: number; sdMps: number }>;
+  settings: Settings;
+  edits: UserEdits;
+}
+
+/** Every interval by every method, with the chosen one marked and flags set. */
+export function intervalValues(inp: IntervalInputs): IntervalValue[] {
+  const out: IntervalValue[] = [];
+  const { settings, edits } = inp;
+  const pathSdM = Math.SQRT2 * settings.positionSdM;
+  for (const pair of inp.pairs) {
+    const base = {
+      key: pair.key,
+      wave: pair.wave,
+      kind: pair.kind,
+      stationA: pair.a.key,
+      stationB: pair.b.key,
+      topM: pair.topM,
+      bottomM: pair.bottomM,
+      pathAM: pair.a.straightPathM,
+      pathBM: pair.b.straightPathM,
+    };
+    const dL = pair.b.straightPathM - pair.a.straightPathM;
+    const rows: IntervalValue[] = [];
+    const range = pair.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+    const finish = (method: IntervalMethod, dtS: number | null, dtSdS: number, extraFlags: string[]) => {
+      const flags = [...extraFlags];
+      let v: number | null = null;
+      let sd: number | null = null;
+      if (dtS !== null) {
+        if (!(dtS > 0)) flags.push('non-positive delay');
+        else if (!(dL > 0)) flags.push('no path difference');
+        else {
+          v = intervalVelocityMps(pair.a.straightPathM, pair.b.straightPathM, dtS);
+          if (v !== null) {
+            sd = intervalVelocitySdMps(v, dL, pathSdM, dtS, dtSdS);
+            if (v < range[0]) flags.push('slow?');
+            if (v > range[1]) flags.push('fast?');
+          }
+        }
+      }
+      rows.push({ ...base, method, dtS, velocityMps: v, velocitySdMps: sd, chosen: false, flags });
+    };
+    const pa = inp.picksByStation.get(pair.a.key) ?? [];
+    const pb = inp.picksByStation.get(pair.b.key) ?? [];
+    for (const m of ['onset', 'peak', 'trough', 'zero-crossing'] as IntervalMethod[]) {
+      const sel = PICK_METHOD_OF[m]!;
+      const a = pa.find(sel);
+      const b = pb.find(sel);
+      if (!a || !b) {
+        finish(m, null, 0, ['no pick']);
+        continue;
+      }
+      const flags = [...new Set([...a.flags, ...b.flags])].filter((f) => f !== 'edited');
+      if (a.origin === 'edited' || b.origin === 'edited') flags.push('edited');
+      finish(m, b.timeS - a.timeS, Math.hypot(a.uncertaintyS, b.uncertaintyS), flags);
+    }
+    for (const m of ['xcorr', 'phase'] as const) {
+      const d = (inp.delaysByPair.get(pair.key) ?? []).find((x) => x.method === m);
+      if (!d) {
+        if (m === 'xcorr' || settings.phaseBandHz) finish(m, null, 0, ['no delay']);
+        continue;
+      }
+      finish(m, d.delayS, d.uncertaintyS, d.flags);
+    }
+    const rf = inp.rayFit.get(pair.key);
+    if (rf) {
+      const flags: string[] = [];
+      if (rf.velocityMps < range[0]) flags.push('slow?');
+      if (rf.velocityMps > range[1]) flags.push('fast?');
+      rows.push({ ...base, method: 'ray-fit', dtS: null, velocityMps: rf.velocityMps, velocitySdMps: rf.sdMps, chosen: false, flags });
+    }
+    // The chosen value: the user's choice for this interval, else the settings' method, else the fallback order.
+    const wanted = edits.chosenMethod[pair.key] ?? settings.profileMethod;
+    const valid = (r: IntervalValue) => r.velocityMps !== null;
+    let chosen = rows.find((r) => r.method === wanted && valid(r));
+    if (!chosen) {
+      chosen = FALLBACK.map((m) => rows.find((r) => r.method === m && valid(r))).find(Boolean);
+      if (chosen) chosen.flags.push(`fallback from ${wanted}`);
+    }
+    if (chosen && !edits.excludedIntervals.includes(pair.key)) {
+      chosen.chosen = true;
+      const differs = rows.some((r) => r !== chosen && r.method !== 'phase' && r.method !== 'ray-fit' && valid(r) &&
+        Math.abs(r.velocityMps! - chosen!.velocityMps!) > settings.methodDisagreementShare * chosen!.velocityMps!);
+      if (differs) chosen.flags.push('methods differ');
+    }
+    out.push(...rows);
+  }
+  return out;
+}
