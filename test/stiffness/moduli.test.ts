@@ -9,8 +9,8 @@ describe('density and Gmax (trade units)', () => {
   it('rho = 1.9 Mg/m3, Vs = 200 m/s -> Gmax = 76,000 kPa (shared/domain.md section 4 [calc]; Mg/m3 x m2/s2 = kPa, common practice)', () => {
     expect(gmaxKpa(1.9, 200)).toBeCloseTo(76000, 9);
   });
-  it('rho = gamma / g: 19 kN/m3 / 9.80665 m/s2 = 1.93746 Mg/m3 (g standard gravity, CGPM 1901)', () => {
-    expect(densityMgM3(19)).toBeCloseTo(1.937460, 6);
+  it('rho = gamma / g: 19 kN/m3 / 9.80665 m/s2 = 1.937461 Mg/m3 (g standard gravity, CGPM 1901)', () => {
+    expect(densityMgM3(19)).toBeCloseTo(1.937461, 6);
   });
   it('non-positive inputs throw a BorewaveError naming the field', () => {
     expect(() => gmaxKpa(1.9, 0)).toThrow(BorewaveError);

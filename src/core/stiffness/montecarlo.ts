@@ -93,8 +93,9 @@ export function siteUncertainty(
     for (let j = 0; j < k; j++) {
       let v = mu[j];
       if (sd[j] > 0) {
-        let tries = 0;
-        do { v = mu[j] + sd[j] * normal(); } while (v < VS_FLOOR_MPS && ++tries < 16);
+        v += sd[j] * normal();
+        // Truncation below at VS_FLOOR_MPS: redraw (rare unless sd is comparable with Vs), then clamp.
+        for (let tries = 0; v < VS_FLOOR_MPS && tries < 16; tries++) v = mu[j] + sd[j] * normal();
         if (v < VS_FLOOR_MPS) v = VS_FLOOR_MPS;
       }
       slowness += d[j] / v;

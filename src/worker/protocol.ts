@@ -1,0 +1,45 @@
+/**
+ * Messages between the page and the core worker. Everything is structured-clone friendly: typed arrays
+ * travel as copies, errors as ErrorInfo.
+ */
+import type { ErrorInfo } from '../core/errors';
+import type { TestKind, Survey, WaveRecord } from '../core/model';
+import type { Settings } from '../core/settings';
+import type { ProjectDocument, ProjectFile } from '../core/io/archive';
+import type { ReadOutcome } from '../core/io/readers';
+import type { Prepared } from '../core/pipeline';
+import type { AutoPickResult } from '../core/picking/autopick';
+
+export interface NamedBytes {
+  name: string;
+  bytes: Uint8Array;
+}
+
+export type WorkerRequest =
+  | { type: 'parse'; jobId: number; files: NamedBytes[] }
+  | { type: 'open-archive'; jobId: number; name: string; bytes: Uint8Array }
+  | { type: 'make-demo'; jobId: number; kind: TestKind }
+  | { type: 'process'; jobId: number; survey: Survey; records: WaveRecord[]; settings: Settings };
+
+export interface ParsedFile {
+  name: string;
+  outcome: ReadOutcome;
+}
+
+export interface OpenedArchive {
+  doc: ProjectDocument;
+  /** Every file of the archive (waveforms and deviation tables), bytes unchanged. */
+  files: ProjectFile[];
+  missing: string[];
+  /** Read outcome of each waveform file (deviation-table files are not read as waveforms). */
+  parsed: ParsedFile[];
+}
+
+export type WorkerResponse =
+  | { type: 'progress'; jobId: number; stage: string; done: number; total: number }
+  | { type: 'parsed-file'; jobId: number; file: ParsedFile }
+  | { type: 'parsed'; jobId: number }
+  | { type: 'archive'; jobId: number; archive: OpenedArchive }
+  | { type: 'demo'; jobId: number; name: string; bytes: Uint8Array }
+  | { type: 'processed'; jobId: number; prepared: Prepared; auto: AutoPickResult }
+  | { type: 'failed'; jobId: number; error: ErrorInfo };
