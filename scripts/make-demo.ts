@@ -3,38 +3,20 @@
  *   sample-data/downhole/, sample-data/downhole-pair/, sample-data/crosshole/
  *     SEG-2 files, deviation tables (crosshole), truth.csv (true arrivals), project.zip
  *   sample-data/model.csv (the true layered model)
- *   public/demo/<survey>.zip (copies of the three project archives for the web app)
+ * The web app makes the same surveys in the browser with makeDemoProject(), so nothing is copied to public/.
  */
-import { mkdirSync, readdirSync, rmSync, writeFileSync, copyFileSync, statSync } from 'node:fs';
+import { mkdirSync, readdirSync, rmSync, writeFileSync, statSync } from 'node:fs';
 import { join, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
-import { newProjectDocument, writeProjectArchive, type ProjectFile } from '../src/core/io/archive';
-import type { ByteOrder } from '../src/core/model';
-import {
-  demoCrossholeGeometry,
-  demoCrossholeOptions,
-  demoDownholeGeometry,
-  demoDownholeOptions,
-  demoEarthModel,
-  demoPairGeometry,
-  demoPairOptions,
-  deviationCsv,
-} from '../src/core/synth/demo';
-import { synthesizeSurvey, toSeg2Input, type SynthGeometry, type SynthOptions, type SynthResult } from '../src/core/synth/synthesize';
+import { readSeg2 } from '../src/core/io/seg2';
+import { writeProjectArchive, type ProjectFile } from '../src/core/io/archive';
+import type { TestKind } from '../src/core/model';
+import { demoEarthModel, makeDemoProject } from '../src/core/synth/demo';
+import type { SynthResult } from '../src/core/synth/synthesize';
 import type { EarthModel } from '../src/core/synth/earth';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const sampleDir = join(root, 'sample-data');
-const publicDir = join(root, 'public', 'demo');
-
-interface Plan {
-  folder: string;
-  geometry: SynthGeometry;
-  options: SynthOptions;
-  byteOrder: ByteOrder;
-  formatCode: 1 | 2 | 4;
-}
 
 function truthCsv(result: SynthResult): string {
   const head = 'record_id,depth_m,hit,channel,receiver,component,s_arrival_s,p_arrival_s,s_travel_s,p_travel_s,trigger_delay_s,s_path_m,p_path_m,q_eff_s,q_eff_p,noise_std';
@@ -71,36 +53,18 @@ function roundTripError(result: SynthResult, files: ProjectFile[]): number {
   return worst;
 }
 
-function makeSurvey(model: EarthModel, plan: Plan): void {
+function makeSurvey(kind: TestKind): void {
+  const { plan, doc, files, result } = makeDemoProject(kind);
   const dir = join(sampleDir, plan.folder);
   rmSync(dir, { recursive: true, force: true });
   mkdirSync(dir, { recursive: true });
-  const result = synthesizeSurvey(model, plan.geometry, plan.options);
-  const files: ProjectFile[] = result.records.map((r) => ({
-    name: r.fileName,
-    bytes: writeSeg2(toSeg2Input(r), { byteOrder: plan.byteOrder, formatCode: plan.formatCode }),
-  }));
   const err = roundTripError(result, files);
   if (err > 1e-3) throw new Error(`${plan.folder}: SEG-2 round trip differs by ${err} of the trace peak`);
-  const deviationFiles: Record<string, string> = {};
-  const extra: ProjectFile[] = [];
-  if (plan.geometry.kind === 'crosshole') {
-    for (const hole of plan.geometry.holes) {
-      const name = `${hole.id}_deviation.csv`;
-      deviationFiles[hole.id] = name;
-      extra.push({ name, bytes: new TextEncoder().encode(deviationCsv(hole)) });
-    }
-  }
-  for (const f of [...files, ...extra]) writeFileSync(join(dir, f.name), f.bytes);
+  for (const f of files) writeFileSync(join(dir, f.name), f.bytes);
   writeFileSync(join(dir, 'truth.csv'), truthCsv(result));
-  const doc = newProjectDocument(result.survey);
-  if (Object.keys(deviationFiles).length > 0) doc.deviationFiles = deviationFiles;
-  doc.notes = `Synthetic demo survey of the invented site "${model.name}" (npm run make-demo). True model: sample-data/README.md.`;
-  const zip = writeProjectArchive(doc, [...files, ...extra]);
+  const zip = writeProjectArchive(doc, files);
   writeFileSync(join(dir, 'project.zip'), zip);
-  mkdirSync(publicDir, { recursive: true });
-  copyFileSync(join(dir, 'project.zip'), join(publicDir, `${plan.folder}.zip`));
-  console.log(`${plan.folder}: ${files.length} SEG-2 files (${plan.byteOrder}-endian, format ${plan.formatCode}), round-trip error ${err.toExponential(2)} of peak, project.zip ${(zip.length / 1e6).toFixed(2)} MB`);
+  console.log(`${plan.folder}: ${result.records.length} SEG-2 files (${plan.byteOrder}-endian, format ${plan.formatCode}), round-trip error ${err.toExponential(2)} of peak, project.zip ${(zip.length / 1e6).toFixed(2)} MB`);
 }
 
 function folderBytes(dir: string): number {
@@ -115,13 +79,8 @@ function main(): void {
   const model = demoEarthModel();
   mkdirSync(sampleDir, { recursive: true });
   writeFileSync(join(sampleDir, 'model.csv'), modelCsv(model));
-  const plans: Plan[] = [
-    { folder: 'downhole', geometry: demoDownholeGeometry(), options: demoDownholeOptions(), byteOrder: 'little', formatCode: 4 },
-    { folder: 'downhole-pair', geometry: demoPairGeometry(), options: demoPairOptions(), byteOrder: 'big', formatCode: 1 },
-    { folder: 'crosshole', geometry: demoCrossholeGeometry(), options: demoCrossholeOptions(), byteOrder: 'big', formatCode: 2 },
-  ];
-  for (const p of plans) makeSurvey(model, p);
-  console.log(`sample-data: ${(folderBytes(sampleDir) / 1e6).toFixed(2)} MB; public/demo: ${(folderBytes(publicDir) / 1e6).toFixed(2)} MB`);
+  for (const kind of ['downhole', 'downhole-pair', 'crosshole'] as const) makeSurvey(kind);
+  console.log(`sample-data: ${(folderBytes(sampleDir) / 1e6).toFixed(2)} MB`);
 }
 
 main();

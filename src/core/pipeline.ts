@@ -18,8 +18,8 @@ import { delayRequests, intervalValues, pairStations, type IntervalValue, type S
 import { correctedTimeS, fitLine } from './velocity/formulas';
 import { fitLayersWithRays, type RayFitResult } from './velocity/rayfit';
 import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
-import { defaultSoilColumn } from './stiffness/stress';
-import { siteClass, timeAveragedVs, SITE_CAUTIONS, type SiteClassResult, type SiteStandard, type TimeAveraged } from './stiffness/site';
+import { defaultSoilColumn, validateSoilColumn } from './stiffness/stress';
+import { siteClass, timeAveragedVs, SITE_CAUTIONS, SITE_STANDARDS, type SiteClassResult, type TimeAveraged } from './stiffness/site';
 import { siteUncertainty, type SiteUncertainty } from './stiffness/montecarlo';
 
 export interface Prepared {
@@ -102,8 +102,6 @@ export interface Derived {
   issues: ErrorInfo[];
 }
 
-export const SITE_STANDARDS: SiteStandard[] = ['asce7_16', 'asce7_22', 'en1998_1_2004'];
-
 const ONSET_METHODS = new Set(['aic', 'stalta', 'manual']);
 
 function editableMethodOf(p: Pick): EditablePickMethod | null {
@@ -161,13 +159,11 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
       const m = editableMethodOf(p);
       if (!m || p.origin === 'excluded') continue;
       const zs = s.sourcePos[2];
-      const vertical = s.receiverPos[2] - zs;
       times[m] = {
         timeS: p.timeS,
         correctedS: survey.kind === 'crosshole' ? p.timeS : correctedTimeS(p.timeS, zs, s.receiverPos[2], s.straightPathM),
         origin: p.origin,
       };
-      void vertical;
     }
     return { stationKey: s.key, receiver: s.receiver, wave: s.wave, depthM: s.depthM, pathM: s.straightPathM, times };
   });
@@ -251,21 +247,31 @@ function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], d
   return { result, byPair };
 }
 
-function profileRows(survey: Survey, intervals: readonly IntervalValue[], settings: Settings): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
+function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues: ErrorInfo[]): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
   const chosenS = intervals.filter((r) => r.wave === 'S' && r.chosen).sort((a, b) => a.topM - b.topM);
   const chosenP = intervals.filter((r) => r.wave === 'P' && r.chosen);
   const velocity: VelocityInterval[] = chosenS.map((s) => {
     const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
     return { topM: s.topM, bottomM: s.bottomM, vsMps: s.velocityMps!, vsSdMps: s.velocitySdMps ?? 0, vpMps: p?.velocityMps ?? null, vpSdMps: p?.velocitySdMps ?? null, flags: [...s.flags] };
   });
-  const soil = survey.soil.layers.length ? survey.soil : { ...defaultSoilColumn(Math.max(30, ...velocity.map((v) => v.bottomM))), waterTableM: survey.soil.waterTableM };
-  const stiff = stiffnessProfile(velocity, soil);
+  const fallbackSoil = { ...defaultSoilColumn(Math.max(30, ...velocity.map((v) => v.bottomM))), waterTableM: survey.soil.waterTableM };
+  const soilProblems = survey.soil.layers.length ? validateSoilColumn(survey.soil) : [];
+  issues.push(...soilProblems);
+  // An unusable soil column must not stop the profile: moduli then use the stated defaults, flagged.
+  const soil = survey.soil.layers.length && !soilProblems.length ? survey.soil : fallbackSoil;
+  let stiff: StiffnessRow[];
+  try {
+    stiff = stiffnessProfile(velocity, soil);
+  } catch (e) {
+    issues.push(toErrorInfo(e, 'soil column'));
+    stiff = stiffnessProfile(velocity, fallbackSoil);
+  }
+  if (soil === fallbackSoil) for (const r of stiff) r.flags.push('default soil column');
   const rows: ProfileRow[] = stiff.map((r, i) => {
     const s = chosenS[i];
     const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
     return { ...r, intervalKey: s.key, method: s.method, vpMethod: p?.method ?? null };
   });
-  void settings;
   return { rows, velocity };
 }
 
@@ -295,7 +301,7 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
   const ray = rayFitFor(survey, { ...prepared, pairs }, picks, auto.delays, settings);
   const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
-  const { rows: profile, velocity } = profileRows(survey, intervals, settings);
+  const { rows: profile, velocity } = profileRows(survey, intervals, issues);
   const site = siteSummary(velocity, settings);
   return {
     picks,

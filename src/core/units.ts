@@ -13,9 +13,10 @@ export type QuantityKind = 'depth' | 'velocity' | 'stress' | 'modulus' | 'unitWe
 export const M_PER_FT = 0.3048;
 export const FT_PER_M = 1 / M_PER_FT;
 export const KG_PER_LB = 0.45359237;
-export const STANDARD_GRAVITY_MPS2_UNITS = 9.80665;
+/** Standard gravity, m/s2 (defines the pound-force). */
+const G0_MPS2 = 9.80665;
 /** Pound-force in newtons: 0.45359237 kg x 9.80665 m/s2. */
-export const N_PER_LBF = KG_PER_LB * STANDARD_GRAVITY_MPS2_UNITS;
+export const N_PER_LBF = KG_PER_LB * G0_MPS2;
 
 const FT2_M2 = M_PER_FT * M_PER_FT;
 const FT3_M3 = FT2_M2 * M_PER_FT;

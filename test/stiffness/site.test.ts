@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { siteClass, siteQuestions, SITE_CAUTIONS, timeAveragedVs, vsSiteClass, type SiteStandard } from '../../src/core/stiffness/site';
+import { en1998TypeEHint, siteClass, siteQuestions, SITE_CAUTIONS, timeAveragedVs, vsSiteClass, type SiteStandard } from '../../src/core/stiffness/site';
 import { fromDisplay } from '../../src/core/units';
 
 // Vs30 = sum d_i / sum(d_i / Vs_i) (EN 1998-1:2004 eq. 3.1; ASCE 7 chapter 20).
@@ -157,5 +157,19 @@ describe('questions Vs cannot answer', () => {
     }
     expect(SITE_CAUTIONS.join(' ')).toMatch(/screening/);
     expect(SITE_CAUTIONS.join(' ')).toMatch(/qualified professional/);
+  });
+});
+
+describe('EN 1998-1 ground type E hint (Table 3.1: 5-20 m of C/D-type alluvium over Vs > 800 m/s)', () => {
+  it('12 m at 200-300 m/s over 900 m/s -> likely E, alluvium 12 m', () => {
+    const h = en1998TypeEHint([{ topM: 0, bottomM: 6, vsMps: 200 }, { topM: 6, bottomM: 12, vsMps: 300 }, { topM: 12, bottomM: 30, vsMps: 900 }]);
+    expect(h).toEqual({ likely: true, alluviumThicknessM: 12 });
+  });
+  it('3 m of soft cover (< 5 m) is not E; nor is a cover with Vs 400 m/s (type B values)', () => {
+    expect(en1998TypeEHint([{ topM: 0, bottomM: 3, vsMps: 200 }, { topM: 3, bottomM: 30, vsMps: 900 }]).likely).toBe(false);
+    expect(en1998TypeEHint([{ topM: 0, bottomM: 10, vsMps: 400 }, { topM: 10, bottomM: 30, vsMps: 900 }]).likely).toBe(false);
+  });
+  it('no interval above 800 m/s -> not E', () => {
+    expect(en1998TypeEHint([{ topM: 0, bottomM: 30, vsMps: 250 }])).toEqual({ likely: false, alluviumThicknessM: null });
   });
 });

@@ -92,7 +92,7 @@ export function allenCharacteristic(x: ArrayLike<number>, fromIdx: number, toIdx
  * STA/LTA onset (Allen 1978). Both averages are recursive, STA_i = STA_{i-1} + (E_i - STA_{i-1})/Ns
  * and LTA_i = LTA_{i-1} + (E_i - LTA_{i-1})/Nl, over Allen's characteristic function E. The
  * recursion starts up to ltaSamples before the window (both averages begin at the mean of E over the
- * first staSamples there), so the LTA has settled on pre-window noise when the window opens.
+ * first ltaSamples of the span), so the LTA stands for the pre-window noise when the window opens.
  *
  * The trigger is the first window sample where STA/LTA >= threshold. The trigger lags the onset while
  * the STA fills, so the onset is taken where the ratio began its rise to the trigger: step back from
@@ -122,8 +122,10 @@ export function staLtaOnsetIndex(
   let maxCf = 0;
   for (let i = 0; i < cf.length; i++) if (cf[i] > maxCf) maxCf = cf[i];
   const ltaFloor = maxCf > 0 ? maxCf * 1e-12 : Number.MIN_VALUE;
+  // Both averages start at the mean of E over the first ltaSamples of the span (the pre-window
+  // noise when there is room for it), so the ratio does not start from a chance value.
   let init = 0;
-  const nInit = Math.min(ns, cf.length);
+  const nInit = Math.min(nl, cf.length);
   for (let i = 0; i < nInit; i++) init += cf[i];
   init /= nInit;
   let sta = init;

@@ -8,7 +8,7 @@ export function parabolicOffset(rMinus: number, r0: number, rPlus: number): numb
   if (den === 0 || !Number.isFinite(den)) return 0;
   const d = (0.5 * (rMinus - rPlus)) / den;
   if (!Number.isFinite(d)) return 0;
-  return Math.max(-0.5, Math.min(0.5, d));
+  return Math.max(-0.5, Math.min(0.5, d)) + 0; // + 0 turns -0 into 0
 }
 
 /** Value of the fitted parabola at its vertex (offset from parabolicOffset). */

@@ -272,3 +272,19 @@ export const SITE_CAUTIONS: string[] = [
   'The applicable code\u2019s other criteria, local codes and a qualified professional govern the site class used in design.',
   'The whole profile, its picks and its layering should be reviewed by a qualified professional before use.',
 ];
+
+/**
+ * Hint for the EN 1998-1 ground type E question (not applied by itself): true when every interval from the
+ * surface down to some depth h, 5 m <= h <= 20 m, has Vs below 360 m/s (types C/D) and every interval from
+ * h to the bottom of the profile has Vs above 800 m/s. "About 5 to 20 m" is read as 5-20 m (our reading).
+ */
+export function en1998TypeEHint(intervals: readonly { topM: number; bottomM: number; vsMps: number }[]): { likely: boolean; alluviumThicknessM: number | null } {
+  const sorted = [...intervals].filter((iv) => iv.bottomM > iv.topM && iv.vsMps > 0).sort((a, b) => a.topM - b.topM);
+  const firstStiff = sorted.findIndex((iv) => iv.vsMps > 800);
+  if (firstStiff <= 0) return { likely: false, alluviumThicknessM: null };
+  const h = sorted[firstStiff].topM;
+  const softAbove = sorted.slice(0, firstStiff).every((iv) => iv.vsMps < 360);
+  const stiffBelow = sorted.slice(firstStiff).every((iv) => iv.vsMps > 800);
+  const likely = softAbove && stiffBelow && h >= 5 && h <= 20;
+  return { likely, alluviumThicknessM: softAbove ? h : null };
+}

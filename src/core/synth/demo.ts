@@ -3,9 +3,12 @@
  * clay, sands and gravels on weathered mudstone. Numbers are ours, chosen inside the typical ranges
  * of shared/domain.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
  */
-import type { Borehole, DeviationStation } from '../model';
+import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/archive';
+import { writeSeg2 } from '../io/seg2';
+import { encodeUtf8 } from '../io/bytes';
+import type { Borehole, ByteOrder, DeviationStation, TestKind } from '../model';
 import type { EarthModel } from './earth';
-import type { CrossholeGeometry, DownholeGeometry, PairGeometry, SynthOptions } from './synthesize';
+import { synthesizeSurvey, toSeg2Input, type CrossholeGeometry, type DownholeGeometry, type PairGeometry, type SynthGeometry, type SynthOptions, type SynthResult } from './synthesize';
 
 export const DEMO_SITE_NAME = 'Tillwater Bend terrace';
 
@@ -43,7 +46,8 @@ export function demoPairGeometry(): PairGeometry {
 function driftingStations(lengthM: number, eastAtBottomM: number, northAtBottomM: number): DeviationStation[] {
   return depthsFrom(0, 1.5, lengthM).map((d) => {
     const w = (d / lengthM) ** 2;
-    return { depthAlongM: d, eastM: Math.round(eastAtBottomM * w * 1000) / 1000, northM: Math.round(northAtBottomM * w * 1000) / 1000 };
+    const mm = (x: number) => Math.round(x * 1000) / 1000 + 0; // + 0 turns -0 into 0
+    return { depthAlongM: d, eastM: mm(eastAtBottomM * w), northM: mm(northAtBottomM * w) };
   });
 }
 
@@ -68,13 +72,61 @@ export function deviationCsv(hole: Borehole): string {
 const COMMON = { attenuation: true, snr: 25, maxTriggerDelayS: 1e-4, pToSRatio: 0.2, receiverRotationRad: 0.1, receiverTiltRad: 0.05 } as const;
 
 export function demoDownholeOptions(): SynthOptions {
-  return { ...COMMON, seed: 20261, sampleIntervalS: 5e-5, samplesPerTrace: 4096, sFrequencyHz: 100, pFrequencyHz: 400, surveyName: `${DEMO_SITE_NAME}: downhole DH1` };
+  return { ...COMMON, seed: 20261, sampleIntervalS: 5e-5, samplesPerTrace: 3584, sFrequencyHz: 100, pFrequencyHz: 400, surveyName: `${DEMO_SITE_NAME}: downhole DH1` };
 }
 
 export function demoPairOptions(): SynthOptions {
-  return { ...COMMON, seed: 20262, sampleIntervalS: 5e-5, samplesPerTrace: 4096, sFrequencyHz: 100, pFrequencyHz: 400, surveyName: `${DEMO_SITE_NAME}: two-receiver downhole DH1` };
+  return { ...COMMON, seed: 20262, sampleIntervalS: 5e-5, samplesPerTrace: 3584, sFrequencyHz: 100, pFrequencyHz: 400, surveyName: `${DEMO_SITE_NAME}: two-receiver downhole DH1` };
 }
 
 export function demoCrossholeOptions(): SynthOptions {
-  return { ...COMMON, seed: 20263, sampleIntervalS: 2e-5, samplesPerTrace: 4096, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500, surveyName: `${DEMO_SITE_NAME}: crosshole B1-B2-B3` };
+  return { ...COMMON, seed: 20263, sampleIntervalS: 2.5e-5, samplesPerTrace: 3072, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500, surveyName: `${DEMO_SITE_NAME}: crosshole B1-B2-B3` };
+}
+
+/** How each demo survey is generated and stored (mixed byte orders and SEG-2 format codes on purpose). */
+export interface DemoPlan {
+  kind: TestKind;
+  /** Folder under sample-data/ and name of the copy under public/demo/. */
+  folder: string;
+  geometry: SynthGeometry;
+  options: SynthOptions;
+  byteOrder: ByteOrder;
+  formatCode: 1 | 2 | 4;
+}
+
+export function demoPlan(kind: TestKind): DemoPlan {
+  if (kind === 'downhole') return { kind, folder: 'downhole', geometry: demoDownholeGeometry(), options: demoDownholeOptions(), byteOrder: 'little', formatCode: 4 };
+  if (kind === 'downhole-pair') return { kind, folder: 'downhole-pair', geometry: demoPairGeometry(), options: demoPairOptions(), byteOrder: 'big', formatCode: 1 };
+  return { kind, folder: 'crosshole', geometry: demoCrossholeGeometry(), options: demoCrossholeOptions(), byteOrder: 'big', formatCode: 2 };
+}
+
+export interface DemoProject {
+  plan: DemoPlan;
+  doc: ProjectDocument;
+  /** SEG-2 files, then deviation tables (crosshole). */
+  files: ProjectFile[];
+  result: SynthResult;
+}
+
+/** The demo survey of one kind as a project document plus its files (deterministic). */
+export function makeDemoProject(kind: TestKind): DemoProject {
+  const plan = demoPlan(kind);
+  const model = demoEarthModel();
+  const result = synthesizeSurvey(model, plan.geometry, plan.options);
+  const files: ProjectFile[] = result.records.map((r) => ({
+    name: r.fileName,
+    bytes: writeSeg2(toSeg2Input(r), { byteOrder: plan.byteOrder, formatCode: plan.formatCode }),
+  }));
+  const deviationFiles: Record<string, string> = {};
+  if (plan.geometry.kind === 'crosshole') {
+    for (const hole of plan.geometry.holes) {
+      const name = `${hole.id}_deviation.csv`;
+      deviationFiles[hole.id] = name;
+      files.push({ name, bytes: encodeUtf8(deviationCsv(hole)) });
+    }
+  }
+  const doc = newProjectDocument(result.survey, files.map((f) => f.name));
+  if (Object.keys(deviationFiles).length > 0) doc.deviationFiles = deviationFiles;
+  doc.notes = `Synthetic demo survey of the invented site "${model.name}" (forward model with known arrival times; npm run make-demo). True model: sample-data/README.md.`;
+  return { plan, doc, files, result };
 }

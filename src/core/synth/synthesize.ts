@@ -14,7 +14,12 @@
  *   plane, +1 (down) for 'down', -1 for 'up'. P motion is along the ray, same polarity for both hits.
  * - Receiver axes: nominal H1 (downhole: along the beam; crosshole: radial, away from the source hole),
  *   H2 (horizontal, across), V (down), turned by a small rotation about the vertical and a small tilt
- *   (options), so some S leaks onto H2 and some P onto H1 and V as in the field.
+ *   (options), so some S leaks onto H2 and some P onto H1 and V as in the field. Channels: downhole
+ *   H1 H2 V per receiver ('R'; two-receiver 'upper' then 'lower'); crosshole V then H1 per receiver
+ *   hole (near, far).
+ * - Headers: RECEIVER_LOCATION / SOURCE_LOCATION hold the nominal position (hole collar east, north,
+ *   depth along the hole); the true deviated positions are in the truth and follow from the survey's
+ *   deviation tables. NOTE lines carry "HIT <direction>" and the depth.
  * - Trigger delay: per hit, uniform in [0, maxTriggerDelayS) from the seeded generator; it is ADDED to
  *   every arrival of that record (recorded time = travel time + delay, as in V = D/(t - t0)).
  * - Noise: white Gaussian, per channel, standard deviation = (peak |S| over the record's channels) / snr.

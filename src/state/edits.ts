@@ -1,0 +1,88 @@
+/**
+ * User edit actions on picks, stations and intervals. Each is one undoable step. A pick edit of a
+ * method also makes that method the chosen one for the station's intervals, in the same step, so the
+ * profile follows the edit at once.
+ */
+import type { Wave } from '../core/model';
+import { pickEditKey, stationWaveKey, type EditablePickMethod, type IntervalMethod, type Settings, type UserEdits } from '../core/settings';
+import { amend, commit, useApp, useResults, type Snapshot } from './store';
+
+/** Interval keys that use the station (as either end). */
+export function intervalsOfStation(stationKey: string, wave: Wave): string[] {
+  const prepared = useResults.getState().prepared;
+  if (!prepared) return [];
+  return prepared.pairs.filter((p) => p.wave === wave && (p.a.key === stationKey || p.b.key === stationKey)).map((p) => p.key);
+}
+
+function withPick(edits: UserEdits, stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): UserEdits {
+  const chosen = { ...edits.chosenMethod };
+  for (const k of intervalsOfStation(stationKey, wave)) chosen[k] = method as IntervalMethod;
+  return { ...edits, picks: { ...edits.picks, [pickEditKey(stationKey, wave, method)]: timeS }, chosenMethod: chosen };
+}
+
+export const PICK_NOTICE = 'Interval now uses your picks: the profile follows this edit (undo with z).';
+
+/** Sets a hand pick (one undo step). */
+export function setPick(stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): void {
+  commit((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS) }), PICK_NOTICE);
+}
+
+/** Starts a drag: one undo step now, later moves amend it. */
+export function beginPickDrag(stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): void {
+  setPick(stationKey, wave, method, timeS);
+}
+
+export function movePickDrag(stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): void {
+  amend((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS) }));
+}
+
+/** Removes the hand pick of a method (back to the automatic one). */
+export function clearPick(stationKey: string, wave: Wave, method: EditablePickMethod): void {
+  const key = pickEditKey(stationKey, wave, method);
+  if (!(key in useApp.getState().edits.picks)) return;
+  commit((s) => {
+    const picks = { ...s.edits.picks };
+    delete picks[key];
+    return { edits: { ...s.edits, picks } };
+  }, 'Back to the automatic pick.');
+}
+
+/** Excludes the station (all its picks and intervals), or restores it. */
+export function toggleStationExcluded(stationKey: string, wave: Wave): void {
+  const k = stationWaveKey(stationKey, wave);
+  const was = useApp.getState().edits.excludedStations.includes(k);
+  commit(
+    (s) => ({
+      edits: {
+        ...s.edits,
+        excludedStations: was ? s.edits.excludedStations.filter((x) => x !== k) : [...s.edits.excludedStations, k],
+      },
+    }),
+    was ? 'Station restored.' : 'Station excluded: its picks and intervals no longer count.',
+  );
+}
+
+/** Method for one interval (null = follow the profile method). */
+export function setIntervalMethod(intervalKey: string, method: IntervalMethod | null): void {
+  commit((s) => {
+    const chosen = { ...s.edits.chosenMethod };
+    if (method === null) delete chosen[intervalKey];
+    else chosen[intervalKey] = method;
+    return { edits: { ...s.edits, chosenMethod: chosen } };
+  });
+}
+
+export function toggleIntervalExcluded(intervalKey: string): void {
+  commit((s) => {
+    const ex = s.edits.excludedIntervals;
+    return { edits: { ...s.edits, excludedIntervals: ex.includes(intervalKey) ? ex.filter((x) => x !== intervalKey) : [...ex, intervalKey] } };
+  });
+}
+
+export function updateSettings(patch: Partial<Settings>): void {
+  commit((s) => ({ settings: { ...s.settings, ...patch } }));
+}
+
+export function updateSurvey(change: (s: Snapshot['survey']) => Snapshot['survey']): void {
+  commit((s) => ({ survey: change(s.survey) }));
+}

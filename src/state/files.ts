@@ -1,0 +1,259 @@
+/**
+ * Loading and removing files, opening and saving project archives, the demo survey. Parsing happens in
+ * the worker; a file that fails shows its error while every good file stays loaded.
+ */
+import type { ErrorInfo } from '../core/errors';
+import type { RecordAssignment, TestKind, WaveRecord } from '../core/model';
+import { assignRecords } from '../core/survey/assign';
+import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
+import { readDeviationTable } from '../core/io/deviation';
+import { defaultSettings, emptyEdits } from '../core/settings';
+import { ioLane } from '../worker/client';
+import { newSurvey } from './defaults';
+import type { NamedBytes, OpenedArchive, ParsedFile } from '../worker/protocol';
+import { clearRaw, rawFiles, rawRecords } from './raw';
+import { initialView, pushMessage, replaceWithoutHistory, commit, useApp, useResults, type RecordMeta } from './store';
+import { runProcessing } from './processing';
+
+const ZIP_NAME = /\.zip$/i;
+
+function metaFor(name: string, sizeBytes: number, p: ParsedFile | null): RecordMeta {
+  if (!p) return { id: name, fileName: name, sizeBytes, status: 'reading' };
+  if (!p.outcome.ok) return { id: name, fileName: name, sizeBytes, status: 'error', error: p.outcome.error };
+  const r = p.outcome.record;
+  const t = r.traces[0];
+  return {
+    id: r.id,
+    fileName: name,
+    sizeBytes,
+    status: 'ok',
+    traces: r.traces.length,
+    samples: t?.samples.length ?? 0,
+    sampleIntervalS: t?.sampleIntervalS,
+    format: r.format === 'seg2' ? `SEG-2${r.formatCode ? ` (format ${r.formatCode})` : ''}` : 'text',
+  };
+}
+
+function upsertMeta(list: RecordMeta[], m: RecordMeta): RecordMeta[] {
+  const i = list.findIndex((x) => x.fileName === m.fileName);
+  if (i < 0) return [...list, m];
+  const out = [...list];
+  out[i] = m;
+  return out;
+}
+
+/** Records keep the file name as id; a second file with the same name replaces the first. */
+function storeParsed(p: ParsedFile, bytes: Uint8Array): WaveRecord | null {
+  rawFiles.set(p.name, bytes);
+  if (!p.outcome.ok) return null;
+  const rec = { ...p.outcome.record, id: p.name };
+  rawRecords.set(rec.id, rec);
+  return rec;
+}
+
+/** Places newly read records in the survey (header first, then the file-name pattern). */
+function placeNew(newRecords: WaveRecord[]): void {
+  if (!newRecords.length) return;
+  replaceWithoutHistory((s) => {
+    const ids = new Set(newRecords.map((r) => r.id));
+    const kept = s.survey.records.filter((r) => !ids.has(r.recordId));
+    const added = assignRecords(newRecords, s.survey.kind, useApp.getState().namePattern, s.survey.receiverHoleIds);
+    return { survey: { ...s.survey, records: [...kept, ...added] } };
+  });
+}
+
+/** Reads waveform files in the worker, showing progress; zip files are opened as project archives. */
+export async function loadFiles(files: NamedBytes[]): Promise<void> {
+  const zips = files.filter((f) => ZIP_NAME.test(f.name));
+  const waves = files.filter((f) => !ZIP_NAME.test(f.name));
+  for (const z of zips) await openArchiveBytes(z.name, z.bytes);
+  if (!waves.length) return;
+  const bytesByName = new Map(waves.map((f) => [f.name, f.bytes]));
+  useApp.setState((s) => ({
+    records: waves.reduce((l, f) => upsertMeta(l, metaFor(f.name, f.bytes.length, null)), s.records),
+    loadProgress: { done: 0, total: waves.length },
+  }));
+  const fresh: WaveRecord[] = [];
+  try {
+    await ioLane.run({ type: 'parse', files: waves.map((f) => ({ name: f.name, bytes: f.bytes.slice() })) }, (m) => {
+      if (m.type === 'parsed-file') {
+        const bytes = bytesByName.get(m.file.name)!;
+        const rec = storeParsed(m.file, bytes);
+        if (rec) fresh.push(rec);
+        else rawRecords.delete(m.file.name);
+        useApp.setState((s) => ({ records: upsertMeta(s.records, metaFor(m.file.name, bytes.length, m.file)) }));
+      }
+      if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
+      return m.type === 'parsed';
+    });
+  } catch (e) {
+    failStillReading(e as ErrorInfo);
+  }
+  useApp.setState((s) => ({ loadProgress: null, filesRevision: s.filesRevision + 1 }));
+  placeNew(fresh);
+}
+
+function failStillReading(err: ErrorInfo): void {
+  useApp.setState((s) => ({
+    records: s.records.map((r) => (r.status === 'reading' ? { ...r, status: 'error', error: { ...err, file: r.fileName } } : r)),
+  }));
+}
+
+export function removeFile(fileName: string): void {
+  const meta = useApp.getState().records.find((r) => r.fileName === fileName);
+  rawFiles.delete(fileName);
+  if (meta) rawRecords.delete(meta.id);
+  useApp.setState((s) => ({ records: s.records.filter((r) => r.fileName !== fileName), filesRevision: s.filesRevision + 1 }));
+  if (meta) replaceWithoutHistory((s) => ({ survey: { ...s.survey, records: s.survey.records.filter((r) => r.recordId !== meta.id) } }));
+}
+
+/** Replaces the whole session with a project document and its files (archive, demo, restore). */
+export function applyProject(doc: ProjectDocument, opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing'>, archiveName: string, extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {}): void {
+  clearRaw();
+  const metas: RecordMeta[] = [];
+  const bytesByName = new Map(opened.files.map((f) => [f.name, f.bytes]));
+  for (const f of opened.files) rawFiles.set(f.name, f.bytes);
+  for (const p of opened.parsed) {
+    storeParsed(p, bytesByName.get(p.name) ?? new Uint8Array());
+    metas.push(metaFor(p.name, bytesByName.get(p.name)?.length ?? 0, p));
+  }
+  for (const name of opened.missing) {
+    metas.push({ id: name, fileName: name, sizeBytes: 0, status: 'error', error: { code: 'ARCHIVE_FILE_MISSING', message: `${name} is listed in project.json but is not in ${archiveName}.`, file: name } });
+  }
+  // Records in the survey keep their ids; any record the archive added with a new name is placed too.
+  const placed = new Set(doc.survey.records.map((r) => r.recordId));
+  const unplaced = [...rawRecords.values()].filter((r) => !placed.has(r.id));
+  const s = useApp.getState();
+  const added: RecordAssignment[] = unplaced.length ? assignRecords(unplaced, doc.survey.kind, extra.namePattern ?? s.namePattern, doc.survey.receiverHoleIds) : [];
+  useResults.setState({ prepared: null, auto: null, key: null, status: { state: 'idle', stage: '', done: 0, total: 0 } });
+  useApp.setState((st) => ({
+    survey: { ...doc.survey, records: [...doc.survey.records, ...added] },
+    settings: doc.settings,
+    edits: doc.edits,
+    past: [],
+    future: [],
+    records: metas,
+    deviationFiles: { ...(doc.deviationFiles ?? {}) },
+    namePattern: extra.namePattern ?? st.namePattern,
+    unitSystem: extra.unitSystem ?? st.unitSystem,
+    view: { ...initialView(), recordsOpen: st.view.recordsOpen },
+    revision: st.revision + 1,
+    filesRevision: st.filesRevision + 1,
+    loadProgress: null,
+  }));
+  void runProcessing();
+}
+
+export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise<void> {
+  useApp.setState({ loadProgress: { done: 0, total: 1 } });
+  let opened: OpenedArchive | null = null;
+  try {
+    await ioLane.run({ type: 'open-archive', name, bytes: bytes.slice() }, (m) => {
+      if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
+      if (m.type === 'archive') {
+        opened = m.archive;
+        return true;
+      }
+      return false;
+    });
+  } catch (e) {
+    useApp.setState({ loadProgress: null });
+    pushMessage({ ...(e as ErrorInfo), file: (e as ErrorInfo).file ?? name });
+    return;
+  }
+  const o = opened as OpenedArchive | null;
+  if (o) applyProject(o.doc, o, name);
+}
+
+/** Makes the demo survey in the worker, then opens it exactly like a project archive. */
+export async function openDemo(kind: TestKind): Promise<void> {
+  useApp.setState({ loadProgress: { done: 0, total: 1 } });
+  let archive: { name: string; bytes: Uint8Array } | null = null;
+  try {
+    await ioLane.run({ type: 'make-demo', kind }, (m) => {
+      if (m.type === 'demo') {
+        archive = { name: m.name, bytes: m.bytes };
+        return true;
+      }
+      return false;
+    });
+  } catch (e) {
+    useApp.setState({ loadProgress: null });
+    pushMessage(e as ErrorInfo);
+    return;
+  }
+  const a = archive as { name: string; bytes: Uint8Array } | null;
+  if (a) await openArchiveBytes(a.name, a.bytes);
+}
+
+/** The current session as a project document plus its files (archive and autosave). */
+export function currentProject(): { doc: ProjectDocument; files: NamedBytes[] } {
+  const s = useApp.getState();
+  const files: NamedBytes[] = [];
+  for (const m of s.records) {
+    const b = rawFiles.get(m.fileName);
+    if (b && m.status === 'ok') files.push({ name: m.fileName, bytes: b });
+  }
+  for (const name of Object.values(s.deviationFiles)) {
+    const b = rawFiles.get(name);
+    if (b && !files.some((f) => f.name === name)) files.push({ name, bytes: b });
+  }
+  const doc: ProjectDocument = {
+    format: 'borewave-project',
+    version: 1,
+    savedAt: new Date().toISOString(),
+    survey: s.survey,
+    settings: s.settings,
+    edits: s.edits,
+    files: files.map((f) => f.name),
+    deviationFiles: { ...s.deviationFiles },
+  };
+  return { doc, files };
+}
+
+export function projectArchiveBytes(): Uint8Array {
+  const { doc, files } = currentProject();
+  return writeProjectArchive(doc, files);
+}
+
+/** Reads a deviation table (CSV text) for one borehole; on a problem nothing changes and the error is returned. */
+export function loadDeviation(holeId: string, fileName: string, text: string): ErrorInfo | null {
+  let stations;
+  try {
+    stations = readDeviationTable(text, fileName);
+  } catch (e) {
+    const err = e as { toInfo?: () => ErrorInfo; message?: string };
+    return err.toInfo ? err.toInfo() : { code: 'DEVIATION_BAD', message: err.message ?? String(e), file: fileName };
+  }
+  rawFiles.set(fileName, new TextEncoder().encode(text));
+  useApp.setState((s) => ({ deviationFiles: { ...s.deviationFiles, [holeId]: fileName }, filesRevision: s.filesRevision + 1 }));
+  commit((s) => ({ survey: { ...s.survey, boreholes: s.survey.boreholes.map((h) => (h.id === holeId ? { ...h, deviation: stations } : h)) } }));
+  return null;
+}
+
+/** Re-applies the file-name pattern (and headers) to every loaded record. */
+export function reassignAll(): void {
+  const s = useApp.getState();
+  const recs = s.survey.records.map((r) => rawRecords.get(r.recordId)).filter((r): r is WaveRecord => !!r);
+  const loose = [...rawRecords.values()].filter((r) => !s.survey.records.some((a) => a.recordId === r.id));
+  commit((snap) => ({ survey: { ...snap.survey, records: assignRecords([...recs, ...loose], snap.survey.kind, s.namePattern, snap.survey.receiverHoleIds) } }));
+}
+
+/** Everything loaded and entered is dropped: a fresh, empty session. */
+export function startFresh(): void {
+  clearRaw();
+  useResults.setState({ prepared: null, auto: null, key: null, status: { state: 'idle', stage: '', done: 0, total: 0 } });
+  useApp.setState((st) => ({
+    survey: newSurvey(st.survey.kind),
+    settings: defaultSettings(),
+    edits: emptyEdits(),
+    view: { ...initialView(), recordsOpen: st.view.recordsOpen },
+    past: [],
+    future: [],
+    records: [],
+    deviationFiles: {},
+    messages: [],
+    revision: st.revision + 1,
+    filesRevision: st.filesRevision + 1,
+  }));
+}

@@ -1,0 +1,33 @@
+/**
+ * Snap a hand pick to the nearest characteristic point of the working trace, using the core's pickers
+ * only (features.characteristicPoints, onset.aicOnsetIndex): a peak, trough or zero crossing within a
+ * quarter of the trace's dominant period of the pointer, or the AIC onset in a window around it.
+ */
+import { aicOnsetIndex } from '../core/picking/onset';
+import { characteristicPoints, dominantPeriodS } from '../core/picking/features';
+import type { EditablePickMethod } from '../core/settings';
+import type { Station } from '../core/survey/stations';
+
+export function snapTimeS(station: Station, method: EditablePickMethod, timeS: number): number {
+  const w = station.working;
+  const x = w.samples;
+  const n = x.length;
+  const dt = w.sampleIntervalS;
+  const idx = Math.round((timeS - w.delayS) / dt);
+  if (idx < 2 || idx > n - 3) return timeS;
+  try {
+    const periodS = dominantPeriodS(x, Math.max(0, idx - Math.round(0.05 / dt)), n, dt) ?? 40 * dt;
+    const half = Math.max(3, Math.round(periodS / 4 / dt));
+    const start = Math.max(1, idx - half);
+    if (method === 'onset') {
+      const end = Math.min(n - 1, idx + half);
+      const r = aicOnsetIndex(x, Math.max(0, idx - 4 * half), end);
+      return w.delayS + r.index * dt;
+    }
+    const pts = characteristicPoints(x, start, dt, w.delayS, { searchS: 2 * half * dt, minFraction: 0.05 });
+    const t = method === 'peak' ? pts.peakS : method === 'trough' ? pts.troughS : pts.zeroCrossingS;
+    return t !== null && Math.abs(t - timeS) <= 2 * half * dt ? t : timeS;
+  } catch {
+    return timeS;
+  }
+}

@@ -1,0 +1,388 @@
+/**
+ * The one window: top bar, Records (left), Trace board or Geometry (centre), Profile (right, always
+ * visible) with the Site and Export sheets over it, and the bottom strip with Pair check and Travel time.
+ */
+import { useEffect, useRef } from 'react';
+import type { Wave } from '../core/model';
+import type { EditablePickMethod } from '../core/settings';
+import { STANDARD_NAMES } from '../core/stiffness/site';
+import { EXPORT_CAUTIONS } from '../core/report/tables';
+import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
+import { currentDerived, useDerived } from '../state/derived';
+import { clearPick, setPick, toggleStationExcluded } from '../state/edits';
+import { loadFiles, startFresh } from '../state/files';
+import { cancelProcessing, runProcessing } from '../state/processing';
+import { dismissMessage, redo, setUnitSystem, setView, undo, useApp, useResults } from '../state/store';
+import { TEST_KIND_NAMES } from '../state/defaults';
+import { GeometryPane } from './Geometry';
+import { PairCheck } from './PairCheck';
+import { boardStations, effectiveReceiver, pickFor } from './picks';
+import { ProfilePane } from './Profile';
+import { filesFromList, RecordsPane } from './Records';
+import { ExportSheet, SiteSheet } from './Sheets';
+import { TraceBoard } from './TraceBoard';
+import { TravelTime } from './TravelTime';
+import { fmt, label, useUnits } from './units';
+import { METHOD_WORDS } from './picks';
+
+const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
+
+function isTyping(t: EventTarget | null): boolean {
+  const el = t as HTMLElement | null;
+  if (!el) return false;
+  const tag = el.tagName;
+  return tag === 'INPUT' || tag === 'TEXTAREA' || tag === 'SELECT' || el.isContentEditable;
+}
+
+/** Keyboard editing on the Trace board (listed in KeyboardHelp). */
+export function handleKey(e: KeyboardEvent): void {
+  if (isTyping(e.target)) return;
+  const key = e.key;
+  const ctrl = e.ctrlKey || e.metaKey;
+  if ((ctrl && key.toLowerCase() === 'z' && !e.shiftKey) || (!ctrl && key === 'z')) {
+    e.preventDefault();
+    undo();
+    return;
+  }
+  if ((ctrl && (key.toLowerCase() === 'y' || (key.toLowerCase() === 'z' && e.shiftKey))) || (!ctrl && key === 'Z')) {
+    e.preventDefault();
+    redo();
+    return;
+  }
+  if (ctrl || e.altKey) return;
+  const { view } = useApp.getState();
+  if (key === '?') {
+    setView({ helpOpen: !view.helpOpen });
+    return;
+  }
+  if (key === 'Escape') {
+    setView({ helpOpen: false, sheet: null });
+    return;
+  }
+  if (key >= '1' && key <= '4') {
+    setView({ editMethod: EDIT_METHODS[Number(key) - 1] });
+    return;
+  }
+  if (key === 'p') return setView({ tool: 'pick' });
+  if (key === 'm') return setView({ tool: 'zoom' });
+  if (key === 's') return setView({ snap: !view.snap });
+  const prepared = useResults.getState().prepared;
+  if (!prepared) return;
+  const wave: Wave = view.wave;
+  const stations = boardStations(prepared.stations, wave, effectiveReceiver(prepared.stations, wave, view.receiver));
+  if (!stations.length) return;
+  const idx = stations.findIndex((s) => s.key === view.selectedStation);
+  if (key === 'ArrowUp' || key === 'ArrowDown') {
+    e.preventDefault();
+    const next = idx < 0 ? 0 : Math.max(0, Math.min(stations.length - 1, idx + (key === 'ArrowUp' ? -1 : 1)));
+    setView({ selectedStation: stations[next].key, selectedInterval: null });
+    return;
+  }
+  if (idx < 0) return;
+  const s = stations[idx];
+  if (key === 'ArrowLeft' || key === 'ArrowRight') {
+    e.preventDefault();
+    const d = currentDerived();
+    const p = d ? pickFor(d.picks, s.key, wave, view.editMethod) : undefined;
+    if (!p) return;
+    const steps = (key === 'ArrowLeft' ? -1 : 1) * (e.shiftKey ? 10 : 1);
+    setPick(s.key, wave, view.editMethod, p.timeS + steps * s.working.sampleIntervalS);
+    return;
+  }
+  if (key === 'x') {
+    toggleStationExcluded(s.key, wave);
+    return;
+  }
+  if (key === 'Delete' || key === 'Backspace') {
+    clearPick(s.key, wave, view.editMethod);
+  }
+}
+
+function KeyboardHelp() {
+  const rows: [string, string][] = [
+    ['click (Pick tool)', 'place the pick of the method being edited on the nearest trace'],
+    ['drag (Pick tool)', 'move it; one undo step per drag'],
+    ['↑ ↓', 'previous / next trace'],
+    ['← →', 'nudge the pick one sample (with shift: ten)'],
+    ['x', 'exclude the trace, or restore it'],
+    ['Delete', 'back to the automatic pick'],
+    ['1 2 3 4', 'edit onset / first peak / first trough / zero crossing'],
+    ['p  m', 'Pick tool / Zoom tool (drag a box; double-click to see all; wheel zooms)'],
+    ['s', 'snap on or off'],
+    ['z  or  ctrl+z', 'undo'],
+    ['shift+z  or  ctrl+y', 'redo'],
+    ['?', 'this list'],
+  ];
+  return (
+    <div className="modal" role="dialog" aria-label="Keyboard" onClick={() => setView({ helpOpen: false })}>
+      <div className="modal-box" onClick={(e) => e.stopPropagation()}>
+        <h2>Keyboard and mouse</h2>
+        <table className="plain">
+          <tbody>
+            {rows.map(([k, v]) => (
+              <tr key={k}>
+                <td>
+                  <kbd>{k}</kbd>
+                </td>
+                <td>{v}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <button onClick={() => setView({ helpOpen: false })}>Close</button>
+      </div>
+    </div>
+  );
+}
+
+function TopBar() {
+  const survey = useApp((s) => s.survey);
+  const units = useApp((s) => s.unitSystem);
+  const canUndo = useApp((s) => s.past.length > 0);
+  const canRedo = useApp((s) => s.future.length > 0);
+  const autosave = useAutosave();
+  const status = useResults((s) => s.status);
+  const openRef = useRef<HTMLInputElement>(null);
+  const saveText =
+    autosave.status === 'saving'
+      ? 'saving…'
+      : autosave.status === 'saved' && autosave.savedAt
+        ? `saved ${new Date(autosave.savedAt).toLocaleTimeString()}`
+        : autosave.status === 'failed'
+          ? `autosave failed: ${autosave.error}`
+          : autosave.status === 'off'
+            ? 'autosave off'
+            : autosave.offer
+              ? 'autosave paused (restore?)'
+              : 'autosave on';
+  return (
+    <header className="topbar">
+      <span className="brand">Borewave</span>
+      <span className="survey-name" title="Survey name (edit in Geometry)">
+        {survey.name}
+      </span>
+      <span className="kind">{TEST_KIND_NAMES[survey.kind]}</span>
+      <span className="seg" role="group" aria-label="Units">
+        <button className={units === 'SI' ? 'on' : ''} aria-pressed={units === 'SI'} onClick={() => setUnitSystem('SI')}>
+          SI
+        </button>
+        <button className={units === 'US' ? 'on' : ''} aria-pressed={units === 'US'} onClick={() => setUnitSystem('US')}>
+          US
+        </button>
+      </span>
+      <button onClick={() => openRef.current?.click()}>Open project…</button>
+      <input
+        ref={openRef}
+        type="file"
+        accept=".zip"
+        hidden
+        data-testid="project-input"
+        onChange={(e) => {
+          const f = e.target.files;
+          if (f?.length) void filesFromList(f).then(loadFiles);
+          e.target.value = '';
+        }}
+      />
+      <button onClick={() => setView({ sheet: 'export' })}>Save project…</button>
+      <button onClick={undo} disabled={!canUndo} title="Undo (z)">
+        Undo
+      </button>
+      <button onClick={redo} disabled={!canRedo} title="Redo (shift+z)">
+        Redo
+      </button>
+      <span className="proc" data-testid="process-status" data-state={status.state}>
+        {status.state === 'running' ? (
+          <>
+            {status.stage === 'auto-pick' ? 'auto-picking' : 'preparing'} <progress max={status.total || 1} value={status.done} />{' '}
+            <button className="link" onClick={cancelProcessing}>
+              cancel
+            </button>
+          </>
+        ) : status.state === 'failed' ? (
+          <span className="error">processing failed: {status.error?.message}</span>
+        ) : status.state === 'done' ? (
+          <>picks up to date{status.elapsedMs ? ` (${(status.elapsedMs / 1000).toFixed(1)} s)` : ''}</>
+        ) : status.state === 'cancelled' ? (
+          'auto-pick stopped'
+        ) : null}
+      </span>
+      <button onClick={() => void runProcessing()} title="Run the automatic picker again on every trace (your edits are kept)">
+        Auto-pick
+      </button>
+      <span className="spacer" />
+      <span className="autosave" data-testid="autosave-status">
+        {saveText}
+      </span>
+      <button
+        onClick={() => {
+          if (window.confirm('Start fresh: drop every loaded file, edit and setting of this session?')) {
+            startFresh();
+            void discardSavedSession();
+          }
+        }}
+      >
+        Start fresh
+      </button>
+      <button onClick={() => setView({ helpOpen: true })} aria-label="Keyboard help" title="Keyboard and mouse (?)">
+        ?
+      </button>
+    </header>
+  );
+}
+
+function RestoreBanner() {
+  const offer = useAutosave((s) => s.offer);
+  if (!offer) return null;
+  return (
+    <div className="banner" role="alert" data-testid="restore-banner">
+      A session saved on this computer at {new Date(offer.savedAt).toLocaleString()} ({offer.doc.survey.name}, {offer.fileCount} files) can be restored.{' '}
+      <button
+        onClick={async () => {
+          const err = await restoreSession();
+          if (err) useApp.setState((s) => ({ messages: [...s.messages, err] }));
+        }}
+      >
+        Restore it
+      </button>{' '}
+      <button onClick={() => void discardSavedSession()}>Start fresh</button>
+    </div>
+  );
+}
+
+function Messages() {
+  const messages = useApp((s) => s.messages);
+  const d = useDerived();
+  const issues = d?.issues ?? [];
+  if (!messages.length && !issues.length) return null;
+  return (
+    <div className="messages" role="status">
+      {messages.map((m, i) => (
+        <div key={`m${i}`} className="error">
+          {m.message}{' '}
+          <button className="link" onClick={() => dismissMessage(i)}>
+            dismiss
+          </button>
+        </div>
+      ))}
+      {issues.slice(0, 4).map((m, i) => (
+        <div key={`i${i}`} className="warn">
+          {m.message}
+        </div>
+      ))}
+      {issues.length > 4 && <div className="warn">…and {issues.length - 4} more problems.</div>}
+    </div>
+  );
+}
+
+/** Shown only when printing (print stylesheet): survey, settings, profile table, site class, cautions. */
+function PrintSummary() {
+  const d = useDerived();
+  const survey = useApp((s) => s.survey);
+  const settings = useApp((s) => s.settings);
+  const units = useUnits();
+  const v = label('velocity', units);
+  const dep = label('depth', units);
+  return (
+    <div className="print-summary" aria-hidden="true">
+      <h1>{survey.name}</h1>
+      <p>
+        {TEST_KIND_NAMES[survey.kind]} · {survey.records.filter((r) => !r.excluded).length} records · printed {new Date().toLocaleString()}
+      </p>
+      <h2>Settings</h2>
+      <p>
+        Profile method: {METHOD_WORDS[settings.profileMethod]} · onset picker: {settings.onsetMethod} · reversed hits: {settings.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
+        {settings.bandpassS ? `${settings.bandpassS.lowHz}-${settings.bandpassS.highHz} Hz` : 'none'} · source offset {fmt('depth', units, survey.sourceOffsetM)} {dep} · water table{' '}
+        {survey.soil.waterTableM === null ? 'none' : `${fmt('depth', units, survey.soil.waterTableM)} ${dep}`}
+      </p>
+      <h2>Profile</h2>
+      <table className="num">
+        <thead>
+          <tr>
+            <th>Top ({dep})</th>
+            <th>Bottom ({dep})</th>
+            <th>Vs ({v})</th>
+            <th>± ({v})</th>
+            <th>Vp ({v})</th>
+            <th>Gmax ({label('modulus', units)})</th>
+            <th>Vs1 ({v})</th>
+            <th>Method</th>
+            <th>Flags</th>
+          </tr>
+        </thead>
+        <tbody>
+          {(d?.profile ?? []).map((r) => (
+            <tr key={r.intervalKey}>
+              <td>{fmt('depth', units, r.topM)}</td>
+              <td>{fmt('depth', units, r.bottomM)}</td>
+              <td>{fmt('velocity', units, r.vsMps)}</td>
+              <td>{fmt('velocity', units, r.vsSdMps)}</td>
+              <td>{fmt('velocity', units, r.vpMps)}</td>
+              <td>{fmt('modulus', units, r.gmaxKpa)}</td>
+              <td>{fmt('velocity', units, r.vs1Mps)}</td>
+              <td>{METHOD_WORDS[r.method]}</td>
+              <td>{r.flags.join(', ')}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <h2>Site</h2>
+      <p>
+        Vs30 = {fmt('velocity', units, d?.site.vs30?.vsMps)} {v}
+        {d?.site.uncertainty ? ` (P05 ${fmt('velocity', units, d.site.uncertainty.vs30P05Mps)}, P95 ${fmt('velocity', units, d.site.uncertainty.vs30P95Mps)})` : ''}
+      </p>
+      <ul>
+        {(d?.site.classes ?? []).map((c) => (
+          <li key={c.standard}>
+            {STANDARD_NAMES[c.standard]}: class {c.siteClass}
+          </li>
+        ))}
+      </ul>
+      <h2>Cautions</h2>
+      <ul>
+        {EXPORT_CAUTIONS.map((c) => (
+          <li key={c}>{c}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+export function App() {
+  const view = useApp((s) => s.view);
+  useEffect(() => {
+    window.addEventListener('keydown', handleKey);
+    return () => window.removeEventListener('keydown', handleKey);
+  }, []);
+  return (
+    <div className={`app ${view.recordsOpen ? '' : 'records-closed'}`}>
+      <TopBar />
+      <RestoreBanner />
+      <Messages />
+      <main className="main">
+        <RecordsPane />
+        <div className="centre">
+          <nav className="tabs" role="tablist">
+            <button role="tab" aria-selected={view.centre === 'traces'} className={view.centre === 'traces' ? 'on' : ''} onClick={() => setView({ centre: 'traces' })}>
+              Trace board
+            </button>
+            <button role="tab" aria-selected={view.centre === 'geometry'} className={view.centre === 'geometry' ? 'on' : ''} onClick={() => setView({ centre: 'geometry' })}>
+              Geometry
+            </button>
+          </nav>
+          {view.centre === 'traces' ? <TraceBoard /> : <GeometryPane />}
+        </div>
+        <div className="right">
+          <ProfilePane />
+          {view.sheet === 'site' && <SiteSheet />}
+          {view.sheet === 'export' && <ExportSheet />}
+        </div>
+      </main>
+      <footer className="strip">
+        <PairCheck />
+        <TravelTime />
+      </footer>
+      {view.helpOpen && <KeyboardHelp />}
+      <PrintSummary />
+    </div>
+  );
+}

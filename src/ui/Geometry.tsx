@@ -1,0 +1,529 @@
+/**
+ * Geometry: where every record sits (depth, hit direction, what each channel carries), the file-name
+ * pattern, source offset, receiver spacing, boreholes with deviation tables, the soil column and the
+ * processing settings. The records table takes a paste of tab-separated rows from a spreadsheet.
+ */
+import { useEffect, useState } from 'react';
+import type { Borehole, ChannelAssignment, Component, HitDirection, RecordAssignment, SoilLayer, TestKind } from '../core/model';
+import type { BandpassSetting, Settings } from '../core/settings';
+import { STRESS_EXPONENT_CHOICES } from '../core/stiffness/normalise';
+import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
+import { updateSettings, updateSurvey } from '../state/edits';
+import { loadDeviation, reassignAll } from '../state/files';
+import { TEST_KIND_NAMES } from '../state/defaults';
+import { setNamePattern, useApp } from '../state/store';
+import { fmt, label, parseDisplay, useUnits } from './units';
+import type { QuantityKind, UnitSystem } from '../core/units';
+
+const HITS: HitDirection[] = ['left', 'right', 'up', 'down', 'none'];
+const COMPONENTS: Component[] = ['H1', 'H2', 'V'];
+
+/** Text field that commits on Enter or leaving the field (one undo step per entry, not per key). */
+function Field({ value, onCommit, width = 6, ariaLabel, placeholder }: { value: string; onCommit: (text: string) => void; width?: number; ariaLabel?: string; placeholder?: string }) {
+  const [text, setText] = useState(value);
+  useEffect(() => setText(value), [value]);
+  return (
+    <input
+      className="field"
+      size={width}
+      value={text}
+      aria-label={ariaLabel}
+      placeholder={placeholder}
+      onChange={(e) => setText(e.target.value)}
+      onBlur={() => text !== value && onCommit(text)}
+      onKeyDown={(e) => {
+        if (e.key === 'Enter') (e.target as HTMLInputElement).blur();
+        if (e.key === 'Escape') setText(value);
+      }}
+    />
+  );
+}
+
+function QtyField({ kind, si, units, onCommit, allowEmpty = false, ariaLabel, decimals }: { kind: QuantityKind; si: number | null; units: UnitSystem; onCommit: (si: number | null) => void; allowEmpty?: boolean; ariaLabel?: string; decimals?: number }) {
+  return (
+    <Field
+      value={si === null ? '' : fmt(kind, units, si, decimals ?? (kind === 'depth' ? 3 : undefined))}
+      ariaLabel={ariaLabel}
+      onCommit={(t) => {
+        const v = parseDisplay(kind, units, t);
+        if (v === null && !allowEmpty) return;
+        onCommit(v);
+      }}
+    />
+  );
+}
+
+function NumField({ value, onCommit, ariaLabel }: { value: number; onCommit: (v: number) => void; ariaLabel?: string }) {
+  return (
+    <Field
+      value={String(value)}
+      ariaLabel={ariaLabel}
+      onCommit={(t) => {
+        const v = Number(t.trim().replace(',', '.'));
+        if (Number.isFinite(v)) onCommit(v);
+      }}
+    />
+  );
+}
+
+function setRecord(id: string, patch: Partial<RecordAssignment>): void {
+  updateSurvey((s) => ({ ...s, records: s.records.map((r) => (r.recordId === id ? { ...r, ...patch, assignedBy: 'manual' } : r)) }));
+}
+
+function setChannel(id: string, channel: number, patch: Partial<ChannelAssignment>): void {
+  updateSurvey((s) => ({
+    ...s,
+    records: s.records.map((r) => (r.recordId === id ? { ...r, channels: r.channels.map((c) => (c.channel === channel ? { ...c, ...patch } : c)) } : r)),
+  }));
+}
+
+const HIT_WORDS: Record<string, HitDirection> = { l: 'left', left: 'left', r: 'right', right: 'right', u: 'up', up: 'up', d: 'down', down: 'down', '': 'none', none: 'none', '-': 'none' };
+
+/**
+ * Applies pasted spreadsheet rows: record name (or row order when no name matches), depth in display
+ * units, hit, then optional component / receiver pairs per channel. Returns a summary for the user.
+ */
+export function applyPaste(text: string, records: RecordAssignment[], units: UnitSystem): { records: RecordAssignment[]; changed: number; problems: string[] } {
+  const rows = text.replace(/\r/g, '').split('\n').filter((l) => l.trim() !== '').map((l) => l.split('\t'));
+  const out = records.map((r) => ({ ...r, channels: r.channels.map((c) => ({ ...c })) }));
+  const problems: string[] = [];
+  const byName = new Map(out.map((r, i) => [r.recordId.toLowerCase(), i]));
+  const named = rows.some((r) => byName.has((r[0] ?? '').trim().toLowerCase()));
+  let changed = 0;
+  rows.forEach((cells, n) => {
+    let idx: number | undefined;
+    let c = cells;
+    if (named) {
+      idx = byName.get((cells[0] ?? '').trim().toLowerCase());
+      c = cells.slice(1);
+      if (idx === undefined) {
+        if (n > 0 || !/depth|record|file/i.test(cells.join(' '))) problems.push(`Row ${n + 1}: no record named "${cells[0]}".`);
+        return;
+      }
+    } else {
+      idx = n;
+      if (idx >= out.length) {
+        problems.push(`Row ${n + 1}: more rows than records.`);
+        return;
+      }
+    }
+    const r = out[idx];
+    const depth = parseDisplay('depth', units, c[0] ?? '');
+    if ((c[0] ?? '').trim() !== '') {
+      if (depth === null || depth < 0) problems.push(`Row ${n + 1}: depth "${c[0]}" is not a number.`);
+      else r.depthM = depth;
+    }
+    if (c[1] !== undefined && c[1].trim() !== '') {
+      const h = HIT_WORDS[c[1].trim().toLowerCase()];
+      if (h) r.hit = h;
+      else problems.push(`Row ${n + 1}: hit "${c[1]}" is not left, right, up, down or none.`);
+    }
+    for (let k = 0; 2 + 2 * k < c.length && k < r.channels.length; k++) {
+      const comp = c[2 + 2 * k]?.trim().toUpperCase();
+      const rx = c[3 + 2 * k]?.trim();
+      if (comp && (COMPONENTS as string[]).includes(comp)) r.channels[k].component = comp as Component;
+      else if (comp) problems.push(`Row ${n + 1}: component "${comp}" is not H1, H2 or V.`);
+      if (rx) r.channels[k].receiver = rx;
+    }
+    r.assignedBy = 'manual';
+    changed++;
+  });
+  return { records: out, changed, problems };
+}
+
+function RecordsTable({ units }: { units: UnitSystem }) {
+  const survey = useApp((s) => s.survey);
+  const [pasteNote, setPasteNote] = useState<string | null>(null);
+  const receivers = survey.kind === 'downhole' ? ['R'] : survey.kind === 'downhole-pair' ? ['upper', 'lower'] : survey.receiverHoleIds;
+  const maxCh = Math.max(0, ...survey.records.map((r) => r.channels.length));
+  const dep = label('depth', units);
+  return (
+    <div
+      className="table-wrap tall"
+      onPaste={(e) => {
+        const text = e.clipboardData.getData('text/plain');
+        if (!text.includes('\t') && !text.includes('\n')) return;
+        e.preventDefault();
+        const res = applyPaste(text, survey.records, units);
+        if (res.changed) updateSurvey((s) => ({ ...s, records: res.records }));
+        setPasteNote(`${res.changed} rows applied.${res.problems.length ? ' ' + res.problems.join(' ') : ''}`);
+      }}
+      tabIndex={0}
+      data-testid="geometry-records"
+    >
+      {pasteNote && <p className="notice">{pasteNote}</p>}
+      <table className="num geometry">
+        <thead>
+          <tr>
+            <th>Record</th>
+            <th>Depth ({dep})</th>
+            <th>Hit</th>
+            <th>Use</th>
+            <th>From</th>
+            {Array.from({ length: maxCh }, (_, i) => (
+              <th key={i}>Ch {i + 1}: component @ receiver</th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {survey.records.map((r) => (
+            <tr key={r.recordId} className={r.excluded ? 'off' : ''}>
+              <td className="text">{r.recordId}</td>
+              <td>
+                <QtyField kind="depth" units={units} si={r.depthM} allowEmpty onCommit={(v) => setRecord(r.recordId, { depthM: v })} ariaLabel={`Depth of ${r.recordId}`} />
+              </td>
+              <td>
+                <select value={r.hit} onChange={(e) => setRecord(r.recordId, { hit: e.target.value as HitDirection })} aria-label={`Hit of ${r.recordId}`}>
+                  {HITS.map((h) => (
+                    <option key={h}>{h}</option>
+                  ))}
+                </select>
+              </td>
+              <td>
+                <input type="checkbox" checked={!r.excluded} onChange={(e) => setRecord(r.recordId, { excluded: !e.target.checked })} aria-label={`Use ${r.recordId}`} />
+              </td>
+              <td className="muted">{r.assignedBy === 'filename' ? 'file name' : r.assignedBy}</td>
+              {r.channels.map((c) => (
+                <td key={c.channel} className="chan">
+                  <select value={c.component} onChange={(e) => setChannel(r.recordId, c.channel, { component: e.target.value as Component })} aria-label={`Component of channel ${c.channel}`}>
+                    {COMPONENTS.map((k) => (
+                      <option key={k}>{k}</option>
+                    ))}
+                  </select>
+                  @
+                  <select value={c.receiver} onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value })} aria-label={`Receiver of channel ${c.channel}`}>
+                    {[...new Set([...receivers, c.receiver])].map((k) => (
+                      <option key={k}>{k}</option>
+                    ))}
+                  </select>
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p className="small muted">
+        Paste rows from a spreadsheet here (tab-separated): record, depth ({dep}), hit, then component and receiver for each channel. Without record names the rows apply in order.
+      </p>
+    </div>
+  );
+}
+
+function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
+  const devFile = useApp((s) => s.deviationFiles[hole.id]);
+  const [paste, setPaste] = useState(false);
+  const [text, setText] = useState('');
+  const [err, setErr] = useState<string | null>(null);
+  const setHole = (patch: Partial<Borehole>) => updateSurvey((s) => ({ ...s, boreholes: s.boreholes.map((h) => (h.id === hole.id ? { ...h, ...patch } : h)) }));
+  return (
+    <>
+      <tr>
+        <td className="text">{hole.id}</td>
+        <td>
+          <QtyField kind="depth" units={units} si={hole.collarEastM} onCommit={(v) => setHole({ collarEastM: v ?? 0 })} ariaLabel={`${hole.id} collar east`} />
+        </td>
+        <td>
+          <QtyField kind="depth" units={units} si={hole.collarNorthM} onCommit={(v) => setHole({ collarNorthM: v ?? 0 })} ariaLabel={`${hole.id} collar north`} />
+        </td>
+        <td>
+          {hole.deviation.length ? `${hole.deviation.length} stations to ${fmt('depth', units, hole.deviation[hole.deviation.length - 1].depthAlongM)} ${label('depth', units)}` : 'vertical'}
+          {devFile ? <span className="muted"> ({devFile})</span> : null}
+        </td>
+        <td>
+          <label className="btn-like">
+            Load CSV…
+            <input
+              type="file"
+              accept=".csv,.txt,.tsv"
+              hidden
+              onChange={async (e) => {
+                const f = e.target.files?.[0];
+                e.target.value = '';
+                if (!f) return;
+                const problem = loadDeviation(hole.id, f.name, await f.text());
+                setErr(problem ? problem.message : null);
+              }}
+            />
+          </label>{' '}
+          <button onClick={() => setPaste(!paste)}>Paste…</button>{' '}
+          {hole.deviation.length > 0 && <button onClick={() => setHole({ deviation: [] })}>Clear</button>}
+        </td>
+      </tr>
+      {(paste || err) && (
+        <tr>
+          <td colSpan={5}>
+            {paste && (
+              <div className="paste-box">
+                <textarea rows={5} cols={50} value={text} onChange={(e) => setText(e.target.value)} placeholder="depth_along_m, east_m, north_m (header with units, one station a line)" />
+                <button
+                  onClick={() => {
+                    const problem = loadDeviation(hole.id, `${hole.id}-deviation.csv`, text);
+                    setErr(problem ? problem.message : null);
+                    if (!problem) setPaste(false);
+                  }}
+                >
+                  Use this table
+                </button>
+              </div>
+            )}
+            {err && <p className="error">{err}</p>}
+          </td>
+        </tr>
+      )}
+    </>
+  );
+}
+
+function SoilTable({ units }: { units: UnitSystem }) {
+  const soil = useApp((s) => s.survey.soil);
+  const setLayers = (layers: SoilLayer[]) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, layers } }));
+  const setLayer = (i: number, patch: Partial<SoilLayer>) => setLayers(soil.layers.map((l, j) => (j === i ? { ...l, ...patch } : l)));
+  const dep = label('depth', units);
+  return (
+    <>
+      <table className="num">
+        <thead>
+          <tr>
+            <th>Top ({dep})</th>
+            <th>Bottom ({dep})</th>
+            <th>Name</th>
+            <th>Unit weight ({label('unitWeight', units)})</th>
+            <th>n for Vs1</th>
+            <th>Poisson's ratio</th>
+            <th />
+          </tr>
+        </thead>
+        <tbody>
+          {soil.layers.map((l, i) => (
+            <tr key={i}>
+              <td>
+                <QtyField kind="depth" units={units} si={l.topM} onCommit={(v) => setLayer(i, { topM: v ?? 0 })} />
+              </td>
+              <td>
+                <QtyField kind="depth" units={units} si={l.bottomM} onCommit={(v) => setLayer(i, { bottomM: v ?? l.bottomM })} />
+              </td>
+              <td>
+                <Field value={l.name} width={18} onCommit={(t) => setLayer(i, { name: t })} />
+              </td>
+              <td>
+                <QtyField kind="unitWeight" units={units} si={l.unitWeightKnM3} onCommit={(v) => v !== null && setLayer(i, { unitWeightKnM3: v })} />
+              </td>
+              <td>
+                <select
+                  value={STRESS_EXPONENT_CHOICES.some((c) => c.n === l.stressExponent) ? String(l.stressExponent) : 'other'}
+                  onChange={(e) => e.target.value !== 'other' && setLayer(i, { stressExponent: Number(e.target.value) })}
+                  title={STRESS_EXPONENT_CHOICES.find((c) => c.n === l.stressExponent)?.source}
+                >
+                  {STRESS_EXPONENT_CHOICES.map((c) => (
+                    <option key={c.label} value={String(c.n)}>
+                      {c.n} {c.label}
+                    </option>
+                  ))}
+                  <option value="other">other…</option>
+                </select>{' '}
+                <NumField value={l.stressExponent} onCommit={(v) => setLayer(i, { stressExponent: v })} ariaLabel="n" />
+              </td>
+              <td>
+                <NumField value={l.poissonRatio} onCommit={(v) => setLayer(i, { poissonRatio: v })} ariaLabel="Poisson's ratio" />
+              </td>
+              <td>
+                <button className="link" onClick={() => setLayers(soil.layers.filter((_, j) => j !== i))}>
+                  remove
+                </button>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <button
+        onClick={() => {
+          const last = soil.layers[soil.layers.length - 1];
+          const top = last ? last.bottomM : 0;
+          setLayers([...soil.layers, { topM: top, bottomM: top + 5, name: `Layer ${soil.layers.length + 1}`, unitWeightKnM3: 19, stressExponent: 0.25, poissonRatio: 0.3 }]);
+        }}
+      >
+        Add layer
+      </button>{' '}
+      <label>
+        Water table depth ({dep}){' '}
+        <QtyField kind="depth" units={units} si={soil.waterTableM} allowEmpty onCommit={(v) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, waterTableM: v } }))} ariaLabel="Water table depth" />
+      </label>{' '}
+      <span className="small muted">(empty = none). Without layers a default column is used for stresses.</span>
+    </>
+  );
+}
+
+function BandField({ title, value, onChange }: { title: string; value: BandpassSetting | null; onChange: (v: BandpassSetting | null) => void }) {
+  return (
+    <label>
+      {title}{' '}
+      <input type="checkbox" checked={!!value} onChange={(e) => onChange(e.target.checked ? { lowHz: 10, highHz: 400, order: 2 } : null)} />
+      {value && (
+        <>
+          {' '}
+          <NumField value={value.lowHz} onCommit={(v) => onChange({ ...value, lowHz: v })} ariaLabel={`${title} low Hz`} />–
+          <NumField value={value.highHz} onCommit={(v) => onChange({ ...value, highHz: v })} ariaLabel={`${title} high Hz`} /> Hz
+        </>
+      )}
+    </label>
+  );
+}
+
+function ProcessingFields({ settings, units }: { settings: Settings; units: UnitSystem }) {
+  const v = label('velocity', units);
+  const range = (which: 'vsRangeMps' | 'vpRangeMps', i: 0 | 1) => (
+    <QtyField
+      kind="velocity"
+      units={units}
+      si={settings[which][i]}
+      onCommit={(x) => {
+        if (x === null) return;
+        const r: [number, number] = [...settings[which]] as [number, number];
+        r[i] = x;
+        updateSettings({ [which]: r } as Partial<Settings>);
+      }}
+    />
+  );
+  return (
+    <div className="form-grid">
+      <BandField title="Band-pass for S" value={settings.bandpassS} onChange={(b) => updateSettings({ bandpassS: b })} />
+      <BandField title="Band-pass for P" value={settings.bandpassP} onChange={(b) => updateSettings({ bandpassP: b })} />
+      <label>
+        <input type="checkbox" checked={settings.useReversedHits} onChange={(e) => updateSettings({ useReversedHits: e.target.checked })} /> Use reversed hits (difference for S, sum for P)
+      </label>
+      <label>
+        Onset picker{' '}
+        <select value={settings.onsetMethod} onChange={(e) => updateSettings({ onsetMethod: e.target.value as Settings['onsetMethod'] })}>
+          <option value="aic">AIC (Maeda 1985)</option>
+          <option value="stalta">STA/LTA (Allen 1978)</option>
+        </select>
+      </label>
+      <label>
+        Plausible Vs ({v}) {range('vsRangeMps', 0)}–{range('vsRangeMps', 1)}
+      </label>
+      <label>
+        Plausible Vp ({v}) {range('vpRangeMps', 0)}–{range('vpRangeMps', 1)}
+      </label>
+      <label>
+        <input type="checkbox" checked={settings.rayFit} onChange={(e) => updateSettings({ rayFit: e.target.checked })} /> Refracted-ray layer fit (downhole)
+      </label>
+      <label>
+        Flag when methods differ by more than <NumField value={Math.round(settings.methodDisagreementShare * 100)} onCommit={(x) => updateSettings({ methodDisagreementShare: x / 100 })} /> %
+      </label>
+    </div>
+  );
+}
+
+export function GeometryPane() {
+  const survey = useApp((s) => s.survey);
+  const settings = useApp((s) => s.settings);
+  const pattern = useApp((s) => s.namePattern);
+  const units = useUnits();
+  const holeIds = survey.boreholes.map((h) => h.id);
+  return (
+    <section className="geometry-pane" aria-label="Geometry">
+      <h2>Geometry</h2>
+      <div className="form-grid">
+        <label>
+          Survey name <Field value={survey.name} width={28} onCommit={(t) => updateSurvey((s) => ({ ...s, name: t }))} ariaLabel="Survey name" />
+        </label>
+        <label>
+          Test{' '}
+          <select value={survey.kind} onChange={(e) => updateSurvey((s) => ({ ...s, kind: e.target.value as TestKind }))} aria-label="Test kind">
+            {(Object.keys(TEST_KIND_NAMES) as TestKind[]).map((k) => (
+              <option key={k} value={k}>
+                {TEST_KIND_NAMES[k]}
+              </option>
+            ))}
+          </select>
+        </label>
+        {survey.kind !== 'crosshole' ? (
+          <>
+            <label>
+              Receiver hole{' '}
+              <select value={survey.mainHoleId} onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}>
+                {holeIds.map((h) => (
+                  <option key={h}>{h}</option>
+                ))}
+              </select>
+            </label>
+            <label>
+              Source offset ({label('depth', units)}) <QtyField kind="depth" units={units} si={survey.sourceOffsetM} onCommit={(v) => updateSurvey((s) => ({ ...s, sourceOffsetM: v ?? 0 }))} ariaLabel="Source offset" />
+            </label>
+            <label>
+              Source depth ({label('depth', units)}) <QtyField kind="depth" units={units} si={survey.sourceDepthM} onCommit={(v) => updateSurvey((s) => ({ ...s, sourceDepthM: v ?? 0 }))} ariaLabel="Source depth" />
+            </label>
+            {survey.kind === 'downhole-pair' && (
+              <label>
+                Receiver spacing ({label('depth', units)}) <QtyField kind="depth" units={units} si={survey.receiverSpacingM} onCommit={(v) => v && updateSurvey((s) => ({ ...s, receiverSpacingM: v }))} ariaLabel="Receiver spacing" />
+              </label>
+            )}
+          </>
+        ) : (
+          <>
+            <label>
+              Source hole{' '}
+              <select value={survey.mainHoleId} onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}>
+                {holeIds.map((h) => (
+                  <option key={h}>{h}</option>
+                ))}
+              </select>
+            </label>
+            {[0, 1].map((i) => (
+              <label key={i}>
+                {i === 0 ? 'Near' : 'Far'} receiver hole{' '}
+                <select
+                  value={survey.receiverHoleIds[i] ?? ''}
+                  onChange={(e) =>
+                    updateSurvey((s) => {
+                      const ids = [...s.receiverHoleIds];
+                      ids[i] = e.target.value;
+                      return { ...s, receiverHoleIds: ids };
+                    })
+                  }
+                >
+                  <option value="">–</option>
+                  {holeIds.map((h) => (
+                    <option key={h}>{h}</option>
+                  ))}
+                </select>
+              </label>
+            ))}
+          </>
+        )}
+      </div>
+      <h3>Records</h3>
+      <div className="form-grid">
+        <label title="{depth} number in metres, {depth_ft} in feet, {hit} L R U D or left right up down, * anything">
+          File-name pattern <Field value={pattern} width={22} onCommit={(t) => setNamePattern(t || DEFAULT_NAME_PATTERN)} ariaLabel="File-name pattern" />
+        </label>
+        <button onClick={() => reassignAll()}>Place all records again (headers, then pattern)</button>
+        <span className="small muted">
+          {'{depth}'} metres · {'{depth_ft}'} feet · {'{hit}'} L/R/U/D · * anything · default {DEFAULT_NAME_PATTERN}
+        </span>
+      </div>
+      <RecordsTable units={units} />
+      <h3>Boreholes</h3>
+      <table className="num">
+        <thead>
+          <tr>
+            <th>Hole</th>
+            <th>Collar east ({label('depth', units)})</th>
+            <th>Collar north ({label('depth', units)})</th>
+            <th>Deviation survey</th>
+            <th />
+          </tr>
+        </thead>
+        <tbody>
+          {survey.boreholes.map((h) => (
+            <BoreholeRow key={h.id} hole={h} units={units} />
+          ))}
+        </tbody>
+      </table>
+      <h3>Soil column</h3>
+      <SoilTable units={units} />
+      <h3>Processing</h3>
+      <ProcessingFields settings={settings} units={units} />
+    </section>
+  );
+}

@@ -1,0 +1,104 @@
+/**
+ * Pair check: the two working traces of the focused interval overlaid after shifting the deeper one
+ * back by the chosen travel-time difference, with the cross-correlation coefficient from the core; and
+ * the reversed hits of the selected station overlaid (first direction solid, second dashed).
+ */
+import { useMemo } from 'react';
+import { reversedDirections } from '../core/survey/stations';
+import { useDerived } from '../state/derived';
+import { rawRecords } from '../state/raw';
+import { useApp, useResults } from '../state/store';
+import { decimateMinMax, mean, peakAbs } from './decimate';
+import { focusInterval, METHOD_WORDS } from './picks';
+import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
+import { fmt, label, useUnits } from './units';
+
+const COLUMNS = 700;
+
+function normalisedLine(samples: ArrayLike<number>, delayS: number, dtS: number, shiftS: number, t0S: number, t1S: number, dash: string | undefined, colour: string, name: string, xaxis = 'x', yaxis = 'y'): PlotData {
+  const m = mean(samples);
+  const c = new Float64Array(samples.length);
+  for (let i = 0; i < c.length; i++) c[i] = samples[i] - m;
+  const peak = Math.max(1e-30, peakAbs(c));
+  const d = decimateMinMax(c, delayS - shiftS, dtS, t0S, t1S, COLUMNS);
+  const x: number[] = [];
+  const y: number[] = [];
+  for (let i = 0; i < d.length; i++) {
+    x.push(d.t[i] * 1000);
+    y.push(d.v[i] / peak);
+  }
+  return { type: 'scatter', mode: 'lines', x, y, name, xaxis, yaxis, line: { width: 1.4, color: colour, dash }, hoverinfo: 'skip' };
+}
+
+export function PairCheck() {
+  const prepared = useResults((s) => s.prepared);
+  const view = useApp((s) => s.view);
+  const kind = useApp((s) => s.survey.kind);
+  const units = useUnits();
+  const d = useDerived();
+  const key = focusInterval(d, view.hoveredInterval ?? view.selectedInterval, view.selectedStation, view.wave);
+  const chosen = d?.intervals.find((r) => r.key === key && r.chosen) ?? d?.intervals.find((r) => r.key === key);
+  const pair = prepared?.pairs.find((p) => p.key === key);
+  const xcorr = d?.delays.find((x) => x.pairKey === key && x.method === 'xcorr');
+  const station = prepared?.stations.find((s) => s.key === view.selectedStation && s.wave === view.wave) ?? pair?.b;
+
+  const data = useMemo(() => {
+    const out: PlotData[] = [];
+    if (pair && chosen && chosen.dtS !== null) {
+      const a = pair.a.working;
+      const b = pair.b.working;
+      const centre = a.searchStartS;
+      const t0 = Math.max(a.delayS, centre - 0.3 * (a.searchEndS - a.searchStartS) - 0.005);
+      const t1 = Math.min(a.delayS + (a.samples.length - 1) * a.sampleIntervalS, a.searchEndS + 0.01);
+      const colour = pair.wave === 'S' ? COLOURS.S : COLOURS.P;
+      out.push(normalisedLine(a.samples, a.delayS, a.sampleIntervalS, 0, t0, t1, undefined, COLOURS.ink, 'upper trace'));
+      out.push(normalisedLine(b.samples, b.delayS, b.sampleIntervalS, chosen.dtS, t0, t1, 'dash', colour, 'lower trace, shifted'));
+    }
+    if (station && station.hits.length > 1) {
+      const [first] = reversedDirections(kind);
+      const w = station.working;
+      const t0 = Math.max(w.delayS, w.searchStartS - 0.005);
+      const t1 = Math.min(w.delayS + (w.samples.length - 1) * w.sampleIntervalS, w.searchEndS + 0.01);
+      for (const h of station.hits) {
+        const tr = rawRecords.get(h.recordId)?.traces.find((t) => t.channel === h.channel);
+        if (!tr) continue;
+        out.push(normalisedLine(tr.samples, tr.delayS, tr.sampleIntervalS, 0, t0, t1, h.hit === first ? undefined : 'dash', h.hit === first ? COLOURS.ink : '#7b8794', `hit ${h.hit}`, 'x2', 'y2'));
+      }
+    }
+    return out;
+  }, [pair, chosen, station, kind]);
+
+  const layout = useMemo(
+    () => ({
+      ...BASE_LAYOUT,
+      margin: { l: 36, r: 8, t: 22, b: 34 },
+      grid: { rows: 1, columns: 2, pattern: 'independent' },
+      xaxis: { title: { text: 'Time (ms)' }, zeroline: false, gridcolor: COLOURS.grid, domain: [0, 0.48] },
+      yaxis: { range: [-1.1, 1.1], zeroline: true, showticklabels: false },
+      xaxis2: { title: { text: 'Time (ms)' }, zeroline: false, gridcolor: COLOURS.grid, domain: [0.54, 1] },
+      yaxis2: { range: [-1.1, 1.1], zeroline: true, showticklabels: false, anchor: 'x2' },
+      annotations: [
+        { text: 'Interval traces, lower shifted by Δt', xref: 'paper', yref: 'paper', x: 0, y: 1.08, showarrow: false, xanchor: 'left', font: { size: 11 } },
+        { text: 'Reversed hits at the station', xref: 'paper', yref: 'paper', x: 0.54, y: 1.08, showarrow: false, xanchor: 'left', font: { size: 11 } },
+      ],
+    }),
+    [],
+  );
+
+  return (
+    <section className="strip-pane" aria-label="Pair check">
+      <h2>Pair check</h2>
+      <div className="pane-note" data-testid="pair-summary">
+        {pair && chosen ? (
+          <>
+            {fmt('depth', units, pair.topM)}–{fmt('depth', units, pair.bottomM)} {label('depth', units)} · {METHOD_WORDS[chosen.method]} Δt = {chosen.dtS !== null ? (chosen.dtS * 1000).toFixed(3) : '–'} ms ·
+            cross-correlation r = {xcorr ? xcorr.coefficient.toFixed(3) : '–'}
+          </>
+        ) : (
+          'Select a trace or an interval.'
+        )}
+      </div>
+      <Plot name="pair-check" data={data} layout={layout} className="plot small" />
+    </section>
+  );
+}

@@ -1,0 +1,221 @@
+/**
+ * Side sheets over the Profile: Site (Vs30 with its spread, class per standard with probabilities, the
+ * questions each standard asks beyond Vs30, cautions) and Export (tables from core/report, plots as
+ * images, the project archive, a printable summary).
+ */
+import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
+import { intervalsTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
+import type { Vs30RuleSetting } from '../core/settings';
+import { useDerived } from '../state/derived';
+import { updateSettings } from '../state/edits';
+import { projectArchiveBytes } from '../state/files';
+import { setView, useApp, useResults } from '../state/store';
+import { downloadPlot, PLOT_NAMES, plotRegistry } from './plot';
+import { fmt, label, useUnits } from './units';
+import { useState } from 'react';
+
+export const CAUTIONS_PLAIN = [
+  'Results need review by a qualified professional before they are used; local codes govern.',
+];
+
+function SheetFrame({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <aside className="sheet" role="dialog" aria-label={title}>
+      <div className="sheet-head">
+        <h2>{title}</h2>
+        <button onClick={() => setView({ sheet: null })} aria-label="Close">
+          Close
+        </button>
+      </div>
+      <div className="sheet-body">{children}</div>
+    </aside>
+  );
+}
+
+export function SiteSheet() {
+  const d = useDerived();
+  const units = useUnits();
+  const settings = useApp((s) => s.settings);
+  const site = d?.site;
+  const vs30 = site?.vs30;
+  const u = site?.uncertainty;
+  const v = label('velocity', units);
+  const questions = siteQuestions();
+  const standards = (site?.classes ?? []).map((c) => c.standard);
+  return (
+    <SheetFrame title="Site">
+      {!vs30 ? (
+        <p>No time-averaged velocity yet: the profile needs at least one interval.</p>
+      ) : (
+        <>
+          <div className="big" data-testid="site-vs30">
+            Vs30 = {fmt('velocity', units, vs30.vsMps)} {v}
+          </div>
+          <p className="muted">
+            averaged over {fmt('depth', units, vs30.toDepthM)} {label('depth', units)}
+            {vs30.extended ? ' (deepest velocity extended to 30 m)' : ''}; profile to {fmt('depth', units, vs30.profileDepthM)} {label('depth', units)}
+            {vs30.flags.length ? ` · ${vs30.flags.join(', ')}` : ''}
+          </p>
+          {u && (
+            <p>
+              Spread from the interval uncertainties ({settings.monteCarloDraws} draws): P05 {fmt('velocity', units, u.vs30P05Mps)} · P50 {fmt('velocity', units, u.vs30P50Mps)} · P95{' '}
+              {fmt('velocity', units, u.vs30P95Mps)} {v}
+            </p>
+          )}
+          <label>
+            Profile shorter than 30 m{' '}
+            <select value={settings.vs30Rule} onChange={(e) => updateSettings({ vs30Rule: e.target.value as Vs30RuleSetting })}>
+              <option value="no-extrapolation">average over the measured depth only</option>
+              <option value="extend-deepest">extend the deepest velocity to 30 m</option>
+            </select>
+          </label>
+          <table className="num site-classes">
+            <thead>
+              <tr>
+                <th>Standard</th>
+                <th>Class</th>
+                <th>Chance of each class</th>
+              </tr>
+            </thead>
+            <tbody>
+              {site!.classes.map((c) => (
+                <tr key={c.standard} data-standard={c.standard}>
+                  <td>{STANDARD_NAMES[c.standard]}</td>
+                  <td className="cls">{c.siteClass}</td>
+                  <td>
+                    {u
+                      ? Object.entries(u.classProbabilities[c.standard] ?? {})
+                          .filter(([, p]) => p > 0)
+                          .sort((a, b) => b[1] - a[1])
+                          .map(([k, p]) => `${k} ${(p * 100).toFixed(0)} %`)
+                          .join(' · ')
+                      : '–'}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {site!.classes.map((c) => (
+            <p key={c.standard} className="small">
+              {c.basis} {c.notes.filter((n) => !n.startsWith('Not answered')).join(' ')}
+            </p>
+          ))}
+        </>
+      )}
+      <h3>Questions beyond Vs30</h3>
+      <p className="small muted">Vs cannot show these; answer from the borehole logs and laboratory tests. Unanswered counts as no.</p>
+      {questions.map((q) => (
+        <label key={q.id} className="question">
+          <input
+            type="checkbox"
+            checked={settings.siteAnswers[q.id] === true}
+            onChange={(e) => updateSettings({ siteAnswers: { ...settings.siteAnswers, [q.id]: e.target.checked } })}
+          />{' '}
+          <span>
+            {q.text} <span className="muted">({q.appliesTo.map((s: SiteStandard) => (standards.includes(s) ? STANDARD_NAMES[s].split(' (')[0] : STANDARD_NAMES[s])).join(', ')}: yes gives {q.yesClass})</span>
+          </span>
+        </label>
+      ))}
+      <h3>Cautions</h3>
+      <ul className="cautions">
+        {[...CAUTIONS_PLAIN, ...(site?.cautions ?? [])].map((c) => (
+          <li key={c}>{c}</li>
+        ))}
+      </ul>
+    </SheetFrame>
+  );
+}
+
+function download(name: string, content: string | Uint8Array, type: string): void {
+  const blob = new Blob([content as BlobPart], { type });
+  const url = URL.createObjectURL(blob);
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 5000);
+}
+
+export function safeBaseName(name: string): string {
+  return name.replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'survey';
+}
+
+export function ExportSheet() {
+  const d = useDerived();
+  const prepared = useResults((s) => s.prepared);
+  const settings = useApp((s) => s.settings);
+  const name = useApp((s) => s.survey.name);
+  const [error, setError] = useState<string | null>(null);
+  const base = safeBaseName(name);
+  const ready = !!(d && prepared);
+  const csv = (kind: 'picks' | 'intervals' | 'profile') => {
+    if (!d || !prepared) return;
+    const table = kind === 'picks' ? picksTable(prepared.stations, d) : kind === 'intervals' ? intervalsTable(d) : profileTable(d);
+    download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
+  };
+  const plot = (p: string, f: 'png' | 'svg') => {
+    setError(null);
+    downloadPlot(p, f, `${base}-${p}`).catch((e: Error) => setError(e.message));
+  };
+  return (
+    <SheetFrame title="Export">
+      <h3>Tables</h3>
+      <div className="btn-col">
+        <button disabled={!ready} onClick={() => csv('picks')}>
+          Picks (CSV)
+        </button>
+        <button disabled={!ready} onClick={() => csv('intervals')}>
+          Intervals, every method (CSV)
+        </button>
+        <button disabled={!ready} onClick={() => csv('profile')}>
+          Profile with stiffness (CSV)
+        </button>
+        <button disabled={!ready} onClick={() => d && download(`${base}-site.json`, JSON.stringify(siteJson(d, settings), null, 2), 'application/json')}>
+          Site summary (JSON)
+        </button>
+      </div>
+      <h3>Plots</h3>
+      <table className="plain">
+        <tbody>
+          {Object.entries(PLOT_NAMES).map(([k, title]) => (
+            <tr key={k}>
+              <td>{title}</td>
+              <td>
+                <button disabled={!plotRegistry.has(k)} onClick={() => plot(k, 'png')}>
+                  PNG
+                </button>{' '}
+                <button disabled={!plotRegistry.has(k)} onClick={() => plot(k, 'svg')}>
+                  SVG
+                </button>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {error && <p className="error">{error}</p>}
+      <h3>Project</h3>
+      <div className="btn-col">
+        <button
+          onClick={() => {
+            try {
+              download(`${base}.zip`, projectArchiveBytes(), 'application/zip');
+            } catch (e) {
+              setError((e as Error).message);
+            }
+          }}
+        >
+          Project archive (.zip: settings, picks, edits and the original files)
+        </button>
+        <button onClick={() => window.print()}>Printable summary…</button>
+      </div>
+      <h3>Cautions carried by every export</h3>
+      <ul className="cautions small">
+        {EXPORT_CAUTIONS.map((c) => (
+          <li key={c}>{c}</li>
+        ))}
+      </ul>
+    </SheetFrame>
+  );
+}

@@ -1,0 +1,396 @@
+/**
+ * Trace board: working traces stacked by depth (depth down, time right), picks drawn on them by origin
+ * (auto = hollow circle, edited = filled circle with a dark rim, excluded = small grey cross), click to
+ * place a pick on the nearest trace, drag to move it, keys to nudge (see KeyboardHelp).
+ */
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { Wave } from '../core/model';
+import type { EditablePickMethod } from '../core/settings';
+import type { Station } from '../core/survey/stations';
+import { reversedDirections } from '../core/survey/stations';
+import { stationWaveKey } from '../core/settings';
+import { useDerived } from '../state/derived';
+import { beginPickDrag, movePickDrag } from '../state/edits';
+import { rawRecords } from '../state/raw';
+import { setView, useApp, useResults } from '../state/store';
+import { snapTimeS } from '../state/snap';
+import { decimateMinMax, mean, medianStep, peakAbs } from './decimate';
+import { boardStations, effectiveReceiver, pickFor, receiversOf, METHOD_WORDS } from './picks';
+import { BASE_LAYOUT, COLOURS, Plot, pointerToData, type PlotData } from './plot';
+import { disp, label, useUnits } from './units';
+
+/** Above this many traces the wiggles are drawn with WebGL (scattergl). */
+export const WEBGL_TRACE_THRESHOLD = 40;
+
+const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
+
+interface Range {
+  t0S: number;
+  t1S: number;
+}
+
+function fullRange(stations: readonly Station[]): Range | null {
+  if (!stations.length) return null;
+  let t0 = Infinity;
+  let t1 = -Infinity;
+  for (const s of stations) {
+    const w = s.working;
+    t0 = Math.min(t0, w.delayS);
+    t1 = Math.max(t1, w.delayS + (w.samples.length - 1) * w.sampleIntervalS);
+  }
+  return { t0S: t0, t1S: t1 };
+}
+
+interface WiggleInput {
+  stations: Station[];
+  range: Range;
+  columns: number;
+  stepDisp: number;
+  depthOf: (s: Station) => number;
+  normalise: 'trace' | 'common';
+  gain: number;
+  fill: boolean;
+  hitView: 'working' | 'both';
+  kind: 'downhole' | 'downhole-pair' | 'crosshole';
+  gl: boolean;
+  colour: string;
+}
+
+/** One long polyline per style with NaN gaps between traces (few Plotly traces draw fastest). */
+function wiggles(inp: WiggleInput): PlotData[] {
+  const { stations, range, columns, stepDisp, gain } = inp;
+  const halfAmp = 0.5 * stepDisp * gain;
+  const clip = 0.95 * stepDisp;
+  const type = inp.gl ? 'scattergl' : 'scatter';
+  const commonPeak = inp.normalise === 'common' ? Math.max(1e-30, ...stations.map((s) => peakAbs(s.working.samples))) : 0;
+  const parts = { solid: [] as number[][], dashed: [] as number[][], lobes: [] as number[][] };
+  const push = (arr: number[][], t: Float64Array, y: Float64Array, n: number) => {
+    const xs: number[] = new Array(n + 1);
+    const ys: number[] = new Array(n + 1);
+    for (let i = 0; i < n; i++) {
+      xs[i] = t[i] * 1000;
+      ys[i] = y[i];
+    }
+    xs[n] = NaN;
+    ys[n] = NaN;
+    arr.push(xs, ys);
+  };
+  for (const s of stations) {
+    const base = inp.depthOf(s);
+    if (inp.hitView === 'both' && s.hits.length > 1) {
+      const [first, second] = reversedDirections(inp.kind);
+      const raws = s.hits
+        .map((h) => ({ h, tr: rawRecords.get(h.recordId)?.traces.find((t) => t.channel === h.channel) }))
+        .filter((x): x is { h: typeof x.h; tr: NonNullable<typeof x.tr> } => !!x.tr);
+      const centred = raws.map((r) => {
+        const m = mean(r.tr.samples);
+        const c = new Float64Array(r.tr.samples.length);
+        for (let i = 0; i < c.length; i++) c[i] = r.tr.samples[i] - m;
+        return { ...r, c };
+      });
+      const peak = Math.max(1e-30, ...centred.map((r) => peakAbs(r.c)));
+      for (const r of centred) {
+        const d = decimateMinMax(r.c, r.tr.delayS, r.tr.sampleIntervalS, range.t0S, range.t1S, columns);
+        const y = new Float64Array(d.length);
+        for (let i = 0; i < d.length; i++) y[i] = base - Math.max(-clip, Math.min(clip, (d.v[i] / peak) * halfAmp));
+        push(r.h.hit === second && r.h.hit !== first ? parts.dashed : parts.solid, d.t, y, d.length);
+      }
+      continue;
+    }
+    const w = s.working;
+    const peak = inp.normalise === 'common' ? commonPeak : Math.max(1e-30, peakAbs(w.samples));
+    const d = decimateMinMax(w.samples, w.delayS, w.sampleIntervalS, range.t0S, range.t1S, columns);
+    const y = new Float64Array(d.length);
+    for (let i = 0; i < d.length; i++) y[i] = base - Math.max(-clip, Math.min(clip, (d.v[i] / peak) * halfAmp));
+    push(parts.solid, d.t, y, d.length);
+    if (inp.fill && d.length > 1) {
+      // Variable-area fill of the positive lobes: the positive envelope closed along the baseline.
+      const ly = new Float64Array(d.length + 2);
+      const lt = new Float64Array(d.length + 2);
+      lt[0] = d.t[0];
+      ly[0] = base;
+      for (let i = 0; i < d.length; i++) {
+        lt[i + 1] = d.t[i];
+        ly[i + 1] = Math.min(base, y[i]);
+      }
+      lt[d.length + 1] = d.t[d.length - 1];
+      ly[d.length + 1] = base;
+      push(parts.lobes, lt, ly, d.length + 2);
+    }
+  }
+  const flat = (arr: number[][], k: 0 | 1) => {
+    const out: number[] = [];
+    for (let i = k; i < arr.length; i += 2) for (const v of arr[i]) out.push(v);
+    return out;
+  };
+  const out: PlotData[] = [];
+  if (parts.lobes.length) {
+    out.push({ type, mode: 'lines', x: flat(parts.lobes, 0), y: flat(parts.lobes, 1), fill: 'toself', fillcolor: inp.colour + '55', line: { width: 0, color: inp.colour }, hoverinfo: 'skip', name: 'lobes' });
+  }
+  out.push({ type, mode: 'lines', x: flat(parts.solid, 0), y: flat(parts.solid, 1), line: { width: 1, color: COLOURS.ink }, hoverinfo: 'skip', name: 'wiggles', connectgaps: false });
+  if (parts.dashed.length) {
+    out.push({ type, mode: 'lines', x: flat(parts.dashed, 0), y: flat(parts.dashed, 1), line: { width: 1, color: '#52606d', dash: 'dash' }, hoverinfo: 'skip', name: 'second direction', connectgaps: false });
+  }
+  return out;
+}
+
+export function TraceBoard() {
+  const prepared = useResults((s) => s.prepared);
+  const status = useResults((s) => s.status);
+  const survey = useApp((s) => s.survey);
+  const edits = useApp((s) => s.edits);
+  const view = useApp((s) => s.view);
+  const units = useUnits();
+  const derived = useDerived();
+  const [range, setRange] = useState<Range | null>(null);
+  const [width, setWidth] = useState(900);
+  const wrapRef = useRef<HTMLDivElement>(null);
+  const divRef = useRef<HTMLDivElement | null>(null);
+  const [drawMs, setDrawMs] = useState<number | null>(null);
+
+  const wave: Wave = view.wave;
+  const allStations = prepared?.stations ?? [];
+  const receiver = effectiveReceiver(allStations, wave, view.receiver);
+  const stations = useMemo(() => boardStations(allStations, wave, receiver), [allStations, wave, receiver]);
+  const full = useMemo(() => fullRange(stations), [stations]);
+  const shown = range ?? full;
+  const depthOf = useMemo(() => (s: Station) => disp('depth', units, s.depthM), [units]);
+  const stepDisp = useMemo(() => medianStep(stations.map(depthOf), 1), [stations, depthOf]);
+  const gl = stations.length > WEBGL_TRACE_THRESHOLD;
+  const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
+
+  useEffect(() => setRange(null), [wave, receiver, prepared]);
+
+  useEffect(() => {
+    const el = wrapRef.current;
+    if (!el) return;
+    const ro = new ResizeObserver(() => setWidth(Math.max(200, el.clientWidth)));
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []);
+
+  const wiggleData = useMemo(() => {
+    if (!shown || !stations.length) return [];
+    return wiggles({
+      stations,
+      range: shown,
+      columns: Math.max(100, width - 90),
+      stepDisp,
+      depthOf,
+      normalise: view.normalise,
+      gain: view.gain,
+      fill: view.fill && view.hitView === 'working',
+      hitView: view.hitView,
+      kind: survey.kind,
+      gl,
+      colour,
+    });
+  }, [stations, shown, width, stepDisp, depthOf, view.normalise, view.gain, view.fill, view.hitView, survey.kind, gl, colour]);
+
+  const pickData = useMemo(() => {
+    if (!derived) return [];
+    const groups = { auto: { x: [] as number[], y: [] as number[], text: [] as string[] }, edited: { x: [] as number[], y: [] as number[], text: [] as string[] }, excluded: { x: [] as number[], y: [] as number[], text: [] as string[] } };
+    const excludedSet = new Set(edits.excludedStations);
+    for (const s of stations) {
+      const p = pickFor(derived.picks, s.key, wave, view.editMethod);
+      if (!p) continue;
+      const origin = excludedSet.has(stationWaveKey(s.key, wave)) ? 'excluded' : p.origin;
+      groups[origin].x.push(p.timeS * 1000);
+      groups[origin].y.push(depthOf(s));
+      groups[origin].text.push(s.key);
+    }
+    return [
+      { type: 'scatter', mode: 'markers', name: 'auto picks', x: groups.auto.x, y: groups.auto.y, customdata: groups.auto.text, marker: { symbol: 'circle-open', size: 10, color: colour, line: { width: 2, color: colour } }, hoverinfo: 'skip' },
+      { type: 'scatter', mode: 'markers', name: 'edited picks', x: groups.edited.x, y: groups.edited.y, customdata: groups.edited.text, marker: { symbol: 'circle', size: 10, color: colour, line: { width: 2, color: COLOURS.rim } }, hoverinfo: 'skip' },
+      { type: 'scatter', mode: 'markers', name: 'excluded picks', x: groups.excluded.x, y: groups.excluded.y, customdata: groups.excluded.text, marker: { symbol: 'x-thin-open', size: 7, color: COLOURS.muted, line: { width: 1.5, color: COLOURS.muted } }, hoverinfo: 'skip' },
+    ] as PlotData[];
+  }, [derived, stations, wave, view.editMethod, depthOf, colour, edits.excludedStations]);
+
+  const layout = useMemo(() => {
+    const shapes: Record<string, unknown>[] = [];
+    const hovered = view.hoveredInterval ? derived?.intervals.find((r) => r.key === view.hoveredInterval) : undefined;
+    if (hovered) {
+      shapes.push({ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, hovered.topM), y1: disp('depth', units, hovered.bottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' });
+    }
+    const sel = stations.find((s) => s.key === view.selectedStation);
+    if (sel) {
+      const y = depthOf(sel);
+      shapes.push({ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: y - stepDisp / 2, y1: y + stepDisp / 2, fillcolor: COLOURS.select, line: { width: 1, color: colour, dash: 'dot' }, layer: 'below' });
+    }
+    const depths = stations.map(depthOf);
+    const yMin = depths.length ? Math.min(...depths) - stepDisp : 0;
+    const yMax = depths.length ? Math.max(...depths) + stepDisp : 1;
+    return {
+      ...BASE_LAYOUT,
+      uirevision: `${wave}|${receiver}|${stations.length}`,
+      margin: { l: 56, r: 12, t: 8, b: 40 },
+      dragmode: view.tool === 'zoom' ? 'zoom' : false,
+      xaxis: { title: { text: 'Time after trigger (ms)' }, range: shown ? [shown.t0S * 1000, shown.t1S * 1000] : undefined, zeroline: false, gridcolor: COLOURS.grid },
+      yaxis: { title: { text: `Depth (${label('depth', units)})` }, range: [yMax, yMin], zeroline: false, gridcolor: COLOURS.grid },
+      shapes,
+    };
+  }, [view.hoveredInterval, view.selectedStation, view.tool, derived, stations, depthOf, stepDisp, units, shown, wave, receiver, colour]);
+
+  const data = useMemo(() => [...wiggleData, ...pickData], [wiggleData, pickData]);
+
+  // Pick tool: click places a pick on the nearest trace, dragging moves it; one undo step per gesture.
+  useEffect(() => {
+    const div = wrapRef.current;
+    if (!div) return;
+    const nearest = (y: number) => {
+      let best: Station | null = null;
+      for (const s of stations) if (!best || Math.abs(depthOf(s) - y) < Math.abs(depthOf(best) - y)) best = s;
+      return best;
+    };
+    const onDown = (ev: MouseEvent) => {
+      const st = useApp.getState().view;
+      const plotDiv = divRef.current;
+      if (ev.button !== 0 || !plotDiv) return;
+      const p = pointerToData(plotDiv, ev.clientX, ev.clientY);
+      if (!p || !p.inside) return;
+      const s = nearest(p.y);
+      if (!s) return;
+      setView({ selectedStation: s.key, selectedInterval: null });
+      if (st.tool !== 'pick') return;
+      ev.preventDefault();
+      ev.stopPropagation();
+      const method = st.editMethod;
+      const place = (clientX: number) => {
+        const q = pointerToData(plotDiv, clientX, ev.clientY);
+        if (!q) return null;
+        const tS = q.x / 1000;
+        return st.snap ? snapTimeS(s, method, tS) : tS;
+      };
+      const t0 = place(ev.clientX);
+      if (t0 === null) return;
+      beginPickDrag(s.key, s.wave, method, t0);
+      let frame = 0;
+      let lastX = ev.clientX;
+      const onMove = (e: MouseEvent) => {
+        lastX = e.clientX;
+        if (frame) return;
+        frame = requestAnimationFrame(() => {
+          frame = 0;
+          const t = place(lastX);
+          if (t !== null) movePickDrag(s.key, s.wave, method, t);
+        });
+      };
+      const onUp = () => {
+        if (frame) cancelAnimationFrame(frame);
+        window.removeEventListener('mousemove', onMove, true);
+        window.removeEventListener('mouseup', onUp, true);
+        if (lastX !== ev.clientX) {
+          const t = place(lastX);
+          if (t !== null) movePickDrag(s.key, s.wave, method, t);
+        }
+      };
+      window.addEventListener('mousemove', onMove, true);
+      window.addEventListener('mouseup', onUp, true);
+    };
+    div.addEventListener('mousedown', onDown, true);
+    return () => div.removeEventListener('mousedown', onDown, true);
+  }, [stations, depthOf]);
+
+  const receivers = receiversOf(allStations, wave);
+  const running = status.state === 'running';
+
+  return (
+    <section className="board" aria-label="Trace board">
+      <div className="toolbar" role="toolbar" aria-label="Trace board tools">
+        <label>
+          Wave{' '}
+          <select value={wave} onChange={(e) => setView({ wave: e.target.value as Wave, selectedStation: null })} aria-label="Wave">
+            <option value="S">S (shear)</option>
+            <option value="P">P (compression)</option>
+          </select>
+        </label>
+        {receivers.length > 1 && (
+          <label>
+            Receiver{' '}
+            <select value={receiver} onChange={(e) => setView({ receiver: e.target.value })} aria-label="Receiver">
+              {receivers.map((r) => (
+                <option key={r} value={r}>
+                  {r}
+                </option>
+              ))}
+              <option value="*">all</option>
+            </select>
+          </label>
+        )}
+        <label>
+          Editing{' '}
+          <select value={view.editMethod} onChange={(e) => setView({ editMethod: e.target.value as EditablePickMethod })} aria-label="Pick method being edited">
+            {EDIT_METHODS.map((m, i) => (
+              <option key={m} value={m}>
+                {i + 1} {METHOD_WORDS[m]}
+              </option>
+            ))}
+          </select>
+        </label>
+        <span className="seg" role="group" aria-label="Mouse tool">
+          <button className={view.tool === 'pick' ? 'on' : ''} onClick={() => setView({ tool: 'pick' })} aria-pressed={view.tool === 'pick'} title="Click to place a pick, drag to move it (p)">
+            Pick
+          </button>
+          <button className={view.tool === 'zoom' ? 'on' : ''} onClick={() => setView({ tool: 'zoom' })} aria-pressed={view.tool === 'zoom'} title="Drag to zoom, double-click to see all (m)">
+            Zoom
+          </button>
+        </span>
+        <label title="Snap a placed pick to the nearest peak, trough, zero crossing or onset of the chosen method (s)">
+          <input type="checkbox" checked={view.snap} onChange={(e) => setView({ snap: e.target.checked })} /> Snap
+        </label>
+        <label>
+          <input type="checkbox" checked={view.fill} onChange={(e) => setView({ fill: e.target.checked })} /> Fill lobes
+        </label>
+        <label>
+          Scale{' '}
+          <select value={view.normalise} onChange={(e) => setView({ normalise: e.target.value as 'trace' | 'common' })} aria-label="Amplitude scaling">
+            <option value="trace">each trace</option>
+            <option value="common">common</option>
+          </select>
+        </label>
+        <label>
+          Gain <input type="range" min={0.25} max={6} step={0.25} value={view.gain} onChange={(e) => setView({ gain: Number(e.target.value) })} aria-label="Gain" />
+        </label>
+        <label title="Reversed hits: the working (difference) trace alone, or both directions (first solid, second dashed)">
+          Hits{' '}
+          <select value={view.hitView} onChange={(e) => setView({ hitView: e.target.value as 'working' | 'both' })} aria-label="Reversed hits">
+            <option value="working">difference trace</option>
+            <option value="both">both directions</option>
+          </select>
+        </label>
+      </div>
+      <div className="board-plot" ref={wrapRef} data-tool={view.tool}>
+        {stations.length ? (
+          <Plot
+            name="trace-board"
+            data={data}
+            layout={layout}
+            config={{ doubleClick: 'reset' }}
+            onReady={(d) => (divRef.current = d)}
+            onDrawn={setDrawMs}
+            onRelayout={(e) => {
+              if (e['xaxis.autorange']) setRange(null);
+              else if (typeof e['xaxis.range[0]'] === 'number' && typeof e['xaxis.range[1]'] === 'number') {
+                setRange({ t0S: (e['xaxis.range[0]'] as number) / 1000, t1S: (e['xaxis.range[1]'] as number) / 1000 });
+              }
+            }}
+          />
+        ) : (
+          <div className="empty">
+            {running ? 'Preparing the working traces…' : 'No traces yet: load waveform files or open the demo survey, then give each record a depth in Geometry.'}
+          </div>
+        )}
+      </div>
+      <div className="board-foot" aria-live="polite">
+        <span className="legend">
+          <span className="mk auto" style={{ borderColor: colour }} /> automatic <span className="mk edited" style={{ background: colour }} /> edited <span className="mk excluded">×</span> excluded
+        </span>
+        {view.notice && <span className="notice">{view.notice}</span>}
+        <span className="muted">
+          {stations.length} traces{gl ? ' (WebGL)' : ''}
+          {drawMs !== null ? ` · drawn in ${drawMs.toFixed(0)} ms` : ''}
+        </span>
+      </div>
+    </section>
+  );
+}
