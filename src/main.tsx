@@ -5,13 +5,13 @@ import './ui/app.css';
 import { watchProcessing } from './state/processing';
 import { checkForSavedSession } from './state/autosave';
 import { useApp, useResults } from './state/store';
-import { lastDeriveMs } from './state/derived';
+import { currentDerived, lastDeriveMs } from './state/derived';
 
 watchProcessing();
 void checkForSavedSession();
 
 // Read-only handles for the end-to-end tests and measurements (no effect on the app).
-(window as unknown as { __borewave: unknown }).__borewave = { useApp, useResults, deriveMs: () => lastDeriveMs };
+(window as unknown as { __borewave: unknown }).__borewave = { useApp, useResults, derived: currentDerived, deriveMs: () => lastDeriveMs };
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

@@ -71,10 +71,10 @@ export function ProfilePlot() {
     const v = label('velocity', units);
     return {
       ...BASE_LAYOUT,
-      margin: { l: 48, r: 8, t: 26, b: 36 },
-      xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})` }, gridcolor: COLOURS.grid, zeroline: false, rangemode: 'tozero', side: 'top' },
-      xaxis2: { domain: [0.55, 0.77], title: { text: `Gmax (${label('modulus', units)})` }, gridcolor: COLOURS.grid, zeroline: false, rangemode: 'tozero', side: 'top', anchor: 'y' },
-      xaxis3: { domain: [0.82, 1], title: { text: `Vs1 (${v})` }, gridcolor: COLOURS.grid, zeroline: false, rangemode: 'tozero', side: 'top', anchor: 'y' },
+      margin: { l: 48, r: 10, t: 44, b: 8 },
+      xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})`, standoff: 4 }, ...TOP_AXIS },
+      xaxis2: { domain: [0.56, 0.77], title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 }, ...TOP_AXIS, anchor: 'y' },
+      xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, anchor: 'y' },
       yaxis: { title: { text: `Depth (${label('depth', units)})` }, autorange: 'reversed', gridcolor: COLOURS.grid, zeroline: false },
       shapes: hovered
         ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, hovered.topM), y1: disp('depth', units, hovered.bottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
@@ -84,6 +84,9 @@ export function ProfilePlot() {
 
   return <Plot name="profile" data={data} layout={layout} className="plot profile-plot" />;
 }
+
+/** Value axes on top (depth plots read downward), never below zero even when an error bar is wide. */
+const TOP_AXIS = { gridcolor: COLOURS.grid, zeroline: false, side: 'top', nticks: 4, autorangeoptions: { minallowed: 0 }, tickfont: { size: 10 } };
 
 interface IntervalGroup {
   key: string;

@@ -72,17 +72,17 @@ export function SiteSheet() {
           <table className="num site-classes">
             <thead>
               <tr>
-                <th>Standard</th>
+                <th className="text">Standard</th>
                 <th>Class</th>
-                <th>Chance of each class</th>
+                <th className="text">Chance of each class (from the spread)</th>
               </tr>
             </thead>
             <tbody>
               {site!.classes.map((c) => (
                 <tr key={c.standard} data-standard={c.standard}>
-                  <td>{STANDARD_NAMES[c.standard]}</td>
+                  <td className="text">{STANDARD_NAMES[c.standard]}</td>
                   <td className="cls">{c.siteClass}</td>
-                  <td>
+                  <td className="text">
                     {u
                       ? Object.entries(u.classProbabilities[c.standard] ?? {})
                           .filter(([, p]) => p > 0)

@@ -4,7 +4,8 @@
  */
 import { useMemo } from 'react';
 import { useDerived } from '../state/derived';
-import { useApp } from '../state/store';
+import { useApp, useResults } from '../state/store';
+import { effectiveReceiver } from './picks';
 import { METHOD_WORDS } from './picks';
 import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
 import { disp, fmt, label, useUnits } from './units';
@@ -16,7 +17,9 @@ export function TravelTime() {
   const method = view.editMethod;
   const wave = view.wave;
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
-  const rows = useMemo(() => (d ? d.travelTimes.filter((r) => r.wave === wave && r.times[method]) : []), [d, wave, method]);
+  const stations = useResults((s) => s.prepared?.stations);
+  const receiver = effectiveReceiver(stations ?? [], wave, view.receiver);
+  const rows = useMemo(() => (d ? d.travelTimes.filter((r) => r.wave === wave && r.times[method] && (receiver === '*' || r.receiver === receiver)) : []), [d, wave, method, receiver]);
 
   const data = useMemo(() => {
     const out: PlotData[] = [];
@@ -72,7 +75,7 @@ export function TravelTime() {
     <section className="strip-pane" aria-label="Travel time">
       <h2>Travel time</h2>
       <div className="pane-note">
-        {METHOD_WORDS[method]} picks, {wave} wave: ○ time after trigger · ● slant-corrected · lines: layer fits
+        {METHOD_WORDS[method]} picks, {wave} wave{receiver !== '*' && receiver !== 'R' ? `, receiver ${receiver}` : ''}: ○ time after trigger · ● slant-corrected · lines: layer fits
       </div>
       <Plot name="travel-time" data={data} layout={layout} className="plot small" />
     </section>

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { correlationDelay, crossCorrelate, phaseSlopeDelay } from '../../src/core/picking/delay';
 import { parabolicOffset } from '../../src/core/picking/parabola';
 import { BorewaveError } from '../../src/core/errors';
@@ -35,6 +36,21 @@ describe('crossCorrelate', () => {
     expect(lags[lags.length - 1]).toBe(89);
     const scale = Math.max(...r.map(Math.abs));
     for (let j = 0; j < r.length; j++) expect(Math.abs(r[j] - directCorrelation(a, b, lags[j]))).toBeLessThan(1e-12 * scale);
+  });
+
+  it('equals the direct sum for random lengths 1-40 and values (property, 200 cases)', () => {
+    const arr = fc.array(fc.double({ min: -10, max: 10, noNaN: true }), { minLength: 1, maxLength: 40 });
+    fc.assert(
+      fc.property(arr, arr, (a, b) => {
+        const { lags, r } = crossCorrelate(a, b);
+        const scale = Math.max(1e-300, ...a.map(Math.abs)) * Math.max(1e-300, ...b.map(Math.abs)) * Math.min(a.length, b.length);
+        for (let j = 0; j < r.length; j++) {
+          if (Math.abs(r[j] - directCorrelation(a, b, lags[j])) > 1e-12 * scale) return false;
+        }
+        return true;
+      }),
+      { numRuns: 200, seed: 17 },
+    );
   });
 
   for (const [i, c] of corr.cases.entries()) {

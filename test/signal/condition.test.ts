@@ -8,7 +8,7 @@ describe('conditionTrace', () => {
   const x = filtering.input;
   const dt = 1 / 4000;
 
-  it(`detrend only equals SciPy ${filtering.source.scipy}-checked removeTrend; nothing set returns an equal copy`, () => {
+  it('detrend only equals removeTrend (checked against SciPy detrend in filter.test.ts); nothing set returns an equal copy', () => {
     expect(Array.from(conditionTrace(x, dt, { detrend: true, taperFraction: 0, bandpass: null }))).toEqual(Array.from(removeTrend(x)));
     const copy = conditionTrace(x, dt, { detrend: false, taperFraction: 0, bandpass: null });
     expect(Array.from(copy)).toEqual(x);

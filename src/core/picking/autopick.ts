@@ -298,7 +298,8 @@ export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, r
         method: 'phase',
         delayS,
         coefficient: ph.coherence,
-        uncertaintyS: delayUncertaintyS(Math.sqrt(ph.coherence), dt, w.periodS, ph.usedHz[1] - ph.usedHz[0], w.windowS),
+        // The larger of the coherence-based bound and the scatter of the phases about the fitted line.
+        uncertaintyS: Math.max(delayUncertaintyS(Math.sqrt(ph.coherence), dt, w.periodS, ph.usedHz[1] - ph.usedHz[0], w.windowS), ph.slopeErrorS),
         flags,
       });
     }

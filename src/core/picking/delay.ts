@@ -157,14 +157,16 @@ export function correlationDelay(
  *   free intercept (group delay: a constant phase rotation does not bias it), weights
  *   gamma^2 / (1 - gamma^2), the inverse phase variance (Carter 1987, Proc. IEEE 75(2) (memory)).
  * Returns null when fewer than 3 bins fall in the band or no bin carries weight.
- * coherence = mean gamma^2 over the band; usedHz = the first and last frequencies used.
+ * coherence = mean gamma^2 over the band; usedHz = the first and last frequencies used; slopeErrorS =
+ * standard error of the delay from the scatter of the phases about the fitted line (weighted
+ * residual variance, counting only the independent bins), s.
  */
 export function phaseSlopeDelay(
   a: ArrayLike<number>,
   b: ArrayLike<number>,
   sampleIntervalS: number,
   o: { minHz: number; maxHz: number; nearDelayS?: number },
-): { delayS: number; coherence: number; usedHz: [number, number] } | null {
+): { delayS: number; coherence: number; usedHz: [number, number]; slopeErrorS: number } | null {
   if (!(sampleIntervalS > 0)) {
     throw new BorewaveError('SIGNAL_SAMPLE_INTERVAL', `Sample interval ${sampleIntervalS} s is not a positive number.`, undefined, 'sampleIntervalS');
   }
@@ -260,5 +262,14 @@ export function phaseSlopeDelay(
   if (!(sff > 0)) return null;
   const slope = sfp / sff;
   const delayS = tau0 - slope / (2 * Math.PI);
-  return { delayS, coherence: cohSum / nBand, usedHz: [kLo * df, kHi * df] };
+  // Standard error of the slope from the weighted residual scatter. Zero padding makes neighbouring
+  // bins dependent: only about nBand * nMax / nfft of them are independent, which scales the error up.
+  let swr2 = 0;
+  for (let j = 0; j < nBand; j++) {
+    const r = phases[j] - (pMean + slope * ((kLo + j) * df - fMean));
+    swr2 += weights[j] * r * r;
+  }
+  const unitVariance = swr2 / Math.max(1, nBand - 2);
+  const slopeErrorS = Math.sqrt(((unitVariance / sff) * nfft) / nMax) / (2 * Math.PI);
+  return { delayS, coherence: cohSum / nBand, usedHz: [kLo * df, kHi * df], slopeErrorS };
 }

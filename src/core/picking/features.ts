@@ -29,7 +29,7 @@ export interface SpectrumSummary {
 
 /**
  * Spectral summary of x[startIdx..endIdx): mean removed, 10% cosine taper at each end, zero-padded
- * to at least twice its length (finer bins for the peak), power spectrum up to Nyquist (DC excluded).
+ * to a power of two (at least 256 points: finer bins for short segments), power spectrum up to Nyquist (DC excluded).
  * Returns null when the segment is shorter than 4 samples or carries no energy.
  */
 export function spectrumSummary(x: ArrayLike<number>, startIdx: number, endIdx: number, sampleIntervalS: number): SpectrumSummary | null {
@@ -48,7 +48,7 @@ export function spectrumSummary(x: ArrayLike<number>, startIdx: number, endIdx: 
     if (j < m) w = 0.5 * (1 - Math.cos((Math.PI * j) / m));
     seg[i] = (x[s + i] - mean) * w;
   }
-  const nfft = Math.max(256, nextPow2(2 * n));
+  const nfft = Math.max(256, nextPow2(n));
   const spec = realSpectrumInto(seg, nfft, new Float64Array(2 * nfft));
   const half = nfft / 2;
   const df = 1 / (nfft * sampleIntervalS);
@@ -83,14 +83,58 @@ export function dominantPeriodS(x: ArrayLike<number>, startIdx: number, endIdx: 
 }
 
 /**
+ * Sub-sample position of the extremum at sample i: least-squares parabola through x[i-h..i+h]
+ * (h = 1 is the three-point formula of the domain notes). A wider fit averages noise on
+ * oversampled pulses where three neighbouring samples differ by less than the noise.
+ */
+function refineExtremum(x: ArrayLike<number>, i: number, h: number): number {
+  const n = x.length;
+  const hh = Math.max(1, Math.min(h, i, n - 1 - i));
+  if (hh === 1) return i + parabolicOffset(x[i - 1], x[i], x[i + 1]);
+  // Fit x = c0 + c1 u + c2 u^2 over u = -hh..hh (symmetric: odd sums vanish).
+  let s2 = 0;
+  let s4 = 0;
+  let sy = 0;
+  let suy = 0;
+  let su2y = 0;
+  const m = 2 * hh + 1;
+  for (let u = -hh; u <= hh; u++) {
+    const y = x[i + u];
+    s2 += u * u;
+    s4 += u * u * u * u;
+    sy += y;
+    suy += u * y;
+    su2y += u * u * y;
+  }
+  const c1 = suy / s2;
+  const c2 = (m * su2y - s2 * sy) / (m * s4 - s2 * s2);
+  if (c2 === 0) return i;
+  const d = -c1 / (2 * c2);
+  return i + Math.max(-hh, Math.min(hh, d));
+}
+
+/** [first, last] sample of the lobe holding sample i: neighbours with the same sign as x[i]. */
+function lobeAround(x: ArrayLike<number>, i: number, sign: 1 | -1): [number, number] {
+  let a = i;
+  while (a > 0 && x[a - 1] * sign > 0) a--;
+  let b = i;
+  while (b < x.length - 1 && x[b + 1] * sign > 0) b++;
+  return [a, b];
+}
+
+/**
  * First peak, first trough and the zero crossing after the first significant extremum, searched in
- * [onsetIdx, onsetIdx + searchS/dt]. "Significant" (how the first peak is chosen): a local extremum
- * whose absolute value reaches minFraction (default 0.5) of the largest |x| in the search window,
- * so small precursors and noise wiggles before the main pulse are passed over. A Ricker wavelet's
- * side lobes (0.446 of its peak) are below the default. Peak and trough times are refined by a
- * parabola through three samples; the zero crossing by linear interpolation between the samples
- * either side. Times are delayS + (index) * sampleIntervalS. The default search window is 1.5
- * dominant periods of the trace from the onset to its end (spectral peak).
+ * [onsetIdx, onsetIdx + searchS/dt]. How the first peak is chosen: the first sample whose |x| reaches
+ * minFraction (default 0.5) of the largest |x| in the search window marks the first significant lobe
+ * (the run of samples of that sign around it); its extremum is the first peak (or trough, by its
+ * sign). The first lobe of the other sign that reaches the threshold gives the other feature. Small
+ * precursors and noise wiggles below the threshold are passed over; a Ricker wavelet's side lobes
+ * (0.446 of its peak) are below the default. Lobe extrema are refined by a least-squares parabola over
+ * +-h samples, h = 1/5 of the lobe's half-height width (at least 1: the three-point formula), about
+ * an eighth of a half period, where a sine lobe still follows a parabola closely; the zero crossing
+ * ending the first lobe by linear interpolation between the samples either side.
+ * Times are delayS + (index) * sampleIntervalS. The default search window is 1.5 dominant periods of
+ * the trace from the onset to its end (spectral peak).
  */
 export function characteristicPoints(
   x: ArrayLike<number>,
@@ -118,34 +162,49 @@ export function characteristicPoints(
   const none: CharacteristicPoints = { peakS: null, troughS: null, zeroCrossingS: null, firstPolarity: 1 };
   if (!(maxAbs > 0)) return none;
   const thr = minFraction * maxAbs;
-  let peakIdx = -1;
-  let troughIdx = -1;
-  for (let i = Math.max(1, onsetIdx); i <= last && i < n - 1 && (peakIdx < 0 || troughIdx < 0); i++) {
-    const v = x[i];
-    if (peakIdx < 0 && v >= thr && v > x[i - 1] && v >= x[i + 1]) peakIdx = i;
-    if (troughIdx < 0 && v <= -thr && v < x[i - 1] && v <= x[i + 1]) troughIdx = i;
-  }
   const timeAt = (idx: number): number => delayS + idx * sampleIntervalS;
-  const refined = (i: number): number => timeAt(i + parabolicOffset(x[i - 1], x[i], x[i + 1]));
-  const peakS = peakIdx >= 0 ? refined(peakIdx) : null;
-  const troughS = troughIdx >= 0 ? refined(troughIdx) : null;
-  let first = -1;
-  let firstPolarity: 1 | -1 = 1;
-  if (peakIdx >= 0 && (troughIdx < 0 || peakIdx < troughIdx)) first = peakIdx;
-  else if (troughIdx >= 0) {
-    first = troughIdx;
-    firstPolarity = -1;
-  }
-  let zeroCrossingS: number | null = null;
-  if (first >= 0) {
-    for (let j = first; j < n - 1; j++) {
-      const a = x[j] * firstPolarity;
-      const b = x[j + 1] * firstPolarity;
-      if (a > 0 && b <= 0) {
-        zeroCrossingS = timeAt(j + a / (a - b));
-        break;
+
+  /** Extremum of the first lobe of the given sign reaching the threshold at or after `from`. */
+  const firstLobe = (sign: 1 | -1, from: number): { idx: number; lobe: [number, number] } | null => {
+    for (let i = from; i <= last; i++) {
+      if (x[i] * sign >= thr) {
+        const lobe = lobeAround(x, i, sign);
+        let best = i;
+        for (let j = Math.max(lobe[0], onsetIdx); j <= lobe[1]; j++) if (x[j] * sign > x[best] * sign) best = j;
+        return { idx: best, lobe };
       }
     }
+    return null;
+  };
+  let firstIdx = onsetIdx;
+  while (firstIdx <= last && Math.abs(x[firstIdx]) < thr) firstIdx++;
+  if (firstIdx > last) return none;
+  const firstPolarity: 1 | -1 = x[firstIdx] > 0 ? 1 : -1;
+  const first = firstLobe(firstPolarity, firstIdx)!;
+  const second = firstLobe(firstPolarity === 1 ? -1 : 1, first.lobe[1] + 1);
+  const refinedTime = (e: { idx: number; lobe: [number, number] }): number => {
+    // Half-height width of the lobe around its extremum (a sine lobe: 2/3 of the half period).
+    const half = 0.5 * Math.abs(x[e.idx]);
+    let a = e.idx;
+    while (a > e.lobe[0] && Math.abs(x[a - 1]) >= half) a--;
+    let b = e.idx;
+    while (b < e.lobe[1] && Math.abs(x[b + 1]) >= half) b++;
+    const h = Math.max(1, Math.round((b - a + 1) / 5));
+    return timeAt(refineExtremum(x, e.idx, h));
+  };
+  const firstS = refinedTime(first);
+  const secondS = second ? refinedTime(second) : null;
+  let zeroCrossingS: number | null = null;
+  const j = first.lobe[1];
+  if (j < n - 1) {
+    const a = x[j] * firstPolarity;
+    const b = x[j + 1] * firstPolarity;
+    zeroCrossingS = timeAt(j + a / (a - b));
   }
-  return { peakS, troughS, zeroCrossingS, firstPolarity };
+  return {
+    peakS: firstPolarity === 1 ? firstS : secondS,
+    troughS: firstPolarity === 1 ? secondS : firstS,
+    zeroCrossingS,
+    firstPolarity,
+  };
 }
