@@ -98,6 +98,7 @@ export interface Derived {
   travelTimes: TravelTimeRow[];
   layerFits: LayerFit[];
   rayFit: RayFitResult | null;
+  drift: MethodDrift | null;
   site: SiteSummary;
   issues: ErrorInfo[];
 }
@@ -199,28 +200,39 @@ function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Set
 }
 
 /** Direct times of one receiver for the given method: pick times, or (delay methods) the first onset plus cumulative delays. */
-function directTimesFor(stations: readonly Station[], pairs: readonly StationPair[], picks: readonly Pick[], delays: readonly PairDelay[], method: IntervalMethod): { station: Station; timeS: number }[] {
+/** Direct times of receiver stations in depth order, with the one-sigma uncertainty of each time difference from the station above. */
+function directTimesFor(stations: readonly Station[], pairs: readonly StationPair[], picks: readonly Pick[], delays: readonly PairDelay[], method: IntervalMethod): { station: Station; timeS: number; timeSdS: number }[] {
   const list = stations.filter((s) => s.wave === 'S').sort((a, b) => a.depthM - b.depthM);
   const pickOf = (s: Station, m: EditablePickMethod) => picks.find((p) => p.stationKey === s.key && p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === m);
   if (method === 'xcorr' || method === 'phase') {
-    const out: { station: Station; timeS: number }[] = [];
+    const out: { station: Station; timeS: number; timeSdS: number }[] = [];
     let t: number | null = null;
     for (const s of list) {
+      let sd = 0;
       if (t === null) {
         const p = pickOf(s, 'onset');
-        if (p) t = p.timeS;
+        if (p) {
+          t = p.timeS;
+          sd = p.uncertaintyS;
+        }
       } else {
         const pr = pairs.find((q) => q.b.key === s.key && q.wave === 'S');
         const d = pr && delays.find((x) => x.pairKey === pr.key && x.method === method);
         if (!d) break;
         t += d.delayS;
+        sd = d.uncertaintyS;
       }
-      if (t !== null) out.push({ station: s, timeS: t });
+      if (t !== null) out.push({ station: s, timeS: t, timeSdS: sd });
     }
     return out;
   }
   const m: EditablePickMethod = method === 'ray-fit' ? 'onset' : method;
-  return list.map((s) => ({ station: s, timeS: pickOf(s, m)?.timeS ?? NaN })).filter((x) => Number.isFinite(x.timeS));
+  const withPicks = list.map((s) => ({ station: s, pick: pickOf(s, m) })).filter((x) => x.pick && Number.isFinite(x.pick.timeS));
+  return withPicks.map((x, i) => ({
+    station: x.station,
+    timeS: x.pick!.timeS,
+    timeSdS: i === 0 ? x.pick!.uncertaintyS : Math.hypot(x.pick!.uncertaintyS, withPicks[i - 1].pick!.uncertaintyS),
+  }));
 }
 
 function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], delays: readonly PairDelay[], settings: Settings): { result: RayFitResult | null; byPair: Map<string, { velocityMps: number; sdMps: number }> } {
@@ -238,11 +250,11 @@ function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], d
   if (!result) return { result: null, byPair };
   for (let j = 1; j < direct.length; j++) {
     const pr = prepared.pairs.find((p) => p.wave === 'S' && p.a.key === direct[j - 1].station.key && p.b.key === direct[j].station.key);
-    if (!pr) continue;
-    const v = result.layers[j].velocityMps;
-    // Time misfit spread over the layer's travel time as a relative velocity uncertainty (first order).
-    const layerTimeS = (direct[j].station.receiverPos[2] - direct[j - 1].station.receiverPos[2]) / v;
-    byPair.set(pr.key, { velocityMps: v, sdMps: v * Math.min(1, (Math.SQRT2 * result.rmsMisfitS) / layerTimeS) });
+    const layer = result.layers[j];
+    if (!pr || layer.outOfOrder || !(layer.pathInLayerM > 0)) continue;
+    const v = layer.velocityMps;
+    // First order: s_i ~ dt_i / path_i, so sV = V^2 s_dt / path (s_dt from the picks or the delay used).
+    byPair.set(pr.key, { velocityMps: v, sdMps: (v * v * direct[j].timeSdS) / layer.pathInLayerM });
   }
   return { result, byPair };
 }
@@ -275,19 +287,68 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
   return { rows, velocity };
 }
 
-function siteSummary(velocity: readonly VelocityInterval[], settings: Settings): SiteSummary {
+function siteSummary(velocity: readonly VelocityInterval[], settings: Settings, monteCarlo: boolean): SiteSummary {
   const ivs = velocity.filter((v) => v.vsMps > 0).map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps, vsSdMps: v.vsSdMps }));
   const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.vs30Rule) : null;
   const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.siteAnswers)) : [];
-  const uncertainty = ivs.length
+  const uncertainty = ivs.length && monteCarlo
     ? siteUncertainty(ivs, { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed, toDepthM: 30, rule: settings.vs30Rule, answers: settings.siteAnswers })
     : null;
   return { vs30, classes, uncertainty, cautions: [...SITE_CAUTIONS] };
 }
 
+/**
+ * Onset-based and correlation-based interval times drift apart with depth when attenuation broadens
+ * the pulse (rise time grows about as C t/Q, Gladwin & Stacey 1974 (from memory); shared/domain.md s.3).
+ * We fit the cumulative difference (xcorr - onset) against depth: a slope that is positive and large
+ * against its standard error, and a total above 1% of the travel time, is a real difference between
+ * methods, reported once for the survey so the user chooses knowingly.
+ */
+export interface MethodDrift {
+  /** Slope of the cumulative (xcorr - onset) time difference against depth, s/m. */
+  slopeSpM: number;
+  slopeSeSpM: number;
+  /** Total difference over the depth span, s, and as a share of the total xcorr travel time. */
+  totalS: number;
+  share: number;
+  significant: boolean;
+}
+
+function methodDrift(intervals: readonly IntervalValue[]): MethodDrift | null {
+  const byKey = new Map<string, { depthM: number; onset?: number; xcorr?: number }>();
+  for (const r of intervals) {
+    if (r.wave !== 'S' || r.dtS === null || (r.method !== 'onset' && r.method !== 'xcorr')) continue;
+    const e = byKey.get(r.key) ?? { depthM: r.bottomM };
+    e[r.method] = r.dtS;
+    byKey.set(r.key, e);
+  }
+  const rows = [...byKey.values()].filter((e) => e.onset !== undefined && e.xcorr !== undefined).sort((a, b) => a.depthM - b.depthM);
+  if (rows.length < 5) return null;
+  let cum = 0;
+  let travel = 0;
+  const depths: number[] = [];
+  const diffs: number[] = [];
+  for (const e of rows) {
+    cum += e.xcorr! - e.onset!;
+    travel += e.xcorr!;
+    depths.push(e.depthM);
+    diffs.push(cum);
+  }
+  const fit = fitLine(depths, diffs);
+  if (!fit) return null;
+  const share = travel > 0 ? cum / travel : 0;
+  const significant = fit.slope > 3 * (Number.isFinite(fit.slopeSe) ? fit.slopeSe : Infinity) && Math.abs(share) > 0.01;
+  return { slopeSpM: fit.slope, slopeSeSpM: fit.slopeSe, totalS: cum, share, significant };
+}
+
+export interface DeriveOptions {
+  /** Run the Monte Carlo site uncertainty (default true); the UI defers it while a pick is dragged. */
+  monteCarlo?: boolean;
+}
+
 /** Light stage: everything that follows from the auto picks and the user's edits. */
-export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult, edits: UserEdits, settings: Settings): Derived {
-  const issues: ErrorInfo[] = [...prepared.issues];
+export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult, edits: UserEdits, settings: Settings, options: DeriveOptions = {}): Derived {
+  const issues: ErrorInfo[] = [...prepared.issues, ...(auto.problems ?? [])];
   const picks = effectivePicks(prepared.stations, auto.picks, edits);
   const excluded = new Set(edits.excludedStations);
   const pairs = prepared.pairs.filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)));
@@ -302,7 +363,15 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
   const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity } = profileRows(survey, intervals, issues);
-  const site = siteSummary(velocity, settings);
+  const site = siteSummary(velocity, settings, options.monteCarlo ?? true);
+  const drift = methodDrift(intervals);
+  if (drift?.significant) {
+    issues.push({
+      code: 'METHOD_DRIFT',
+      message: `Onset and cross-correlation interval times drift apart with depth: ${(drift.totalS * 1000).toFixed(2)} ms in all (${(drift.share * 100).toFixed(1)}% of the travel time), as attenuation broadening of the pulse does. Onset-based Vs come out faster; choose the method knowingly.`,
+      field: 'method',
+    });
+  }
   return {
     picks,
     delays: auto.delays,
@@ -311,6 +380,7 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
     travelTimes,
     layerFits: layerFits(survey, travelTimes, settings, 'onset'),
     rayFit: ray.result,
+    drift,
     site,
     issues,
   };

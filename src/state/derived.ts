@@ -44,6 +44,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     travelTimes: [],
     layerFits: [],
     rayFit: null,
+    drift: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [] },
     issues,
   };

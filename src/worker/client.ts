@@ -6,6 +6,29 @@ import CoreWorker from './core.worker?worker&inline';
 import type { ErrorInfo } from '../core/errors';
 import type { WorkerRequest, WorkerResponse } from './protocol';
 
+/**
+ * Starts the inline worker. Opened from file:// (the single-file build), Chromium refuses a module
+ * worker whose script is a blob: URL of the page's opaque origin, while a data: URL works; Vite's inline
+ * wrapper falls back to a data: URL only when the blob: construction throws, so for file:// pages the
+ * Worker constructor is wrapped for that one call to refuse blob: URLs.
+ */
+export function startCoreWorker(): Worker {
+  if (typeof location === 'undefined' || location.protocol !== 'file:') return new CoreWorker();
+  const Native = globalThis.Worker;
+  class DataUrlOnly extends Native {
+    constructor(url: string | URL, options?: WorkerOptions) {
+      if (String(url).startsWith('blob:')) throw new Error('blob: worker refused on file://');
+      super(url, options);
+    }
+  }
+  globalThis.Worker = DataUrlOnly;
+  try {
+    return new CoreWorker();
+  } finally {
+    globalThis.Worker = Native;
+  }
+}
+
 type Pending = {
   onMessage: (m: WorkerResponse) => boolean;
   reject: (e: ErrorInfo) => void;
@@ -20,7 +43,7 @@ export class WorkerLane {
 
   private ensure(): Worker {
     if (this.worker) return this.worker;
-    const w = new CoreWorker();
+    const w = startCoreWorker();
     w.onmessage = (ev: MessageEvent<WorkerResponse>) => {
       const p = this.pending.get(ev.data.jobId);
       if (p && p.onMessage(ev.data)) this.pending.delete(ev.data.jobId);

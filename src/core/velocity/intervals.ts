@@ -197,9 +197,13 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     }
     if (chosen && !edits.excludedIntervals.includes(pair.key)) {
       chosen.chosen = true;
-      const differs = rows.some((r) => r !== chosen && r.method !== 'phase' && r.method !== 'ray-fit' && valid(r) &&
-        Math.abs(r.velocityMps! - chosen!.velocityMps!) > settings.methodDisagreementShare * chosen!.velocityMps!);
-      if (differs) chosen.flags.push('methods differ');
+      // Compared with the median of the other waveform methods, so one noisy pick does not raise the flag.
+      const others = rows.filter((r) => r !== chosen && r.method !== 'phase' && r.method !== 'ray-fit' && valid(r)).map((r) => r.velocityMps!);
+      if (others.length) {
+        others.sort((x, y) => x - y);
+        const mid = others.length % 2 ? others[(others.length - 1) / 2] : (others[others.length / 2 - 1] + others[others.length / 2]) / 2;
+        if (Math.abs(mid - chosen.velocityMps!) > settings.methodDisagreementShare * chosen.velocityMps!) chosen.flags.push('methods differ');
+      }
     }
     out.push(...rows);
   }
