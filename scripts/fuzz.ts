@@ -1,7 +1,8 @@
 /**
  * Long fuzz of the file readers: `npm run fuzz -- [count]` (default 200,000 inputs in total).
  * Feeds random bytes, mutated and truncated valid SEG-2 files to readSeg2, and random delimiter-heavy
- * text to readDelimitedText and readDeviationTable. Prints inputs tried per reader, typed errors by
+ * text to readDelimitedText and readDeviationTable, and random, mutated, truncated and size-lying zips to
+ * readProjectArchive. Prints inputs tried per reader, typed errors by
  * code, and unexpected exceptions (anything that is not a BorewaveError; should be 0), and the
  * slowest single input.
  */
@@ -9,6 +10,8 @@ import { BorewaveError } from '../src/core/errors';
 import { readDeviationTable } from '../src/core/io/deviation';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
 import { readDelimitedText } from '../src/core/io/text';
+import { newProjectDocument, readProjectArchive, writeProjectArchive } from '../src/core/io/archive';
+import type { Survey } from '../src/core/model';
 
 const total = Number(process.argv[2] ?? 200000);
 if (!Number.isInteger(total) || total <= 0) {
@@ -70,6 +73,37 @@ function textInput(): string {
   return out;
 }
 
+const seedSurvey: Survey = {
+  name: 'fuzz', kind: 'downhole', boreholes: [{ id: 'B', collarEastM: 0, collarNorthM: 0, deviation: [] }], mainHoleId: 'B', sourceOffsetM: 2, sourceDepthM: 0,
+  receiverSpacingM: 1, receiverHoleIds: [], records: [{ recordId: 'a.sg2', depthM: 1, hit: 'left', channels: [], excluded: false, assignedBy: 'manual' }],
+  soil: { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },
+};
+const archiveSeed = writeProjectArchive(newProjectDocument(seedSurvey), [{ name: 'a.sg2', bytes: seeds[0] }]);
+
+/** Random, mutated, truncated zips, and zips whose headers declare absurd sizes (central directory 'PK\x01\x02', size at +24). */
+function archiveInput(): Uint8Array {
+  const kind = randInt(4);
+  const b = archiveSeed.slice();
+  if (kind === 0) {
+    const r = new Uint8Array(randInt(800));
+    for (let i = 0; i < r.length; i++) r[i] = randInt(256);
+    if (r.length > 4) r.set([0x50, 0x4b, 3, 4]);
+    return r;
+  }
+  if (kind === 1) {
+    for (let k = 1 + randInt(6); k > 0; k--) b[randInt(b.length)] = randInt(256);
+    return b;
+  }
+  if (kind === 2) return b.subarray(0, randInt(b.length));
+  for (let i = 0; i + 28 < b.length; i++) {
+    if (b[i] === 0x50 && b[i + 1] === 0x4b && b[i + 2] === 1 && b[i + 3] === 2) {
+      const v = new DataView(b.buffer, b.byteOffset);
+      v.setUint32(i + 24, [0xffffffff, 0x7fffffff, 1, 0][randInt(4)], true);
+    }
+  }
+  return b;
+}
+
 interface Tally {
   tried: number;
   ok: number;
@@ -82,6 +116,7 @@ const readers: { name: string; run: () => void }[] = [
   { name: 'readSeg2', run: () => void readSeg2(seg2Input(), 'fuzz.sg2') },
   { name: 'readDelimitedText', run: () => void readDelimitedText(textInput(), 'fuzz.csv') },
   { name: 'readDeviationTable', run: () => void readDeviationTable(textInput(), 'fuzz.csv') },
+  { name: 'readProjectArchive', run: () => void readProjectArchive(archiveInput(), 'fuzz.zip') },
 ];
 const tallies = readers.map((): Tally => ({ tried: 0, ok: 0, codes: new Map(), unexpected: 0, slowestMs: 0 }));
 

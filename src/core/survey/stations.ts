@@ -86,14 +86,20 @@ export interface StationBuild {
 /** Builds every station's working trace. Problems with one record or station are reported, not thrown. */
 export function buildStations(survey: Survey, records: ReadonlyMap<string, WaveRecord>, settings: Settings): StationBuild {
   const issues: ErrorInfo[] = [];
-  for (const h of survey.boreholes) {
+  // A hole whose deviation table is unusable is reported and taken as vertical, so the rest still computes.
+  const badHoles = new Set<string>();
+  const boreholes = survey.boreholes.map((h) => {
     try {
       validateDeviation(h.id, h.deviation);
+      return h;
     } catch (e) {
-      issues.push(toErrorInfo(e, h.id));
+      const info = toErrorInfo(e, h.id);
+      issues.push({ ...info, message: `${info.message} The hole is taken as vertical until the table is fixed.` });
+      badHoles.add(h.id);
+      return { ...h, deviation: [] };
     }
-  }
-  const badHoles = new Set(issues.map((i) => i.file));
+  });
+  survey = { ...survey, boreholes };
   type Group = { receiver: string; depthM: number; component: Component; wave: Wave; hits: StationHit[] };
   const groups = new Map<string, Group>();
   const waves: Wave[] = ['S', 'P'];
@@ -129,9 +135,10 @@ export function buildStations(survey: Survey, records: ReadonlyMap<string, WaveR
   for (const g of groups.values()) {
     const key = stationKey(g.receiver, g.depthM, g.component);
     try {
-      if (survey.kind === 'crosshole' && (badHoles.has(g.receiver) || badHoles.has(survey.mainHoleId))) continue;
-      if (survey.kind !== 'crosshole' && badHoles.has(survey.mainHoleId)) continue;
-      stations.push(buildStation(survey, records, settings, g.receiver, g.depthM, g.component, g.wave, g.hits));
+      const st = buildStation(survey, records, settings, g.receiver, g.depthM, g.component, g.wave, g.hits);
+      const holesUsed = survey.kind === 'crosshole' ? [g.receiver, survey.mainHoleId] : [survey.mainHoleId];
+      if (holesUsed.some((h) => badHoles.has(h))) st.flags.push('deviation table rejected');
+      stations.push(st);
     } catch (e) {
       issues.push(toErrorInfo(e, key));
     }

@@ -140,8 +140,9 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     const dL = pair.b.straightPathM - pair.a.straightPathM;
     const rows: IntervalValue[] = [];
     const range = pair.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+    const stationFlags = [...new Set([...pair.a.flags, ...pair.b.flags])];
     const finish = (method: IntervalMethod, dtS: number | null, dtSdS: number, extraFlags: string[]) => {
-      const flags = [...extraFlags];
+      const flags = [...new Set([...stationFlags, ...extraFlags])];
       let v: number | null = null;
       let sd: number | null = null;
       if (dtS !== null) {
@@ -185,7 +186,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       const flags: string[] = [];
       if (rf.velocityMps < range[0]) flags.push('slow?');
       if (rf.velocityMps > range[1]) flags.push('fast?');
-      rows.push({ ...base, method: 'ray-fit', dtS: null, velocityMps: rf.velocityMps, velocitySdMps: rf.sdMps, chosen: false, flags });
+      rows.push({ ...base, method: 'ray-fit', dtS: null, velocityMps: rf.velocityMps, velocitySdMps: rf.sdMps, chosen: false, flags: [...stationFlags, ...flags] });
     }
     // The chosen value: the user's choice for this interval, else the settings' method, else the fallback order.
     const wanted = edits.chosenMethod[pair.key] ?? settings.profileMethod;

@@ -1,0 +1,85 @@
+/**
+ * Numeric guards and bad input (reliability issue): constant or all-zero traces, identical depths,
+ * negative delays, a non-monotonic deviation table, a receiver on the source. Each is flagged or
+ * reported by name, the rest of the survey still computes, and no NaN or Infinity reaches an export.
+ */
+import { describe, expect, it } from 'vitest';
+import { runPipeline, derive } from '../../src/core/pipeline';
+import { intervalsTable, picksTable, profileTable, siteJson, toCsv } from '../../src/core/report/tables';
+import { defaultSettings, emptyEdits, pickEditKey } from '../../src/core/settings';
+import { demoCrossholeGeometry, demoEarthModel, synthesizeSurvey, type SynthResult } from '../../src/core/synth';
+
+const opts = { seed: 9, sampleIntervalS: 5e-5, samplesPerTrace: 3000, sFrequencyHz: 100, pFrequencyHz: 400, attenuation: false, snr: 30, maxTriggerDelayS: 0 };
+
+function downhole(depthsM: number[], sourceOffsetM = 2): SynthResult {
+  return synthesizeSurvey(demoEarthModel(), { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM }, opts);
+}
+
+function run(res: SynthResult, edits = emptyEdits()) {
+  return runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: defaultSettings(), edits });
+}
+
+function exportsText(res: SynthResult, out: ReturnType<typeof run>): string {
+  return [toCsv(picksTable(out.prepared.stations, out.derived)), toCsv(intervalsTable(out.derived)), toCsv(profileTable(out.derived)), JSON.stringify(siteJson(out.derived, defaultSettings()))].join('\n');
+}
+
+describe('numeric guards: flagged in the results, never a silent NaN in an export', () => {
+  it('an all-zero trace and a constant trace are flagged; other depths still compute', () => {
+    const res = downhole([3, 4, 5, 6, 7, 8]);
+    for (const r of res.records) {
+      if (r.id.includes('d5.0')) r.traces.forEach((t) => t.samples.fill(0));
+      if (r.id.includes('d6.0')) r.traces.forEach((t) => t.samples.fill(3.5));
+    }
+    const out = run(res);
+    const flat = out.prepared.stations.filter((s) => s.depthM === 5 || s.depthM === 6);
+    expect(flat.length).toBeGreaterThan(0);
+    for (const s of flat) expect(s.flags).toContain('flat trace');
+    const good = out.derived.intervals.filter((r) => r.wave === 'S' && r.chosen && r.topM === 7);
+    expect(good[0]?.velocityMps).toBeGreaterThan(0);
+    expect(exportsText(res, out)).not.toMatch(/NaN|Infinity/);
+  });
+  it('identical depths (a repeated record) stack into one station; no zero-length interval', () => {
+    const res = downhole([3, 4, 4, 5]);
+    const out = run(res);
+    const depths = out.prepared.stations.filter((s) => s.wave === 'S').map((s) => s.depthM);
+    expect(depths).toEqual([3, 4, 5]);
+    expect(out.derived.intervals.every((r) => r.bottomM > r.topM)).toBe(true);
+    expect(exportsText(res, out)).not.toMatch(/NaN|Infinity/);
+  });
+  it('a negative delay from an edited pick is flagged "non-positive delay" and leaves no velocity', () => {
+    const res = downhole([3, 4, 5]);
+    const first = run(res);
+    const upper = first.prepared.stations.find((s) => s.wave === 'S' && s.depthM === 3)!;
+    const edits = emptyEdits();
+    edits.picks[pickEditKey(upper.key, 'S', 'onset')] = 0.5; // far later than the station below
+    const d = derive(res.survey, first.prepared, first.auto, edits, defaultSettings());
+    const onset = d.intervals.find((r) => r.wave === 'S' && r.topM === 3 && r.method === 'onset')!;
+    expect(onset.flags).toContain('non-positive delay');
+    expect(onset.velocityMps).toBeNull();
+    expect(toCsv(intervalsTable(d))).not.toMatch(/NaN|Infinity/);
+  });
+});
+
+describe('bad geometry is named; the rest of the survey still computes', () => {
+  it('zero source offset with a receiver at zero depth: that station is refused by name', () => {
+    const res = downhole([1, 2, 3, 4], 0.5);
+    res.survey.sourceOffsetM = 0;
+    for (const r of res.survey.records) if (r.depthM === 1) r.depthM = 0; // the user typed 0 for the first depth
+    const out = run(res);
+    const problem = out.derived.issues.find((i) => i.code === 'STATION_ZERO_DISTANCE');
+    expect(problem?.file).toContain('@0.000');
+    expect(out.derived.intervals.some((r) => r.wave === 'S' && r.chosen && r.velocityMps! > 0)).toBe(true);
+  });
+  it('a deviation table that is not monotonic is reported for its hole, which is taken as vertical', () => {
+    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), { ...opts, sampleIntervalS: 2.5e-5, samplesPerTrace: 3072, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500 });
+    const far = res.survey.boreholes[2];
+    far.deviation = [far.deviation[0], far.deviation[2], far.deviation[1], ...far.deviation.slice(3)];
+    const out = run(res);
+    const problem = out.derived.issues.find((i) => i.code === 'DEVIATION_NOT_MONOTONIC');
+    expect(problem?.file).toBe(far.id);
+    expect(problem?.field).toBe('row 3');
+    const chosen = out.derived.intervals.filter((r) => r.wave === 'S' && r.chosen);
+    expect(chosen.length).toBeGreaterThan(10);
+    expect(chosen.every((r) => r.flags.includes('deviation table rejected'))).toBe(true);
+  });
+});
