@@ -7,6 +7,7 @@
  * slowest single input.
  */
 import { BorewaveError } from '../src/core/errors';
+import { mulberry32 } from '../src/core/random';
 import { readDeviationTable } from '../src/core/io/deviation';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
 import { readDelimitedText } from '../src/core/io/text';
@@ -19,15 +20,8 @@ if (!Number.isInteger(total) || total <= 0) {
   process.exit(2);
 }
 
-// Small deterministic PRNG (mulberry32) so runs are repeatable.
-let state = 0x9e3779b9;
-function rand(): number {
-  state = (state + 0x6d2b79f5) | 0;
-  let t = state;
-  t = Math.imul(t ^ (t >>> 15), t | 1);
-  t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-}
+// Repeatable runs: the project's seeded generator.
+const rand = mulberry32(0x9e3779b9).uniform;
 const randInt = (n: number) => Math.floor(rand() * n);
 
 const seeds: Uint8Array[] = [];

@@ -5,6 +5,7 @@
  * PRNG: mulberry32 (a small public-domain 32-bit generator); normals by the Box-Muller transform
  * (Box & Muller 1958, Ann. Math. Stat. 29).
  */
+import { mulberry32 } from '../random';
 import { BorewaveError } from '../errors';
 import { applySiteAnswers, averagingSegments, SITE_STANDARDS, vsSiteClass, type SiteAnswers, type SiteStandard, type Vs30Rule } from './site';
 
@@ -25,33 +26,6 @@ export interface MonteCarloOptions {
 
 export const DEFAULT_DRAWS = 10000;
 export const VS_FLOOR_MPS = 1;
-
-/** Uniform generator on (0, 1): mulberry32 seeded with a 32-bit integer. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    // (x + 0.5) / 2^32 keeps the value strictly inside (0, 1) so log() below never sees 0.
-    return (((t ^ (t >>> 14)) >>> 0) + 0.5) / 4294967296;
-  };
-}
-
-/** Standard normal generator (Box-Muller, both values of each pair used). */
-export function normalGenerator(uniform: () => number): () => number {
-  let spare = 0;
-  let hasSpare = false;
-  return () => {
-    if (hasSpare) { hasSpare = false; return spare; }
-    const r = Math.sqrt(-2 * Math.log(uniform()));
-    const th = 2 * Math.PI * uniform();
-    spare = r * Math.sin(th);
-    hasSpare = true;
-    return r * Math.cos(th);
-  };
-}
 
 /** Quantile p of sorted values with linear interpolation between order statistics (Hyndman & Fan type 7). */
 export function quantileSorted(sorted: ArrayLike<number>, p: number): number {
@@ -86,7 +60,7 @@ export function siteUncertainty(
     mu[j] = iv.vsMps;
     sd[j] = Number.isFinite(iv.vsSdMps) && iv.vsSdMps > 0 ? iv.vsSdMps : 0;
   }
-  const normal = normalGenerator(mulberry32(o.seed));
+  const normal = mulberry32(o.seed).normal;
   const vs30 = new Float64Array(draws);
   for (let n = 0; n < draws; n++) {
     let slowness = 0;

@@ -1,6 +1,6 @@
 /** Forward model (synthetic borehole seismic records with known arrivals) and the demo scenario. */
 export * from './earth';
-export * from './prng';
+export * from '../random';
 export * from './pulse';
 export * from './synthesize';
 export * from './demo';

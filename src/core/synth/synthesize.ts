@@ -28,7 +28,8 @@ import { BorewaveError } from '../errors';
 import type { Borehole, ChannelAssignment, Component, HitDirection, RecordAssignment, Survey, TestKind, Trace, WaveRecord } from '../model';
 import { traceRay } from '../survey/rays';
 import { modelSegments, soilColumnFromModel, trueQAt, trueVpAt, trueVsAt, validateEarthModel, type EarthModel, type ModelSegment } from './earth';
-import { mulberry32, type Prng } from './prng';
+import { mulberry32, type Prng } from '../random';
+import { positionAlongHole } from '../survey/geometry';
 import { renderArrival, type ConstantQ } from './pulse';
 
 type Vec3 = [number, number, number]; // east, north, down (m)
@@ -170,30 +171,9 @@ export function receiverAxes(nominalH1: Vec3, rotationRad: number, tiltRad: numb
   };
 }
 
-/**
- * True position (east, north, vertical depth) of the point at an along-hole depth: the hole runs
- * straight between deviation stations (a station at the collar is implied when the table starts
- * deeper), so offsets are linear in along-hole depth and each piece rises by
- * sqrt(dL^2 - dH^2). Below the last station the hole continues vertically.
- */
+/** True position (east, north, vertical depth) of the point at an along-hole depth (survey/geometry.ts rules). */
 export function holePositionAt(hole: Borehole, depthAlongM: number): Vec3 {
-  const st = hole.deviation.length > 0 && hole.deviation[0].depthAlongM > 0 ? [{ depthAlongM: 0, eastM: 0, northM: 0 }, ...hole.deviation] : hole.deviation;
-  if (st.length === 0) return [hole.collarEastM, hole.collarNorthM, depthAlongM];
-  let z = st[0].depthAlongM;
-  for (let j = 0; j + 1 < st.length; j++) {
-    const a = st[j];
-    const b = st[j + 1];
-    const dL = b.depthAlongM - a.depthAlongM;
-    const dH = Math.hypot(b.eastM - a.eastM, b.northM - a.northM);
-    const rise = Math.sqrt(Math.max(0, dL * dL - dH * dH));
-    if (depthAlongM <= b.depthAlongM) {
-      const w = Math.max(0, (depthAlongM - a.depthAlongM) / dL);
-      return [hole.collarEastM + a.eastM + w * (b.eastM - a.eastM), hole.collarNorthM + a.northM + w * (b.northM - a.northM), z + w * rise];
-    }
-    z += rise;
-  }
-  const last = st[st.length - 1];
-  return [hole.collarEastM + last.eastM, hole.collarNorthM + last.northM, z + (depthAlongM - last.depthAlongM)];
+  return positionAlongHole(hole, depthAlongM).pos;
 }
 
 // ---------------------------------------------------------------- rays

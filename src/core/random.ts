@@ -1,5 +1,5 @@
 /**
- * Seeded pseudo-random numbers for reproducible synthetic data.
+ * Seeded pseudo-random numbers (forward model, Monte Carlo, fuzzing): one generator for the project.
  * mulberry32: a 32-bit state generator (Tommy Ettinger's public-domain design, from memory);
  * normal deviates by the Box-Muller transform (Box & Muller 1958, Ann. Math. Stat. 29(2)).
  */
