@@ -69,7 +69,7 @@ export function defaultSettings(): Settings {
     staS: 0.001,
     ltaS: 0.01,
     staLtaThreshold: 4,
-    phaseBandHz: null,
+    phaseBandHz: [10, 2000],
     // domain.md section 3: 50-1500 m/s for S in soil (common practice), user-set.
     vsRangeMps: [50, 1500],
     vpRangeMps: [150, 5000],

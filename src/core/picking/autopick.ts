@@ -286,7 +286,11 @@ export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, r
     },
   ];
   if (s.phaseBandHz) {
-    const ph = phaseSlopeDelay(w.a, w.b, dt, { minHz: s.phaseBandHz[0], maxHz: s.phaseBandHz[1], nearDelayS: xc.delayS });
+    // The phase is fitted over the user's band narrowed to the pulse's own band, half to twice the
+    // dominant frequency (common practice): outside it the short windows carry little coherent energy.
+    const minHz = Math.max(s.phaseBandHz[0], 0.5 / w.periodS);
+    const maxHz = Math.min(s.phaseBandHz[1], 2 / w.periodS);
+    const ph = maxHz > minHz ? phaseSlopeDelay(w.a, w.b, dt, { minHz, maxHz, nearDelayS: xc.delayS }) : null;
     if (ph) {
       const delayS = w.offsetS + ph.delayS;
       const flags = [...common];
