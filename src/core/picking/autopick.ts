@@ -161,16 +161,18 @@ export function analyseStation(t: WorkingTrace, s: PickingSettings): StationAnal
   const onset = onsetPick(t, s, i0, i1);
   const anchor = onset.index ?? i0;
 
-  // Pulse span and dominant period (span grown until it holds 1.5 periods; a few rounds suffice).
-  let span = Math.max(32, s.pulseSpanS && s.pulseSpanS > 0 ? Math.round(s.pulseSpanS / dt) : i1 - i0);
-  let periodS = span * dt;
-  for (let round = 0; round < 3; round++) {
-    const sum = spectrumSummary(x, anchor, Math.min(n, anchor + span), dt);
-    periodS = sum && sum.peakHz > 0 ? 1 / sum.peakHz : span * dt;
-    const need = Math.ceil((1.5 * periodS) / dt);
-    if (need <= span || anchor + span >= n) break;
-    span = need;
+  // Dominant period from the main lobe: the largest |x| after the anchor within the search window,
+  // and the zero crossings on either side of it (half a period apart for a pulse; common practice).
+  // A spectrum over the whole search window was tried first and locked onto its lowest bin on some
+  // traces (0.1-0.2 s "periods" on the demo), which inflated uncertainties tenfold.
+  const windowEnd = Math.min(n, Math.max(i1, anchor + 32));
+  let periodS = lobePeriodS(x, anchor, windowEnd, dt);
+  if (periodS === null) {
+    const sum = spectrumSummary(x, anchor, windowEnd, dt);
+    periodS = sum && sum.peakHz > 0 ? 1 / sum.peakHz : (windowEnd - anchor) * dt;
   }
+  // Features are searched over 1.5 periods after the anchor, at least 32 samples (or pulseSpanS if set).
+  const span = Math.max(32, s.pulseSpanS && s.pulseSpanS > 0 ? Math.round(s.pulseSpanS / dt) : Math.ceil((1.5 * periodS) / dt));
   const periodSamples = Math.max(4, Math.round(periodS / dt));
   const snr = signalToNoise(x, anchor, periodSamples);
   const uncertaintyS = pickUncertaintyS(snr, dt, periodS);
@@ -198,6 +200,31 @@ export function analyseStation(t: WorkingTrace, s: PickingSettings): StationAnal
   if (cp.troughS !== null) picks.push(make('trough', cp.troughS, -1));
   if (cp.zeroCrossingS !== null) picks.push(make('zero-crossing', cp.zeroCrossingS, cp.firstPolarity));
   return { trace: t, onsetIdx: onset.index, anchorIdx: anchor, periodS, snr, picks };
+}
+
+/** Twice the width between the zero crossings around the largest |x| in [from, to); null when no lobe is closed. */
+export function lobePeriodS(x: ArrayLike<number>, from: number, to: number, dt: number): number | null {
+  let k = -1;
+  let best = 0;
+  for (let i = from; i < to; i++) {
+    const v = Math.abs(x[i]);
+    if (v > best) {
+      best = v;
+      k = i;
+    }
+  }
+  if (k < 0 || !(best > 0)) return null;
+  const sign = Math.sign(x[k]);
+  let l = k;
+  while (l > 0 && Math.sign(x[l - 1]) === sign) l--;
+  let r = k;
+  while (r + 1 < x.length && Math.sign(x[r + 1]) === sign) r++;
+  if (l === 0 || r === x.length - 1) return null;
+  // Linear interpolation of the two crossings.
+  const left = l - 1 + x[l - 1] / (x[l - 1] - x[l]);
+  const right = r + x[r] / (x[r] - x[r + 1]);
+  const half = right - left;
+  return half > 1 ? 2 * half * dt : null;
 }
 
 /** One onset pick (method 'aic' or 'stalta') and 'peak', 'trough', 'zero-crossing' picks, origin 'auto'. */
@@ -286,10 +313,10 @@ export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, r
     },
   ];
   if (s.phaseBandHz) {
-    // The phase is fitted over the user's band narrowed to the pulse's own band, half to twice the
-    // dominant frequency (common practice): outside it the short windows carry little coherent energy.
-    const minHz = Math.max(s.phaseBandHz[0], 0.5 / w.periodS);
-    const maxHz = Math.min(s.phaseBandHz[1], 2 / w.periodS);
+    // The phase is fitted over the user's band narrowed to the pulse's own band around its
+    // dominant frequency band (a third to three times, common practice): outside it the short windows carry little coherent energy.
+    const minHz = Math.max(s.phaseBandHz[0], 1 / (3 * w.periodS));
+    const maxHz = Math.min(s.phaseBandHz[1], 3 / w.periodS);
     const ph = maxHz > minHz ? phaseSlopeDelay(w.a, w.b, dt, { minHz, maxHz, nearDelayS: xc.delayS }) : null;
     if (ph) {
       const delayS = w.offsetS + ph.delayS;
