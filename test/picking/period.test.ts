@@ -1,0 +1,23 @@
+import { describe, expect, it } from 'vitest';
+import { lobePeriodS } from '../../src/core/picking/autopick';
+
+describe('dominant period from the main lobe (zero crossings around the largest |x|)', () => {
+  it('a 125 Hz sine gives 8 ms (analytic: zero crossings half a period apart)', () => {
+    const dt = 1e-5;
+    const x = Float64Array.from({ length: 4000 }, (_, i) => Math.sin(2 * Math.PI * 125 * i * dt + 0.3) * (1 + 0.2 * Math.sin(i / 900)));
+    expect(lobePeriodS(x, 0, 4000, dt)!).toBeCloseTo(0.008, 5);
+  });
+  it('a Ricker wavelet gives 4/(pi f sqrt 2): its main-lobe zero crossings sit at +-1/(pi f sqrt 2) (closed form)', () => {
+    const f = 80;
+    const dt = 2e-5;
+    const t0 = 0.05;
+    const x = Float64Array.from({ length: 5000 }, (_, i) => {
+      const a = (Math.PI * f * (i * dt - t0)) ** 2;
+      return (1 - 2 * a) * Math.exp(-a);
+    });
+    expect(lobePeriodS(x, 0, 5000, dt)!).toBeCloseTo(4 / (Math.PI * f * Math.SQRT2), 6);
+  });
+  it('no closed lobe (a ramp) gives null', () => {
+    expect(lobePeriodS(Float64Array.from({ length: 100 }, (_, i) => i + 1), 0, 100, 1e-4)).toBeNull();
+  });
+});
