@@ -13,3 +13,4 @@ if (e2ePath && existsSync(e2ePath)) {
   passed += (s.expected ?? 0) + (s.flaky ?? 0); failed += s.unexpected ?? 0; skipped += s.skipped ?? 0;
 } else { failed += 1; console.error('end-to-end test report missing'); }
 console.log(`Tests: ${passed} passed, ${failed} failed` + (skipped ? `, ${skipped} skipped` : ''));
+process.exitCode = failed > 0 || passed === 0 ? 1 : 0;

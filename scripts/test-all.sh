@@ -7,9 +7,12 @@ mkdir -p reports
 [ -d node_modules ] || npm ci --no-audit --no-fund
 [ -f sample-data/downhole/project.zip ] || npm run -s make-demo
 bash scripts/ensure-chromium.sh || exit 1
+rm -f reports/unit.json
 npx vitest run --reporter=default --reporter=json --outputFile.json=reports/unit.json
 unit_rc=$?
-npx playwright test --reporter=list,json
+rm -f reports/e2e.json
+npx playwright test
 e2e_rc=$?
 node scripts/summarize-tests.mjs reports/unit.json reports/e2e.json
-[ $unit_rc -eq 0 ] && [ $e2e_rc -eq 0 ]
+sum_rc=$?
+[ $unit_rc -eq 0 ] && [ $e2e_rc -eq 0 ] && [ $sum_rc -eq 0 ]
