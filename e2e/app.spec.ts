@@ -11,6 +11,7 @@ import { test, expect, type Page } from '@playwright/test';
 import { readFileSync, mkdirSync } from 'node:fs';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { readWaveFile } from '../src/core/io/readers';
+import { readProjectArchive } from '../src/core/io/archive';
 import { runPipeline } from '../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, toCsv } from '../src/core/report/tables';
 import { pickEditKey } from '../src/core/settings';
@@ -118,6 +119,37 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   st = await appState(page);
   expect(st.edits.picks[EDIT_KEY]).toBeCloseTo(mouseS, 12);
 
+  // Drag the pick 40 px later: one undo step for the whole gesture.
+  const from = await boardPixel(page, mouseS * 1000, 10);
+  const pastBefore = st.past;
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  for (let k = 1; k <= 4; k++) await page.mouse.move(from.x + 10 * k, from.y);
+  await page.mouse.up();
+  st = await appState(page);
+  expect(st.past).toBe(pastBefore + 1);
+  expect(st.edits.picks[EDIT_KEY]).toBeGreaterThan(mouseS + 0.001);
+  await page.keyboard.press('z');
+  st = await appState(page);
+  expect(st.edits.picks[EDIT_KEY]).toBeCloseTo(mouseS, 12);
+
+  // Snap: editing first peaks (key 2) with snap on (key s), a click 0.4 ms after the automatic peak of
+  // the 12 m trace lands on that peak. Reference: the core's characteristicPoints (the auto-pick), to
+  // within 0.05 ms (a tenth of the 0.5 ms a pick may be off; domain.md s.2).
+  const peak12 = before.picks.find((p) => p.stationKey === 'R@12.000:H1' && p.wave === 'S' && p.method === 'peak')!;
+  expect(peak12, 'an automatic first-peak pick at 12 m').toBeTruthy();
+  await page.keyboard.press('2');
+  await page.keyboard.press('s');
+  const near = await boardPixel(page, peak12.timeS * 1000 + 0.4, 12);
+  await page.mouse.click(near.x, near.y);
+  st = await appState(page);
+  expect(Math.abs(st.edits.picks[pickEditKey('R@12.000:H1', 'S', 'peak')] - peak12.timeS)).toBeLessThan(5e-5);
+  await page.keyboard.press('z');
+  await page.keyboard.press('s');
+  await page.keyboard.press('1');
+  await page.keyboard.press('ArrowUp');
+  await page.keyboard.press('ArrowUp');
+
   // Exclude the station with x, then exports.
   await page.keyboard.press('x');
   st = await appState(page);
@@ -138,7 +170,29 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   const site = JSON.parse(siteJsonText) as { vs30Mps: number; cautions: string[] };
   expect(site.vs30Mps).toBeCloseTo(ref.derived.site.vs30!.vsMps, 2);
   expect(site.cautions.length).toBeGreaterThan(0);
+  // Plots as images (Plotly.downloadImage): PNG signature bytes 89 50 4E 47 (PNG specification), SVG text.
+  const profilePlotRow = page.locator('.sheet tr', { hasText: 'Profile' });
+  const [png] = await Promise.all([page.waitForEvent('download'), profilePlotRow.getByRole('button', { name: 'PNG' }).click()]);
+  expect(png.suggestedFilename()).toMatch(/profile\.png$/);
+  expect([...readFileSync((await png.path())!).subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
+  const [svg] = await Promise.all([page.waitForEvent('download'), page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click()]);
+  expect(readFileSync((await svg.path())!, 'utf8')).toContain('<svg');
+  // The project archive holds the 60 files unchanged and the current edits (read back with the core).
+  const [zip] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: /^Project archive/ }).click()]);
+  const opened = readProjectArchive(new Uint8Array(readFileSync((await zip.path())!)), 'download.zip');
+  expect(opened.files).toHaveLength(60);
+  expect(opened.missing).toEqual([]);
+  expect(opened.doc.edits).toEqual(st.edits);
+  const demoFile = makeDemoProject('downhole').files[7];
+  expect(Buffer.from(opened.files.find((f) => f.name === demoFile.name)!.bytes).equals(Buffer.from(demoFile.bytes))).toBe(true);
   await page.getByRole('button', { name: 'Close' }).click();
+
+  // Printable summary: the print stylesheet shows only the summary.
+  await page.emulateMedia({ media: 'print' });
+  await expect(page.locator('.print-summary')).toBeVisible();
+  await expect(page.locator('.print-summary')).toContainText('qualified professional');
+  await page.screenshot({ path: `${SCREENS}/06-print-summary.png`, fullPage: true });
+  await page.emulateMedia({ media: 'screen' });
 
   // Site sheet.
   await page.getByRole('button', { name: 'Site…' }).click();
@@ -191,6 +245,20 @@ test('geometry, US units, keyboard help and the bottom strip render; Start fresh
   expect((await appState(page)).survey.records.find((r) => r.recordId === first.recordId)!.depthM).toBe(first.depthM);
 
   await page.getByRole('tab', { name: 'Trace board' }).click();
+  // Hovering an interval row lights the same depth band on the Trace board, Travel time and Profile.
+  const row = page.locator('[data-testid="intervals-table"] tbody tr').nth(3);
+  const key = await row.getAttribute('data-key');
+  await row.hover();
+  const bands = await page.evaluate(() =>
+    ['trace-board', 'travel-time', 'profile'].map((n) => {
+      const div = document.querySelector(`[data-plot="${n}"]`) as HTMLElement & { layout: { shapes?: { fillcolor?: string; y0: number; y1: number }[] } };
+      return (div.layout.shapes ?? []).filter((sh) => sh.fillcolor === 'rgba(253, 224, 71, 0.32)').map((sh) => [sh.y0, sh.y1]);
+    }),
+  );
+  const hovered = (await derivedState(page)).intervals.find((r) => r.key === key)!;
+  // US units on screen: band edges in feet (1 ft = 0.3048 m).
+  for (const b of bands) expect(b).toEqual([[hovered.topM / 0.3048, hovered.bottomM / 0.3048]].map((p) => p.map((v) => expect.closeTo(v, 6))));
+  await page.screenshot({ path: `${SCREENS}/13-hovered-interval.png` });
   await page.getByRole('button', { name: 'Keyboard help' }).click();
   await expect(page.getByRole('dialog', { name: 'Keyboard' })).toBeVisible();
   await page.screenshot({ path: `${SCREENS}/12-keyboard-help.png` });
@@ -200,4 +268,19 @@ test('geometry, US units, keyboard help and the bottom strip render; Start fresh
   await page.getByRole('button', { name: 'Start fresh' }).click();
   await expect(page.locator('li.file')).toHaveCount(0);
   await expect(page.locator('.board .empty')).toBeVisible();
+
+  // Loose waveform files (not an archive): placed from their headers / the default file-name pattern,
+  // then processed to a profile. The demo's files carry depth and hit in their names (dh_d12.0_L.sg2).
+  const demo = makeDemoProject('downhole');
+  await page.getByTestId('file-input').setInputFiles(demo.files.map((f) => ({ name: f.name, mimeType: 'application/octet-stream', buffer: Buffer.from(f.bytes) })));
+  await expect(page.locator('li.file[data-status="ok"]')).toHaveCount(60);
+  await waitProcessed(page);
+  const placed = (await appState(page)).survey.records;
+  expect(placed).toHaveLength(60);
+  for (const r of placed) {
+    const m = /d(\d+(?:\.\d+)?)_([LR])\./.exec(r.recordId)!;
+    expect(r.depthM).toBeCloseTo(Number(m[1]), 9);
+    expect(r.hit).toBe(m[2] === 'L' ? 'left' : 'right');
+  }
+  await expect(page.getByTestId('vs30-line')).toContainText('Vs30 =');
 });

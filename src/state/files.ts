@@ -12,10 +12,16 @@ import { ioLane } from '../worker/client';
 import { newSurvey } from './defaults';
 import type { NamedBytes, OpenedArchive, ParsedFile } from '../worker/protocol';
 import { clearRaw, rawFiles, rawRecords } from './raw';
-import { initialView, pushMessage, replaceWithoutHistory, commit, useApp, useResults, type RecordMeta } from './store';
+import { initialView, pushMessage, replaceWithoutHistory, commit, useApp, useResults, type RecordMeta, type ViewState } from './store';
 import { runProcessing } from './processing';
 
 const ZIP_NAME = /\.zip$/i;
+
+/** A new session starts with a fresh selection but keeps how the user likes to look at traces. */
+function keepViewPrefs(v: ViewState): ViewState {
+  const { recordsOpen, fill, normalise, gain, hitView, tool, snap, renderer } = v;
+  return { ...initialView(), recordsOpen, fill, normalise, gain, hitView, tool, snap, renderer };
+}
 
 function metaFor(name: string, sizeBytes: number, p: ParsedFile | null): RecordMeta {
   if (!p) return { id: name, fileName: name, sizeBytes, status: 'reading' };
@@ -136,7 +142,7 @@ export function applyProject(doc: ProjectDocument, opened: Pick<OpenedArchive, '
     deviationFiles: { ...(doc.deviationFiles ?? {}) },
     namePattern: extra.namePattern ?? st.namePattern,
     unitSystem: extra.unitSystem ?? st.unitSystem,
-    view: { ...initialView(), recordsOpen: st.view.recordsOpen },
+    view: keepViewPrefs(st.view),
     revision: st.revision + 1,
     filesRevision: st.filesRevision + 1,
     loadProgress: null,
@@ -247,7 +253,7 @@ export function startFresh(): void {
     survey: newSurvey(st.survey.kind),
     settings: defaultSettings(),
     edits: emptyEdits(),
-    view: { ...initialView(), recordsOpen: st.view.recordsOpen },
+    view: keepViewPrefs(st.view),
     past: [],
     future: [],
     records: [],

@@ -24,7 +24,7 @@ export function snapTimeS(station: Station, method: EditablePickMethod, timeS: n
       const r = aicOnsetIndex(x, Math.max(0, idx - 4 * half), end);
       return w.delayS + r.index * dt;
     }
-    const pts = characteristicPoints(x, start, dt, w.delayS, { searchS: 2 * half * dt, minFraction: 0.05 });
+    const pts = characteristicPoints(x, start, dt, w.delayS, { searchS: 2 * half * dt, minFraction: 0.5 });
     const t = method === 'peak' ? pts.peakS : method === 'trough' ? pts.troughS : pts.zeroCrossingS;
     return t !== null && Math.abs(t - timeS) <= 2 * half * dt ? t : timeS;
   } catch {

@@ -36,7 +36,7 @@ export interface RecordMeta {
 
 export type Sheet = null | 'site' | 'export';
 export type CentreTab = 'traces' | 'geometry';
-export type TraceTool = 'pick' | 'zoom';
+export type TraceTool = 'pick' | 'zoom' | 'pan';
 export type HitView = 'working' | 'both';
 
 export interface ViewState {
@@ -53,6 +53,8 @@ export interface ViewState {
   normalise: 'trace' | 'common';
   gain: number;
   hitView: HitView;
+  /** Trace board drawing: WebGL for many traces on a GPU ('auto'), or forced. */
+  renderer: 'auto' | 'svg' | 'webgl';
   recordsOpen: boolean;
   centre: CentreTab;
   sheet: Sheet;
@@ -95,6 +97,7 @@ export function initialView(): ViewState {
     normalise: 'trace',
     gain: 1,
     hitView: 'working',
+    renderer: 'auto',
     recordsOpen: true,
     centre: 'traces',
     sheet: null,

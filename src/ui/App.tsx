@@ -65,6 +65,7 @@ export function handleKey(e: KeyboardEvent): void {
   }
   if (key === 'p') return setView({ tool: 'pick' });
   if (key === 'm') return setView({ tool: 'zoom' });
+  if (key === 'n') return setView({ tool: 'pan' });
   if (key === 's') return setView({ snap: !view.snap });
   const prepared = useResults.getState().prepared;
   if (!prepared) return;
@@ -107,7 +108,7 @@ function KeyboardHelp() {
     ['x', 'exclude the trace, or restore it'],
     ['Delete', 'back to the automatic pick'],
     ['1 2 3 4', 'edit onset / first peak / first trough / zero crossing'],
-    ['p  m', 'Pick tool / Zoom tool (drag a box; double-click to see all; wheel zooms)'],
+    ['p  m  n', 'Pick tool / Zoom tool (drag a box; double-click to see all) / Pan tool; the wheel zooms'],
     ['s', 'snap on or off'],
     ['z  or  ctrl+z', 'undo'],
     ['shift+z  or  ctrl+y', 'redo'],
@@ -305,8 +306,8 @@ function PrintSummary() {
             <th>Vp ({v})</th>
             <th>Gmax ({label('modulus', units)})</th>
             <th>Vs1 ({v})</th>
-            <th>Method</th>
-            <th>Flags</th>
+            <th className="text">Method</th>
+            <th className="text">Flags</th>
           </tr>
         </thead>
         <tbody>
@@ -319,8 +320,8 @@ function PrintSummary() {
               <td>{fmt('velocity', units, r.vpMps)}</td>
               <td>{fmt('modulus', units, r.gmaxKpa)}</td>
               <td>{fmt('velocity', units, r.vs1Mps)}</td>
-              <td>{METHOD_WORDS[r.method]}</td>
-              <td>{r.flags.join(', ')}</td>
+              <td className="text">{METHOD_WORDS[r.method]}</td>
+              <td className="text">{r.flags.join(', ')}</td>
             </tr>
           ))}
         </tbody>

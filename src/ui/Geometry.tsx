@@ -7,10 +7,11 @@ import { useEffect, useState } from 'react';
 import type { Borehole, ChannelAssignment, Component, HitDirection, RecordAssignment, SoilLayer, TestKind } from '../core/model';
 import type { BandpassSetting, Settings } from '../core/settings';
 import { STRESS_EXPONENT_CHOICES } from '../core/stiffness/normalise';
-import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
+import { DEFAULT_NAME_PATTERN, defaultChannels } from '../core/survey/assign';
+import { rawRecords } from '../state/raw';
 import { updateSettings, updateSurvey } from '../state/edits';
 import { loadDeviation, reassignAll } from '../state/files';
-import { TEST_KIND_NAMES } from '../state/defaults';
+import { newSurvey, TEST_KIND_NAMES } from '../state/defaults';
 import { setNamePattern, useApp } from '../state/store';
 import { fmt, label, parseDisplay, useUnits } from './units';
 import type { QuantityKind, UnitSystem } from '../core/units';
@@ -64,6 +65,25 @@ function NumField({ value, onCommit, ariaLabel }: { value: number; onCommit: (v:
       }}
     />
   );
+}
+
+/**
+ * A new test kind: holes and receivers from the blank survey of that kind when the current ones do not
+ * fit, and every record's channels given the kind's default meaning (core: defaultChannels). Depths and
+ * hits are kept.
+ */
+function changeKind(kind: TestKind): void {
+  updateSurvey((s) => {
+    const blank = newSurvey(kind);
+    const holesFit = kind === 'crosshole' ? s.boreholes.length >= 3 && s.receiverHoleIds.length >= 2 : s.boreholes.some((h) => h.id === s.mainHoleId);
+    const geometry = holesFit ? {} : { boreholes: blank.boreholes, mainHoleId: blank.mainHoleId, receiverHoleIds: blank.receiverHoleIds, sourceOffsetM: blank.sourceOffsetM };
+    const receiverHoleIds = holesFit ? s.receiverHoleIds : blank.receiverHoleIds;
+    const records = s.records.map((r) => {
+      const rec = rawRecords.get(r.recordId);
+      return rec ? { ...r, channels: defaultChannels(kind, rec, receiverHoleIds) } : r;
+    });
+    return { ...s, ...geometry, kind, records };
+  });
 }
 
 function setRecord(id: string, patch: Partial<RecordAssignment>): void {
@@ -429,7 +449,7 @@ export function GeometryPane() {
         </label>
         <label>
           Test{' '}
-          <select value={survey.kind} onChange={(e) => updateSurvey((s) => ({ ...s, kind: e.target.value as TestKind }))} aria-label="Test kind">
+          <select value={survey.kind} onChange={(e) => changeKind(e.target.value as TestKind)} aria-label="Test kind">
             {(Object.keys(TEST_KIND_NAMES) as TestKind[]).map((k) => (
               <option key={k} value={k}>
                 {TEST_KIND_NAMES[k]}
@@ -520,6 +540,17 @@ export function GeometryPane() {
           ))}
         </tbody>
       </table>
+      <button
+        onClick={() =>
+          updateSurvey((s) => {
+            let n = s.boreholes.length + 1;
+            while (s.boreholes.some((h) => h.id === `BH${n}`)) n++;
+            return { ...s, boreholes: [...s.boreholes, { id: `BH${n}`, collarEastM: 0, collarNorthM: 0, deviation: [] }] };
+          })
+        }
+      >
+        Add borehole
+      </button>
       <h3>Soil column</h3>
       <SoilTable units={units} />
       <h3>Processing</h3>

@@ -10,7 +10,8 @@ import { useDerived } from '../state/derived';
 import { setIntervalMethod, toggleIntervalExcluded, updateSettings } from '../state/edits';
 import { setView, useApp } from '../state/store';
 import { METHOD_SHORT, METHOD_WORDS } from './picks';
-import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
+import { BASE_LAYOUT, COLOURS, Plot, pointerToData, type PlotData } from './plot';
+import { fromDisplay } from '../core/units';
 import { disp, fmt, label, useUnits } from './units';
 import type { UnitSystem } from '../core/units';
 
@@ -73,8 +74,8 @@ export function ProfilePlot() {
       ...BASE_LAYOUT,
       margin: { l: 48, r: 10, t: 44, b: 8 },
       xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})`, standoff: 4 }, ...TOP_AXIS },
-      xaxis2: { domain: [0.56, 0.77], title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 }, ...TOP_AXIS, anchor: 'y' },
-      xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, anchor: 'y' },
+      xaxis2: { domain: [0.56, 0.77], title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
+      xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
       yaxis: { title: { text: `Depth (${label('depth', units)})` }, autorange: 'reversed', gridcolor: COLOURS.grid, zeroline: false },
       shapes: hovered
         ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, hovered.topM), y1: disp('depth', units, hovered.bottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
@@ -82,11 +83,25 @@ export function ProfilePlot() {
     };
   }, [hoveredKey, d, units]);
 
-  return <Plot name="profile" data={data} layout={layout} className="plot profile-plot" />;
+  const wave = useApp((s) => s.view.wave);
+  const onMove = (ev: React.MouseEvent<HTMLDivElement>) => {
+    const div = ev.currentTarget.querySelector('[data-plot="profile"]') as HTMLDivElement | null;
+    const p = div && pointerToData(div, ev.clientX, ev.clientY);
+    if (!p || !d) return;
+    const depthM = fromDisplay('depth', units, p.y);
+    const r = d.intervals.find((x) => x.wave === wave && x.chosen && depthM >= x.topM && depthM < x.bottomM);
+    const key = r?.key ?? null;
+    if (key !== hoveredKey) setView({ hoveredInterval: key });
+  };
+  return (
+    <div className="profile-plot" onMouseMove={onMove} onMouseLeave={() => setView({ hoveredInterval: null })}>
+      <Plot name="profile" data={data} layout={layout} className="plot" />
+    </div>
+  );
 }
 
 /** Value axes on top (depth plots read downward), never below zero even when an error bar is wide. */
-const TOP_AXIS = { gridcolor: COLOURS.grid, zeroline: false, side: 'top', nticks: 4, autorangeoptions: { minallowed: 0 }, tickfont: { size: 10 } };
+const TOP_AXIS = { gridcolor: COLOURS.grid, zeroline: false, side: 'top', nticks: 4, tickangle: 0, autorangeoptions: { minallowed: 0 }, tickfont: { size: 10 } };
 
 interface IntervalGroup {
   key: string;

@@ -97,8 +97,9 @@ export function RecordsPane() {
       <div className="muted small">
         {ok} read{bad ? ` · ${bad} with errors` : ''}
       </div>
+      {bad > 0 && <div className="error small">Files with errors are listed first; every other file stays loaded.</div>}
       <ul className="file-list" data-testid="file-list">
-        {records.map((m) => {
+        {[...records.filter((m) => m.status === 'error'), ...records.filter((m) => m.status !== 'error')].map((m) => {
           const a = byId.get(m.id);
           return (
             <li key={m.fileName} className={`file ${m.status}`} data-status={m.status} data-file={m.fileName}>

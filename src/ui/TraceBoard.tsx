@@ -9,7 +9,8 @@ import type { EditablePickMethod } from '../core/settings';
 import type { Station } from '../core/survey/stations';
 import { reversedDirections } from '../core/survey/stations';
 import { stationWaveKey } from '../core/settings';
-import { useDerived } from '../state/derived';
+import { currentDerived, useDerived } from '../state/derived';
+import type { IntervalValue } from '../core/velocity/intervals';
 import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
@@ -18,8 +19,9 @@ import { decimateMinMax, mean, medianStep, peakAbs } from './decimate';
 import { boardStations, effectiveReceiver, pickFor, receiversOf, METHOD_WORDS } from './picks';
 import { BASE_LAYOUT, COLOURS, Plot, pointerToData, type PlotData } from './plot';
 import { disp, label, useUnits } from './units';
+import { hardwareWebgl } from './gl';
 
-/** Above this many traces the wiggles are drawn with WebGL (scattergl). */
+/** Above this many traces the wiggles are drawn with WebGL (scattergl) when the GPU does the drawing. */
 export const WEBGL_TRACE_THRESHOLD = 40;
 
 const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
@@ -63,7 +65,7 @@ function wiggles(inp: WiggleInput): PlotData[] {
   const clip = 0.95 * stepDisp;
   const type = inp.gl ? 'scattergl' : 'scatter';
   const commonPeak = inp.normalise === 'common' ? Math.max(1e-30, ...stations.map((s) => peakAbs(s.working.samples))) : 0;
-  const parts = { solid: [] as number[][], dashed: [] as number[][], lobes: [] as number[][] };
+  const parts = { solid: [] as number[][], dashed: [] as number[][], lobes: [] as number[][], hatch: [] as number[][] };
   const push = (arr: number[][], t: Float64Array, y: Float64Array, n: number) => {
     const xs: number[] = new Array(n + 1);
     const ys: number[] = new Array(n + 1);
@@ -104,18 +106,36 @@ function wiggles(inp: WiggleInput): PlotData[] {
     for (let i = 0; i < d.length; i++) y[i] = base - Math.max(-clip, Math.min(clip, (d.v[i] / peak) * halfAmp));
     push(parts.solid, d.t, y, d.length);
     if (inp.fill && d.length > 1) {
-      // Variable-area fill of the positive lobes: the positive envelope closed along the baseline.
-      const ly = new Float64Array(d.length + 2);
-      const lt = new Float64Array(d.length + 2);
-      lt[0] = d.t[0];
-      ly[0] = base;
-      for (let i = 0; i < d.length; i++) {
-        lt[i + 1] = d.t[i];
-        ly[i + 1] = Math.min(base, y[i]);
+      if (inp.gl) {
+        // WebGL: the positive lobes as one short vertical stroke per pixel column (reads as a fill;
+        // a 'toself' fill of hundreds of segments is very slow in the WebGL renderer).
+        const lt = new Float64Array(3 * d.length);
+        const ly = new Float64Array(3 * d.length);
+        let k = 0;
+        for (let i = 0; i < d.length; i++) {
+          if (!(y[i] < base)) continue;
+          lt[k] = d.t[i];
+          ly[k++] = base;
+          lt[k] = d.t[i];
+          ly[k++] = y[i];
+          lt[k] = NaN;
+          ly[k++] = NaN;
+        }
+        if (k) push(parts.hatch, lt, ly, k);
+      } else {
+        // Variable-area fill of the positive lobes: the positive envelope closed along the baseline.
+        const ly = new Float64Array(d.length + 2);
+        const lt = new Float64Array(d.length + 2);
+        lt[0] = d.t[0];
+        ly[0] = base;
+        for (let i = 0; i < d.length; i++) {
+          lt[i + 1] = d.t[i];
+          ly[i + 1] = Math.min(base, y[i]);
+        }
+        lt[d.length + 1] = d.t[d.length - 1];
+        ly[d.length + 1] = base;
+        push(parts.lobes, lt, ly, d.length + 2);
       }
-      lt[d.length + 1] = d.t[d.length - 1];
-      ly[d.length + 1] = base;
-      push(parts.lobes, lt, ly, d.length + 2);
     }
   }
   const flat = (arr: number[][], k: 0 | 1) => {
@@ -127,11 +147,28 @@ function wiggles(inp: WiggleInput): PlotData[] {
   if (parts.lobes.length) {
     out.push({ type, mode: 'lines', x: flat(parts.lobes, 0), y: flat(parts.lobes, 1), fill: 'toself', fillcolor: inp.colour + '55', line: { width: 0, color: inp.colour }, hoverinfo: 'skip', name: 'lobes' });
   }
+  if (parts.hatch.length) {
+    out.push({ type, mode: 'lines', x: flat(parts.hatch, 0), y: flat(parts.hatch, 1), line: { width: 1, color: inp.colour + '77' }, hoverinfo: 'skip', name: 'lobes', connectgaps: false });
+  }
   out.push({ type, mode: 'lines', x: flat(parts.solid, 0), y: flat(parts.solid, 1), line: { width: 1, color: COLOURS.ink }, hoverinfo: 'skip', name: 'wiggles', connectgaps: false });
   if (parts.dashed.length) {
     out.push({ type, mode: 'lines', x: flat(parts.dashed, 0), y: flat(parts.dashed, 1), line: { width: 1, color: '#52606d', dash: 'dash' }, hoverinfo: 'skip', name: 'second direction', connectgaps: false });
   }
   return out;
+}
+
+/** The chosen interval whose two stations are both on the board and bracket the pointer's depth. */
+function intervalAtDepth(intervals: readonly IntervalValue[], wave: Wave, stations: readonly Station[], depthOf: (s: Station) => number, y: number): string | null {
+  const onBoard = new Map(stations.map((s) => [s.key, depthOf(s)]));
+  for (const r of intervals) {
+    if (r.wave !== wave || !r.chosen) continue;
+    const a = onBoard.get(r.stationA);
+    const b = onBoard.get(r.stationB);
+    const lo = Math.min(a ?? NaN, b ?? NaN);
+    const hi = Math.max(a ?? NaN, b ?? NaN);
+    if (y >= lo && y <= hi) return r.key;
+  }
+  return null;
 }
 
 export function TraceBoard() {
@@ -147,6 +184,7 @@ export function TraceBoard() {
   const wrapRef = useRef<HTMLDivElement>(null);
   const divRef = useRef<HTMLDivElement | null>(null);
   const [drawMs, setDrawMs] = useState<number | null>(null);
+  const wiggleMs = useRef(0);
 
   const wave: Wave = view.wave;
   const allStations = prepared?.stations ?? [];
@@ -156,7 +194,7 @@ export function TraceBoard() {
   const shown = range ?? full;
   const depthOf = useMemo(() => (s: Station) => disp('depth', units, s.depthM), [units]);
   const stepDisp = useMemo(() => medianStep(stations.map(depthOf), 1), [stations, depthOf]);
-  const gl = stations.length > WEBGL_TRACE_THRESHOLD;
+  const gl = view.renderer === 'webgl' || (view.renderer === 'auto' && stations.length > WEBGL_TRACE_THRESHOLD && hardwareWebgl());
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
 
   useEffect(() => setRange(null), [wave, receiver, prepared]);
@@ -171,7 +209,8 @@ export function TraceBoard() {
 
   const wiggleData = useMemo(() => {
     if (!shown || !stations.length) return [];
-    return wiggles({
+    const t0 = performance.now();
+    const out = wiggles({
       stations,
       range: shown,
       columns: Math.max(100, width - 90),
@@ -179,12 +218,14 @@ export function TraceBoard() {
       depthOf,
       normalise: view.normalise,
       gain: view.gain,
-      fill: view.fill && view.hitView === 'working',
+      fill: view.fill && view.hitView === 'working' && !gl,
       hitView: view.hitView,
       kind: survey.kind,
       gl,
       colour,
     });
+    wiggleMs.current = performance.now() - t0;
+    return out;
   }, [stations, shown, width, stepDisp, depthOf, view.normalise, view.gain, view.fill, view.hitView, survey.kind, gl, colour]);
 
   const pickData = useMemo(() => {
@@ -224,7 +265,7 @@ export function TraceBoard() {
       ...BASE_LAYOUT,
       uirevision: `${wave}|${receiver}|${stations.length}`,
       margin: { l: 56, r: 12, t: 8, b: 40 },
-      dragmode: view.tool === 'zoom' ? 'zoom' : false,
+      dragmode: view.tool === 'pick' ? false : view.tool,
       xaxis: { title: { text: 'Time after trigger (ms)' }, range: shown ? [shown.t0S * 1000, shown.t1S * 1000] : undefined, zeroline: false, gridcolor: COLOURS.grid },
       yaxis: { title: { text: `Depth (${label('depth', units)})` }, range: [yMax, yMin], zeroline: false, gridcolor: COLOURS.grid },
       shapes,
@@ -287,8 +328,25 @@ export function TraceBoard() {
       window.addEventListener('mousemove', onMove, true);
       window.addEventListener('mouseup', onUp, true);
     };
+    // Hovering between two traces lights the interval they bound (the same band on every plot).
+    const onHover = (ev: MouseEvent) => {
+      const plotDiv = divRef.current;
+      if (!plotDiv || ev.buttons) return;
+      const p = pointerToData(plotDiv, ev.clientX, ev.clientY);
+      const d = currentDerived();
+      if (!p || !d) return;
+      const key = p.inside ? intervalAtDepth(d.intervals, useApp.getState().view.wave, stations, depthOf, p.y) : null;
+      if (key !== useApp.getState().view.hoveredInterval) setView({ hoveredInterval: key });
+    };
+    const onLeave = () => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null });
     div.addEventListener('mousedown', onDown, true);
-    return () => div.removeEventListener('mousedown', onDown, true);
+    div.addEventListener('mousemove', onHover);
+    div.addEventListener('mouseleave', onLeave);
+    return () => {
+      div.removeEventListener('mousedown', onDown, true);
+      div.removeEventListener('mousemove', onHover);
+      div.removeEventListener('mouseleave', onLeave);
+    };
   }, [stations, depthOf]);
 
   const receivers = receiversOf(allStations, wave);
@@ -331,15 +389,18 @@ export function TraceBoard() {
           <button className={view.tool === 'pick' ? 'on' : ''} onClick={() => setView({ tool: 'pick' })} aria-pressed={view.tool === 'pick'} title="Click to place a pick, drag to move it (p)">
             Pick
           </button>
-          <button className={view.tool === 'zoom' ? 'on' : ''} onClick={() => setView({ tool: 'zoom' })} aria-pressed={view.tool === 'zoom'} title="Drag to zoom, double-click to see all (m)">
+          <button className={view.tool === 'zoom' ? 'on' : ''} onClick={() => setView({ tool: 'zoom' })} aria-pressed={view.tool === 'zoom'} title="Drag a box to zoom, double-click to see all (m)">
             Zoom
+          </button>
+          <button className={view.tool === 'pan' ? 'on' : ''} onClick={() => setView({ tool: 'pan' })} aria-pressed={view.tool === 'pan'} title="Drag to move the view; the wheel zooms (n)">
+            Pan
           </button>
         </span>
         <label title="Snap a placed pick to the nearest peak, trough, zero crossing or onset of the chosen method (s)">
           <input type="checkbox" checked={view.snap} onChange={(e) => setView({ snap: e.target.checked })} /> Snap
         </label>
         <label>
-          <input type="checkbox" checked={view.fill} onChange={(e) => setView({ fill: e.target.checked })} /> Fill lobes
+          <input type="checkbox" checked={view.fill} disabled={gl} onChange={(e) => setView({ fill: e.target.checked })} /> Fill lobes{gl ? ' (not with WebGL)' : ''}
         </label>
         <label>
           Scale{' '}
@@ -350,6 +411,14 @@ export function TraceBoard() {
         </label>
         <label>
           Gain <input type="range" min={0.25} max={6} step={0.25} value={view.gain} onChange={(e) => setView({ gain: Number(e.target.value) })} aria-label="Gain" />
+        </label>
+        <label title="How the traces are drawn: auto = WebGL above 40 traces when the graphics processor draws it, else SVG">
+          Draw{' '}
+          <select value={view.renderer} onChange={(e) => setView({ renderer: e.target.value as 'auto' | 'svg' | 'webgl' })} aria-label="Renderer">
+            <option value="auto">auto</option>
+            <option value="svg">SVG</option>
+            <option value="webgl">WebGL</option>
+          </select>
         </label>
         <label title="Reversed hits: the working (difference) trace alone, or both directions (first solid, second dashed)">
           Hits{' '}
@@ -388,7 +457,7 @@ export function TraceBoard() {
         {view.notice && <span className="notice">{view.notice}</span>}
         <span className="muted">
           {stations.length} traces{gl ? ' (WebGL)' : ''}
-          {drawMs !== null ? ` · drawn in ${drawMs.toFixed(0)} ms` : ''}
+          {drawMs !== null ? ` · decimated in ${wiggleMs.current.toFixed(0)} ms, drawn in ${drawMs.toFixed(0)} ms` : ''}
         </span>
       </div>
     </section>

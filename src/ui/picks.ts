@@ -19,8 +19,12 @@ export function boardStations(stations: readonly Station[], wave: Wave, receiver
   return stations.filter((s) => s.wave === wave && (receiver === '*' || s.receiver === receiver)).sort((a, b) => a.depthM - b.depthM || a.receiver.localeCompare(b.receiver));
 }
 
+/** Receivers with stations of the wave, in survey order: upper before lower, near hole before far. */
 export function receiversOf(stations: readonly Station[], wave: Wave): string[] {
-  return [...new Set(stations.filter((s) => s.wave === wave).map((s) => s.receiver))];
+  const list = [...new Set(stations.filter((s) => s.wave === wave).map((s) => s.receiver))];
+  const rank = (r: string) => (r === 'upper' || r === 'R' ? 0 : r === 'lower' ? 1 : 2);
+  const firstDepth = (r: string) => Math.min(...stations.filter((s) => s.receiver === r).map((s) => s.straightPathM));
+  return list.sort((a, b) => rank(a) - rank(b) || firstDepth(a) - firstDepth(b));
 }
 
 /** The receiver shown when the user has not chosen one: the first receiver that has stations. */

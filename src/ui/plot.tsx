@@ -74,7 +74,9 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
     let alive = true;
     void Plotly.react(div, data as never, layout as never, { ...PLOT_CONFIG, ...(config ?? {}) } as never).then(() => {
       if (!alive) return;
-      onDrawn?.(performance.now() - t0);
+      const ms = performance.now() - t0;
+      onDrawn?.(ms);
+      div.dataset.lastDrawMs = ms.toFixed(0);
       div.dataset.drawn = String(Number(div.dataset.drawn ?? '0') + 1);
       const d = div as unknown as { on?: (ev: string, f: (e: Record<string, unknown>) => void) => void; __bwRelayout?: boolean };
       if (!d.__bwRelayout && d.on) {
