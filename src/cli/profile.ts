@@ -62,7 +62,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   }
   const project = loadProject(opened, basename(input));
   const settings = method ? { ...project.settings, profileMethod: method as IntervalMethod } : project.settings;
-  const result = runPipeline({ survey: project.survey, records: project.records, settings, edits: project.edits });
+  const result = runPipeline({ survey: project.survey, records: project.records, settings, edits: project.edits, comparison: project.comparison });
   const issues = [...project.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   mkdirSync(out, { recursive: true });

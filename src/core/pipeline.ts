@@ -21,6 +21,7 @@ import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './st
 import { defaultSoilColumn, validateSoilColumn } from './stiffness/stress';
 import { siteClass, timeAveragedVs, SITE_CAUTIONS, SITE_STANDARDS, type SiteClassResult, type TimeAveraged } from './stiffness/site';
 import { siteUncertainty, type SiteUncertainty } from './stiffness/montecarlo';
+import { compareProfiles, type ComparisonProfile } from './stiffness/comparison';
 
 export interface Prepared {
   stations: Station[];
@@ -72,6 +73,8 @@ export interface LayerFit {
   method: EditablePickMethod;
   velocityMps: number;
   velocitySdMps: number | null;
+  /** The fitted line: time = interceptS + pathM / velocityMps. */
+  interceptS: number;
   stations: number;
   rmsResidualS: number;
 }
@@ -80,6 +83,7 @@ export interface ProfileRow extends StiffnessRow {
   intervalKey: string;
   method: IntervalMethod;
   vpMethod: IntervalMethod | null;
+  vpSdMps: number | null;
 }
 
 export interface SiteSummary {
@@ -100,6 +104,7 @@ export interface Derived {
   rayFit: RayFitResult | null;
   drift: MethodDrift | null;
   site: SiteSummary;
+  comparison: ComparisonResult | null;
   issues: ErrorInfo[];
 }
 
@@ -191,6 +196,7 @@ function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Set
         method,
         velocityMps: 1 / fit.slope,
         velocitySdMps: Number.isFinite(fit.slopeSe) ? fit.slopeSe / (fit.slope * fit.slope) : null,
+        interceptS: fit.intercept,
         stations: fit.n,
         rmsResidualS: fit.rmsResidual,
       });
@@ -282,7 +288,7 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
   const rows: ProfileRow[] = stiff.map((r, i) => {
     const s = chosenS[i];
     const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
-    return { ...r, intervalKey: s.key, method: s.method, vpMethod: p?.method ?? null };
+    return { ...r, intervalKey: s.key, method: s.method, vpMethod: p?.method ?? null, vpSdMps: p?.velocitySdMps ?? null };
   });
   return { rows, velocity };
 }
@@ -344,6 +350,30 @@ function methodDrift(intervals: readonly IntervalValue[]): MethodDrift | null {
 export interface DeriveOptions {
   /** Run the Monte Carlo site uncertainty (default true); the UI defers it while a pick is dragged. */
   monteCarlo?: boolean;
+  /** A profile from another test (e.g. surface waves) to compare with. */
+  comparison?: ComparisonProfile | null;
+}
+
+export interface ComparisonResult {
+  name: string;
+  source: ComparisonProfile['source'];
+  /** Time-averaged Vs of the comparison profile to 30 m (or its depth), same rule as ours. */
+  vs30: TimeAveraged | null;
+  /** Per interval of our profile: our Vs, the comparison's travel-time average over the interval, difference in %. */
+  differences: { depthM: number; vsMps: number; comparisonVsMps: number; differencePct: number }[];
+}
+
+function comparisonResult(cmp: ComparisonProfile, velocity: readonly VelocityInterval[], settings: Settings): ComparisonResult {
+  const pts = [...cmp.points].sort((a, b) => a.depthM - b.depthM);
+  // Points are step tops; the last step runs to our profile's bottom or 30 m, whichever is deeper.
+  const bottomM = Math.max(30, ...velocity.map((v) => v.bottomM), pts.length ? pts[pts.length - 1].depthM + 1 : 0);
+  const steps = pts.map((p, i) => ({ topM: p.depthM, bottomM: i + 1 < pts.length ? pts[i + 1].depthM : bottomM, vsMps: p.vsMps })).filter((s) => s.bottomM > s.topM);
+  return {
+    name: cmp.name,
+    source: cmp.source,
+    vs30: steps.length ? timeAveragedVs(steps, 30, settings.vs30Rule) : null,
+    differences: compareProfiles(velocity.map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps })), cmp),
+  };
 }
 
 /** Light stage: everything that follows from the auto picks and the user's edits. */
@@ -382,6 +412,7 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
     rayFit: ray.result,
     drift,
     site,
+    comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,
     issues,
   };
 }
@@ -391,6 +422,7 @@ export interface PipelineInput {
   records: ReadonlyMap<string, WaveRecord>;
   settings: Settings;
   edits: UserEdits;
+  comparison?: ComparisonProfile | null;
 }
 
 export interface PipelineResult {
@@ -404,7 +436,7 @@ export function runPipeline(input: PipelineInput, onProgress?: (stage: string, d
   const prepared = prepare(input.survey, input.records, input.settings);
   onProgress?.('prepare', 1, 1);
   const auto = autoPick(prepared, input.settings, (d, t) => onProgress?.('auto-pick', d, t));
-  const derived = derive(input.survey, prepared, auto, input.edits, input.settings);
+  const derived = derive(input.survey, prepared, auto, input.edits, input.settings, { comparison: input.comparison ?? null });
   onProgress?.('derive', 1, 1);
   return { prepared, auto, derived };
 }

@@ -45,6 +45,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     layerFits: [],
     rayFit: null,
     drift: null,
+    comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [] },
     issues,
   };

@@ -14,7 +14,7 @@ import type { IntervalValue } from '../core/velocity/intervals';
 import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
-import { snapTimeS } from '../state/snap';
+import { snapTimeS } from '../core/picking/snap';
 import { decimateMinMax, mean, medianStep, peakAbs } from './decimate';
 import { boardStations, effectiveReceiver, pickFor, receiversOf, METHOD_WORDS } from './picks';
 import { BASE_LAYOUT, COLOURS, Plot, pointerToData, type PlotData } from './plot';
@@ -300,7 +300,7 @@ export function TraceBoard() {
         const q = pointerToData(plotDiv, clientX, ev.clientY);
         if (!q) return null;
         const tS = q.x / 1000;
-        return st.snap ? snapTimeS(s, method, tS) : tS;
+        return st.snap ? snapTimeS(s.working, method, tS) : tS;
       };
       const t0 = place(ev.clientX);
       if (t0 === null) return;

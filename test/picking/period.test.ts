@@ -21,3 +21,19 @@ describe('dominant period from the main lobe (zero crossings around the largest 
     expect(lobePeriodS(Float64Array.from({ length: 100 }, (_, i) => i + 1), 0, 100, 1e-4)).toBeNull();
   });
 });
+
+import { pairDelays, type WorkingTrace } from '../../src/core/picking/autopick';
+
+describe('pair delay with bounds narrower than one sample (very short path difference)', () => {
+  it('still searches one sample either side instead of failing', () => {
+    const dt = 5e-5;
+    const pulse = (t0: number) => Float64Array.from({ length: 2048 }, (_, i) => {
+      const a = (Math.PI * 100 * (i * dt - t0)) ** 2;
+      return (1 - 2 * a) * Math.exp(-a);
+    });
+    const mk = (key: string, t0: number): WorkingTrace => ({ stationKey: key, wave: 'S', samples: pulse(t0), sampleIntervalS: dt, delayS: 0, searchStartS: 0.005, searchEndS: 0.09 });
+    const [d] = pairDelays(mk('a', 0.03), mk('b', 0.03001), { pairKey: 'p', wave: 'S', a: 'a', b: 'b', minDelayS: 0.000012, maxDelayS: 0.000030 }, { onsetMethod: 'aic', staS: 0.001, ltaS: 0.01, staLtaThreshold: 4, phaseBandHz: null });
+    // true delay 0.01 ms = 0.2 sample (analytic shift)
+    expect(Math.abs(d.delayS - 1e-5)).toBeLessThan(0.2 * dt);
+  });
+});

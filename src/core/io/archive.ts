@@ -6,6 +6,7 @@
 import { unzipSync, zipSync, strFromU8, strToU8 } from 'fflate';
 import { BorewaveError } from '../errors';
 import type { Survey } from '../model';
+import type { ComparisonProfile } from '../stiffness/comparison';
 import { defaultSettings, emptyEdits, type Settings, type UserEdits } from '../settings';
 
 export const PROJECT_FORMAT = 'borewave-project';
@@ -24,6 +25,8 @@ export interface ProjectDocument {
   deviationFiles?: Record<string, string>;
   /** Free text the user keeps with the project. */
   notes?: string;
+  /** A profile from another test to compare with (depth and Vs, already converted to SI). */
+  comparison?: ComparisonProfile | null;
 }
 
 export interface ProjectFile {

@@ -8,6 +8,7 @@ import type { WaveRecord } from '../model';
 import type { Settings, UserEdits } from '../settings';
 import type { Survey } from '../model';
 import type { OpenedProject } from './archive';
+import type { ComparisonProfile } from '../stiffness/comparison';
 import { readWaveFile } from './readers';
 
 export interface LoadedProject {
@@ -15,6 +16,7 @@ export interface LoadedProject {
   settings: Settings;
   edits: UserEdits;
   records: Map<string, WaveRecord>;
+  comparison: ComparisonProfile | null;
   issues: ErrorInfo[];
 }
 
@@ -32,5 +34,5 @@ export function loadProject(opened: OpenedProject, archiveName: string): LoadedP
     if (out.ok) records.set(f.name, { ...out.record, id: f.name });
     else issues.push(out.error);
   }
-  return { survey: opened.doc.survey, settings: opened.doc.settings, edits: opened.doc.edits, records, issues };
+  return { survey: opened.doc.survey, settings: opened.doc.settings, edits: opened.doc.edits, records, comparison: opened.doc.comparison ?? null, issues };
 }

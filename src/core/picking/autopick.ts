@@ -296,7 +296,15 @@ export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, r
   const w = pairWindows(a, b, req);
   const common: string[] = [];
   if (a.onsetIdx === null || b.onsetIdx === null) common.push('no onset');
-  const xc = correlationDelay(w.a, w.b, dt, { minDelayS: req.minDelayS - w.offsetS, maxDelayS: req.maxDelayS - w.offsetS });
+  let lagLoS = req.minDelayS - w.offsetS;
+  let lagHiS = req.maxDelayS - w.offsetS;
+  if (Math.floor(lagHiS / dt + 1e-9) < Math.ceil(lagLoS / dt - 1e-9)) {
+    // Bounds narrower than a sample (a very short path difference): search one sample either side.
+    const mid = Math.round((lagLoS + lagHiS) / 2 / dt) * dt;
+    lagLoS = mid - dt;
+    lagHiS = mid + dt;
+  }
+  const xc = correlationDelay(w.a, w.b, dt, { minDelayS: lagLoS, maxDelayS: lagHiS });
   const bandwidthHz = s.phaseBandHz ? s.phaseBandHz[1] - s.phaseBandHz[0] : 1 / w.periodS;
   const xcFlags = [...common];
   if (xc.atBound) xcFlags.push('at lag bound');

@@ -106,6 +106,14 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
     classProbabilities: u?.classProbabilities ?? {},
     monteCarlo: { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed },
     answers: settings.siteAnswers,
+    comparison: d.comparison
+      ? {
+          name: d.comparison.name,
+          source: d.comparison.source,
+          vs30Mps: num(d.comparison.vs30?.vsMps, 2),
+          differences: d.comparison.differences.map((x) => ({ depthM: num(x.depthM, 3), vsMps: num(x.vsMps, 2), comparisonVsMps: num(x.comparisonVsMps, 2), differencePct: num(x.differencePct, 2) })),
+        }
+      : null,
     cautions: EXPORT_CAUTIONS,
   };
 }

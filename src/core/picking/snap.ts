@@ -1,22 +1,21 @@
 /**
- * Snap a hand pick to the nearest characteristic point of the working trace, using the core's pickers
- * only (features.characteristicPoints, onset.aicOnsetIndex): a peak, trough or zero crossing within a
- * quarter of the trace's dominant period of the pointer, or the AIC onset in a window around it.
+ * Snap a hand pick to the nearest characteristic point of a working trace (the Trace board's "snap"):
+ * a peak, trough or zero crossing within about a quarter of the trace's dominant period of the pointer,
+ * or the AIC onset in a window around it. Uses the same pickers as the automatic run.
  */
-import { aicOnsetIndex } from '../core/picking/onset';
-import { characteristicPoints, dominantPeriodS } from '../core/picking/features';
-import type { EditablePickMethod } from '../core/settings';
-import type { Station } from '../core/survey/stations';
+import { aicOnsetIndex } from './onset';
+import { characteristicPoints } from './features';
+import { lobePeriodS, type WorkingTrace } from './autopick';
+import type { EditablePickMethod } from '../settings';
 
-export function snapTimeS(station: Station, method: EditablePickMethod, timeS: number): number {
-  const w = station.working;
+export function snapTimeS(w: WorkingTrace, method: EditablePickMethod, timeS: number): number {
   const x = w.samples;
   const n = x.length;
   const dt = w.sampleIntervalS;
   const idx = Math.round((timeS - w.delayS) / dt);
   if (idx < 2 || idx > n - 3) return timeS;
   try {
-    const periodS = dominantPeriodS(x, Math.max(0, idx - Math.round(0.05 / dt)), n, dt) ?? 40 * dt;
+    const periodS = lobePeriodS(x, Math.max(0, idx - Math.round(0.05 / dt)), Math.min(n, idx + Math.round(0.05 / dt)), dt) ?? 40 * dt;
     const half = Math.max(3, Math.round(periodS / 4 / dt));
     const start = Math.max(1, idx - half);
     if (method === 'onset') {
