@@ -3,18 +3,8 @@
  * other expected values are the numbers written in the input.
  */
 import { describe, expect, it } from 'vitest';
-import { BorewaveError } from '../../src/core/errors';
+import { errorOf } from '../helpers/errors';
 import { readDeviationTable } from '../../src/core/io/deviation';
-
-function errorOf(f: () => unknown): BorewaveError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BorewaveError) return e;
-    throw e;
-  }
-  throw new Error('expected a BorewaveError');
-}
 
 describe('readDeviationTable', () => {
   it('reads a metre table with header', () => {

@@ -5,6 +5,7 @@
  * struct.pack (IEEE 754 and two's complement reference encodings).
  */
 import { describe, expect, it } from 'vitest';
+import { errorOf } from '../helpers/errors';
 import { BorewaveError } from '../../src/core/errors';
 import { readSeg2, writeSeg2, type Seg2TraceInput } from '../../src/core/io/seg2';
 import { buildSeg2, sampleBytes, uint, type FixtureTrace, type Order } from './seg2-fixtures';
@@ -14,16 +15,6 @@ function codeOf(f: () => unknown): string {
     f();
   } catch (e) {
     if (e instanceof BorewaveError) return e.code;
-    throw e;
-  }
-  throw new Error('expected a BorewaveError');
-}
-
-function errorOf(f: () => unknown): BorewaveError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BorewaveError) return e;
     throw e;
   }
   throw new Error('expected a BorewaveError');

@@ -4,18 +4,8 @@
  * common practice for instrument CSV exports (RFC 4180 for comma-separated quoting).
  */
 import { describe, expect, it } from 'vitest';
-import { BorewaveError } from '../../src/core/errors';
+import { errorOf } from '../helpers/errors';
 import { readDelimitedText } from '../../src/core/io/text';
-
-function errorOf(f: () => unknown): BorewaveError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BorewaveError) return e;
-    throw e;
-  }
-  throw new Error('expected a BorewaveError');
-}
 
 describe('readDelimitedText: separators and units', () => {
   it('comma separated, header time_ms: dt = 0.5 ms -> 5e-4 s, delay = first time', () => {
