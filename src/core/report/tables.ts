@@ -9,6 +9,7 @@ import type { Station } from '../survey/stations';
 import type { Derived, ProfileRow } from '../pipeline';
 import type { Settings } from '../settings';
 import { SITE_CAUTIONS } from '../stiffness/site';
+import { csvColumn, toDisplay, type QuantityKind, type UnitSystem } from '../units';
 
 export type Cell = string | number | null;
 
@@ -47,41 +48,57 @@ export function toCsv(t: Table, cautions: string[] = EXPORT_CAUTIONS): string {
 
 const ms = (s: number | null | undefined) => (s === null || s === undefined ? null : num(s * 1000, 4));
 
-export function picksTable(stations: readonly Station[], d: Derived): Table {
+/** SI column suffixes as the trade writes them (e.g. density_mg_m3); US ones from units.ts (vs_ftps, gmax_ksi). */
+const SI_SUFFIX: Partial<Record<QuantityKind, string>> = { density: 'mg_m3', unitWeight: 'kn_m3' };
+
+/** Column name with its unit, and the value converted from SI for the chosen system. */
+function unitColumn(system: UnitSystem) {
+  return {
+    name: (base: string, kind: QuantityKind) => (system === 'SI' ? `${base}_${SI_SUFFIX[kind] ?? csvColumn('', kind, 'SI').slice(1)}` : csvColumn(base, kind, 'US')),
+    value: (kind: QuantityKind, si: number | null | undefined, digits: number) => (si === null || si === undefined ? null : num(toDisplay(kind, system, si), digits)),
+  };
+}
+
+export function picksTable(stations: readonly Station[], d: Derived, system: UnitSystem = 'SI'): Table {
+  const u = unitColumn(system);
   const byKey = new Map(stations.map((s) => [s.key, s]));
-  const columns = ['station', 'receiver', 'depth_m', 'component', 'wave', 'method', 'origin', 'time_ms', 'uncertainty_ms', 'snr', 'polarity', 'flags'];
+  const columns = ['station', 'receiver', u.name('depth', 'depth'), 'component', 'wave', 'method', 'origin', 'time_ms', 'uncertainty_ms', 'snr', 'polarity', 'flags'];
   const rows: Cell[][] = d.picks.map((p) => {
     const s = byKey.get(p.stationKey);
     const flags = [...p.flags];
     if (!Number.isFinite(p.timeS)) flags.push('no value');
-    return [p.stationKey, s?.receiver ?? '', num(s?.depthM, 3), s?.component ?? '', p.wave, p.method, p.origin, ms(p.timeS), ms(p.uncertaintyS), num(p.snr, 2), p.polarity ?? null, flags.join('; ')];
+    return [p.stationKey, s?.receiver ?? '', u.value('depth', s?.depthM, 3), s?.component ?? '', p.wave, p.method, p.origin, ms(p.timeS), ms(p.uncertaintyS), num(p.snr, 2), p.polarity ?? null, flags.join('; ')];
   });
   return { columns, rows };
 }
 
-export function intervalsTable(d: Derived): Table {
-  const columns = ['depth_top_m', 'depth_bottom_m', 'wave', 'kind', 'method', 'chosen', 'station_a', 'station_b', 'path_a_m', 'path_b_m', 'dt_ms',
-    'vs_mps', 'vs_sd_mps', 'vp_mps', 'vp_sd_mps', 'flags'];
+export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
+  const u = unitColumn(system);
+  const columns = [u.name('depth_top', 'depth'), u.name('depth_bottom', 'depth'), 'wave', 'kind', 'method', 'chosen', 'station_a', 'station_b', u.name('path_a', 'depth'),
+    u.name('path_b', 'depth'), 'dt_ms', u.name('vs', 'velocity'), u.name('vs_sd', 'velocity'), u.name('vp', 'velocity'), u.name('vp_sd', 'velocity'), 'flags'];
   const rows: Cell[][] = d.intervals.map((r) => {
-    const v = num(r.velocityMps, 2);
-    const sd = num(r.velocitySdMps, 2);
+    const v = u.value('velocity', r.velocityMps, 2);
+    const sd = u.value('velocity', r.velocitySdMps, 2);
     const flags = [...r.flags];
     if (v === null && !flags.length) flags.push('no value');
-    return [num(r.topM, 3), num(r.bottomM, 3), r.wave, r.kind, r.method, r.chosen ? 1 : 0, r.stationA, r.stationB, num(r.pathAM, 4), num(r.pathBM, 4), ms(r.dtS),
-      r.wave === 'S' ? v : null, r.wave === 'S' ? sd : null, r.wave === 'P' ? v : null, r.wave === 'P' ? sd : null, flags.join('; ')];
+    return [u.value('depth', r.topM, 3), u.value('depth', r.bottomM, 3), r.wave, r.kind, r.method, r.chosen ? 1 : 0, r.stationA, r.stationB, u.value('depth', r.pathAM, 4),
+      u.value('depth', r.pathBM, 4), ms(r.dtS), r.wave === 'S' ? v : null, r.wave === 'S' ? sd : null, r.wave === 'P' ? v : null, r.wave === 'P' ? sd : null, flags.join('; ')];
   });
   return { columns, rows };
 }
 
-export function profileTable(d: Derived): Table {
-  const columns = ['depth_top_m', 'depth_bottom_m', 'depth_mid_m', 'method', 'vs_mps', 'vs_sd_mps', 'vp_mps', 'vp_method', 'density_mg_m3', 'sigma_v_kpa',
-    'pore_pressure_kpa', 'sigma_v_eff_kpa', 'gmax_mpa', 'gmax_sd_mpa', 'poisson_ratio', 'poisson_source', 'young_mpa', 'constrained_mpa', 'bulk_mpa',
-    'vs1_mps', 'stress_exponent', 'flags'];
-  const mpa = (kpa: number | null) => (kpa === null ? null : num(kpa / 1000, 3));
-  const rows: Cell[][] = d.profile.map((r: ProfileRow) => [num(r.topM, 3), num(r.bottomM, 3), num(r.midM, 3), r.method, num(r.vsMps, 2), num(r.vsSdMps, 2),
-    num(r.vpMps, 2), r.vpMethod ?? '', num(r.densityMgM3, 4), num(r.sigmaVKpa, 2), num(r.porePressureKpa, 2), num(r.sigmaVEffKpa, 2), mpa(r.gmaxKpa),
-    mpa(r.gmaxSdKpa), num(r.poissonRatio, 4), r.poissonSource, mpa(r.youngKpa), mpa(r.constrainedKpa), mpa(r.bulkKpa), num(r.vs1Mps, 2),
-    num(r.stressExponent, 3), r.flags.join('; ')]);
+export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
+  const u = unitColumn(system);
+  const columns = [u.name('depth_top', 'depth'), u.name('depth_bottom', 'depth'), u.name('depth_mid', 'depth'), 'method', u.name('vs', 'velocity'), u.name('vs_sd', 'velocity'),
+    u.name('vp', 'velocity'), u.name('vp_sd', 'velocity'), 'vp_method', u.name('density', 'density'), u.name('sigma_v', 'stress'), u.name('pore_pressure', 'stress'),
+    u.name('sigma_v_eff', 'stress'), u.name('gmax', 'modulus'), u.name('gmax_sd', 'modulus'), 'poisson_ratio', 'poisson_source', u.name('young', 'modulus'),
+    u.name('constrained', 'modulus'), u.name('bulk', 'modulus'), u.name('vs1', 'velocity'), 'stress_exponent', 'flags'];
+  // Moduli are kPa inside; the 'modulus' unit shows MPa (SI) or ksi (US).
+  const rows: Cell[][] = d.profile.map((r: ProfileRow) => [u.value('depth', r.topM, 3), u.value('depth', r.bottomM, 3), u.value('depth', r.midM, 3), r.method,
+    u.value('velocity', r.vsMps, 2), u.value('velocity', r.vsSdMps, 2), u.value('velocity', r.vpMps, 2), u.value('velocity', r.vpSdMps, 2), r.vpMethod ?? '',
+    u.value('density', r.densityMgM3, 4), u.value('stress', r.sigmaVKpa, 2), u.value('stress', r.porePressureKpa, 2), u.value('stress', r.sigmaVEffKpa, 2),
+    u.value('modulus', r.gmaxKpa, 3), u.value('modulus', r.gmaxSdKpa, 3), num(r.poissonRatio, 4), r.poissonSource, u.value('modulus', r.youngKpa, 3),
+    u.value('modulus', r.constrainedKpa, 3), u.value('modulus', r.bulkKpa, 3), u.value('velocity', r.vs1Mps, 2), num(r.stressExponent, 3), r.flags.join('; ')]);
   return { columns, rows };
 }
 
