@@ -1,5 +1,5 @@
 /**
- * `cli profile <project.zip|folder> --out <dir> [--method <m>] [--strict]`: runs the pipeline on a
+ * `cli profile <project.zip|folder> --out <dir> [--method <m>] [--units SI|US] [--strict]`: runs the pipeline on a
  * project and writes picks.csv, intervals.csv, profile.csv and site.json. Problems with single items
  * (a missing file, a record with no depth) are listed on stderr and the rest still computes; an
  * unreadable project exits 2 with a one-line reason; --strict also exits 3 when any problem was listed.
@@ -13,6 +13,7 @@ import { runPipeline } from '../core/pipeline';
 import { intervalsTable, picksTable, profileTable, siteJson, toCsv } from '../core/report/tables';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
 import type { CliIo } from './inspect';
+import type { UnitSystem } from '../core/units';
 
 function openFolder(dir: string): OpenedProject {
   const path = join(dir, 'project.json');
@@ -34,18 +35,27 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   let out: string | undefined;
   let method: string | undefined;
   let strict = false;
+  let units: UnitSystem = 'SI';
   for (let i = 0; i < args.length; i++) {
     const a = args[i];
     if (a === '--out') out = args[++i];
     else if (a === '--method') method = args[++i];
     else if (a === '--strict') strict = true;
+    else if (a === '--units') {
+      const u = args[++i];
+      if (u !== 'SI' && u !== 'US') {
+        io.stderr.write(`profile: --units ${u ?? ''} is not SI or US\n`);
+        return 2;
+      }
+      units = u;
+    }
     else if (a.startsWith('--')) {
       io.stderr.write(`profile: unknown option ${a}\n`);
       return 2;
     } else input = a;
   }
   if (!input || !out) {
-    io.stderr.write('usage: cli profile <project.zip|folder> --out <dir> [--method ' + INTERVAL_METHODS.join('|') + '] [--strict]\n');
+    io.stderr.write('usage: cli profile <project.zip|folder> --out <dir> [--method ' + INTERVAL_METHODS.join('|') + '] [--units SI|US] [--strict]\n');
     return 2;
   }
   if (method && !INTERVAL_METHODS.includes(method as IntervalMethod)) {
@@ -66,9 +76,9 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   const issues = [...project.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   mkdirSync(out, { recursive: true });
-  writeFileSync(join(out, 'picks.csv'), toCsv(picksTable(result.prepared.stations, result.derived)));
-  writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived)));
-  writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived)));
+  writeFileSync(join(out, 'picks.csv'), toCsv(picksTable(result.prepared.stations, result.derived, units)));
+  writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
+  writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
   const v = result.derived.site.vs30;
   io.stdout.write(
