@@ -265,12 +265,20 @@ function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], d
   return { result, byPair };
 }
 
+/** P-interval flags that keep its Vp out of Poisson's ratio and the moduli. */
+const DOUBTFUL_VP_FLAGS = new Set(['low correlation', 'at lag bound', 'outside lag bound', 'slow?', 'fast?', 'low snr', 'no onset']);
+
 function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues: ErrorInfo[]): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
   const chosenS = intervals.filter((r) => r.wave === 'S' && r.chosen).sort((a, b) => a.topM - b.topM);
   const chosenP = intervals.filter((r) => r.wave === 'P' && r.chosen);
   const velocity: VelocityInterval[] = chosenS.map((s) => {
     const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
-    return { topM: s.topM, bottomM: s.bottomM, vsMps: s.velocityMps!, vsSdMps: s.velocitySdMps ?? 0, vpMps: p?.velocityMps ?? null, vpSdMps: p?.velocitySdMps ?? null, flags: [...s.flags] };
+    // A doubtful Vp would give a wrong Poisson's ratio and moduli: it is left out of them, and said so.
+    const doubtful = p ? p.flags.filter((f) => DOUBTFUL_VP_FLAGS.has(f)) : [];
+    const flags = [...s.flags];
+    if (doubtful.length) flags.push(`vp left out (${doubtful.join(', ')})`);
+    const useVp = p && !doubtful.length;
+    return { topM: s.topM, bottomM: s.bottomM, vsMps: s.velocityMps!, vsSdMps: s.velocitySdMps ?? 0, vpMps: useVp ? p.velocityMps : null, vpSdMps: useVp ? p.velocitySdMps : null, flags };
   });
   const fallbackSoil = { ...defaultSoilColumn(Math.max(30, ...velocity.map((v) => v.bottomM))), waterTableM: survey.soil.waterTableM };
   const soilProblems = survey.soil.layers.length ? validateSoilColumn(survey.soil) : [];
@@ -288,7 +296,8 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
   const rows: ProfileRow[] = stiff.map((r, i) => {
     const s = chosenS[i];
     const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
-    return { ...r, intervalKey: s.key, method: s.method, vpMethod: p?.method ?? null, vpSdMps: p?.velocitySdMps ?? null };
+    const vpUsed = velocity[i].vpMps !== null;
+    return { ...r, intervalKey: s.key, method: s.method, vpMethod: vpUsed ? p?.method ?? null : null, vpSdMps: velocity[i].vpSdMps };
   });
   return { rows, velocity };
 }
