@@ -83,3 +83,23 @@ describe('bad geometry is named; the rest of the survey still computes', () => {
     expect(chosen.every((r) => r.flags.includes('deviation table rejected'))).toBe(true);
   });
 });
+
+describe('a doubtful Vp stays out of the moduli', () => {
+  it("a P interval flagged slow? gives no Vp, the layer's Poisson's ratio and a flag saying why", () => {
+    const res = downhole([3, 4, 5]);
+    const first = run(res);
+    const pa = first.prepared.stations.find((s) => s.wave === 'P' && s.depthM === 3)!;
+    const pb = first.prepared.stations.find((s) => s.wave === 'P' && s.depthM === 4)!;
+    const edits = emptyEdits();
+    // 1 m in 20 ms = 50 m/s: below the plausible P range (150 m/s) -> 'slow?'
+    edits.picks[pickEditKey(pa.key, 'P', 'onset')] = 0.01;
+    edits.picks[pickEditKey(pb.key, 'P', 'onset')] = 0.03;
+    const pKey = first.prepared.pairs.find((p) => p.wave === 'P' && p.a.key === pa.key)!.key;
+    edits.chosenMethod[pKey] = 'onset';
+    const d = derive(res.survey, first.prepared, first.auto, edits, defaultSettings());
+    const row = d.profile.find((r) => r.topM === 3)!;
+    expect(row.vpMps).toBeNull();
+    expect(row.poissonSource).toBe('user');
+    expect(row.flags.some((f) => f.startsWith('vp left out (') && f.includes('slow?'))).toBe(true);
+  });
+});
