@@ -16,7 +16,7 @@ import { buildStations, type Station } from './survey/stations';
 import { horizontalDistanceM } from './survey/geometry';
 import { delayRequests, intervalValues, pairStations, type IntervalValue, type StationPair } from './velocity/intervals';
 import { correctedTimeS, fitLine } from './velocity/formulas';
-import { fitLayersWithRays, type RayFitResult } from './velocity/rayfit';
+import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './velocity/rayfit';
 import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
 import { defaultSoilColumn, validateSoilColumn } from './stiffness/stress';
 import { siteClass, timeAveragedVs, SITE_CAUTIONS, SITE_STANDARDS, type SiteClassResult, type TimeAveraged } from './stiffness/site';
@@ -102,6 +102,8 @@ export interface Derived {
   travelTimes: TravelTimeRow[];
   layerFits: LayerFit[];
   rayFit: RayFitResult | null;
+  /** Downhole: S layer velocities over the chosen layers from the onset times with refracted rays. */
+  layerModel: LayerModelFit | null;
   drift: MethodDrift | null;
   site: SiteSummary;
   comparison: ComparisonResult | null;
@@ -175,12 +177,29 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
   });
 }
 
+/** Layer boundaries for fits: the user's, else the soil column's layer tops and bottom. */
+function layerBoundaries(survey: Survey, settings: Settings): number[] {
+  return settings.layerBoundariesM.length
+    ? [...settings.layerBoundariesM].sort((a, b) => a - b)
+    : survey.soil.layers.map((l) => l.topM).concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
+}
+
+/** Refracted-ray layer model of the downhole S onset times over the chosen layers. */
+function layerModelFor(survey: Survey, stations: readonly Station[], picks: readonly Pick[], settings: Settings): LayerModelFit | null {
+  if (survey.kind === 'crosshole') return null;
+  const onset = new Map(picks.filter((p) => p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === 'onset').map((p) => [p.stationKey, p.timeS]));
+  const pts = stations
+    .filter((s) => s.wave === 'S' && onset.has(s.key))
+    .map((s) => ({ z: s.receiverPos[2], t: onset.get(s.key)!, x: horizontalDistanceM(s.receiverPos, s.sourcePos) }))
+    .sort((a, b) => a.z - b.z);
+  if (pts.length < 3) return null;
+  return fitLayerModel({ depthsM: pts.map((p) => p.z), timesS: pts.map((p) => p.t), offsetsM: pts.map((p) => p.x), sourceDepthM: survey.sourceDepthM }, layerBoundaries(survey, settings));
+}
+
 /** Travel time against path length, fitted per layer (user boundaries, else the soil layers). */
 function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Settings, method: EditablePickMethod): LayerFit[] {
   if (survey.kind === 'crosshole') return [];
-  const bounds = settings.layerBoundariesM.length
-    ? [...settings.layerBoundariesM].sort((a, b) => a - b)
-    : survey.soil.layers.map((l) => l.topM).concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
+  const bounds = layerBoundaries(survey, settings);
   const fits: LayerFit[] = [];
   for (const wave of ['S', 'P'] as Wave[]) {
     const receiver = survey.kind === 'downhole-pair' ? 'upper' : undefined;
@@ -419,6 +438,7 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
     travelTimes,
     layerFits: layerFits(survey, travelTimes, settings, 'onset'),
     rayFit: ray.result,
+    layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     drift,
     site,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,

@@ -1,38 +1,108 @@
 /**
  * Derived results: derive() of the core, memoised on the identity of its inputs so every view shares
  * one computation per change (results are never stored twice).
+ *
+ * Two steps so a pick edit shows at once: derive(..., { monteCarlo: false }) runs on every change
+ * (profile, tables, deterministic Vs30), and the Monte Carlo spread of Vs30 (the core's siteUncertainty,
+ * the same call derive() makes) follows once the user pauses for SPREAD_IDLE_MS. The spread is added to
+ * the same result (a shallow copy sharing every array), so nothing is computed twice and the panes that
+ * memoise on the arrays (profile, intervals, travel times) do not redraw when it arrives.
  */
+import { useDeferredValue } from 'react';
+import { create } from 'zustand';
 import { derive, type Derived } from '../core/pipeline';
 import { toErrorInfo } from '../core/errors';
 import type { Survey } from '../core/model';
 import type { Settings, UserEdits } from '../core/settings';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
+import type { ComparisonProfile } from '../core/stiffness/comparison';
+import { siteUncertainty } from '../core/stiffness/montecarlo';
 import { useApp, useResults } from './store';
 
-type Inputs = [Survey, Prepared | null, AutoPickResult | null, UserEdits, Settings];
+type Inputs = [Survey, Prepared | null, AutoPickResult | null, UserEdits, Settings, ComparisonProfile | null];
+
+/** Pause after the last change before the Monte Carlo spread is computed, ms. */
+export const SPREAD_IDLE_MS = 250;
 
 let lastInputs: Inputs | null = null;
-let lastOutput: Derived | null = null;
-/** Wall time of the last derive() call, ms (shown in the status line; measured in e2e). */
+/** derive() without the Monte Carlo (every change). */
+let lastFast: Derived | null = null;
+/** The same result with the spread, once computed for lastFast. */
+let lastFull: Derived | null = null;
+let lastSettings: Settings | null = null;
+let spreadTimer: ReturnType<typeof setTimeout> | null = null;
+
+/** Wall time of the last derive() call and of the last spread, ms (status line; measured in e2e). */
 export let lastDeriveMs = 0;
+export let lastSpreadMs = 0;
+
+/** Bumped when the spread of the current result arrives (views re-read the result). */
+export const useSpread = create<{ revision: number; pending: boolean }>(() => ({ revision: 0, pending: false }));
+
+/**
+ * The Vs30 spread for a result computed without it: siteUncertainty over the profile's intervals with
+ * the site settings, exactly the arguments of the core's siteSummary (pipeline.ts).
+ */
+function withSpread(fast: Derived, settings: Settings): Derived {
+  const ivs = fast.profile.filter((r) => r.vsMps > 0).map((r) => ({ topM: r.topM, bottomM: r.bottomM, vsMps: r.vsMps, vsSdMps: r.vsSdMps }));
+  if (!ivs.length || !fast.site.vs30) return fast;
+  const t0 = performance.now();
+  try {
+    const uncertainty = siteUncertainty(ivs, { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed, toDepthM: 30, rule: settings.vs30Rule, answers: settings.siteAnswers });
+    return { ...fast, site: { ...fast.site, uncertainty } };
+  } catch (e) {
+    return { ...fast, issues: [...fast.issues, toErrorInfo(e, 'site spread')] };
+  } finally {
+    lastSpreadMs = performance.now() - t0;
+  }
+}
+
+/** Computes the spread now (exports, print, the idle timer). */
+export function settleSpread(): Derived | null {
+  if (spreadTimer) clearTimeout(spreadTimer);
+  spreadTimer = null;
+  if (!lastFast || !lastSettings) return lastFast;
+  if (!lastFull) {
+    lastFull = withSpread(lastFast, lastSettings);
+    useSpread.setState((s) => ({ revision: s.revision + 1, pending: false }));
+  }
+  return lastFull;
+}
+
+function scheduleSpread(): void {
+  if (spreadTimer) clearTimeout(spreadTimer);
+  spreadTimer = setTimeout(() => {
+    spreadTimer = null;
+    settleSpread();
+  }, SPREAD_IDLE_MS);
+}
 
 export function derivedFor(...inputs: Inputs): Derived | null {
-  if (lastInputs && inputs.every((v, i) => v === lastInputs![i])) return lastOutput;
-  const [survey, prepared, auto, edits, settings] = inputs;
-  let out: Derived | null = null;
-  if (prepared && auto) {
-    const t0 = performance.now();
-    try {
-      out = derive(survey, prepared, auto, edits, settings);
-    } catch (e) {
-      out = emptyDerived([toErrorInfo(e, survey.name)]);
+  if (!(lastInputs && inputs.every((v, i) => v === lastInputs![i]))) {
+    const [survey, prepared, auto, edits, settings, comparison] = inputs;
+    let out: Derived | null = null;
+    if (prepared && auto) {
+      const t0 = performance.now();
+      try {
+        out = derive(survey, prepared, auto, edits, settings, { monteCarlo: false, comparison });
+      } catch (e) {
+        out = emptyDerived([toErrorInfo(e, survey.name)]);
+      }
+      lastDeriveMs = performance.now() - t0;
     }
-    lastDeriveMs = performance.now() - t0;
+    lastInputs = inputs;
+    lastFast = out;
+    lastFull = null;
+    lastSettings = settings;
+    if (out) scheduleSpread();
+    // A store update inside a render is not allowed: mark pending just after it.
+    queueMicrotask(() => {
+      const pending = !!lastFast && !lastFull;
+      if (useSpread.getState().pending !== pending) useSpread.setState({ pending });
+    });
   }
-  lastInputs = inputs;
-  lastOutput = out;
-  return out;
+  return lastFull ?? lastFast;
 }
 
 function emptyDerived(issues: Derived['issues']): Derived {
@@ -44,6 +114,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     travelTimes: [],
     layerFits: [],
     rayFit: null,
+    layerModel: null,
     drift: null,
     comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [] },
@@ -51,19 +122,36 @@ function emptyDerived(issues: Derived['issues']): Derived {
   };
 }
 
-/** Current derived results (null until the first auto-pick has finished). */
+/**
+ * Current derived results (null until the first auto-pick has finished). New worker results are taken
+ * up in a deferred render, so the Trace board draws the new traces first and the tables follow; user
+ * edits are not deferred (the Profile follows an edit at once).
+ */
 export function useDerived(): Derived | null {
   const survey = useApp((s) => s.survey);
   const edits = useApp((s) => s.edits);
   const settings = useApp((s) => s.settings);
-  const prepared = useResults((s) => s.prepared);
-  const auto = useResults((s) => s.auto);
-  return derivedFor(survey, prepared, auto, edits, settings);
+  const comparison = useApp((s) => s.comparison);
+  const prepared = useDeferredValue(useResults((s) => s.prepared));
+  const auto = useDeferredValue(useResults((s) => s.auto));
+  useSpread((s) => s.revision);
+  return derivedFor(survey, prepared, auto, edits, settings, comparison);
+}
+
+/** True while the Vs30 spread of the current result is still to come. */
+export function useSpreadPending(): boolean {
+  return useSpread((s) => s.pending);
 }
 
 /** Same, outside React (event handlers). */
 export function currentDerived(): Derived | null {
   const a = useApp.getState();
   const r = useResults.getState();
-  return derivedFor(a.survey, r.prepared, r.auto, a.edits, a.settings);
+  return derivedFor(a.survey, r.prepared, r.auto, a.edits, a.settings, a.comparison);
+}
+
+/** The current result with its spread computed now (exports and the printable summary). */
+export function settledDerived(): Derived | null {
+  currentDerived();
+  return settleSpread();
 }

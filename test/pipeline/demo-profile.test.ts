@@ -65,6 +65,19 @@ describe('cli profile on the demo surveys recovers the forward model (within 3% 
   }
 });
 
+describe('refracted-ray layer model of the downhole demo (layers.csv) recovers every layer within 3%', () => {
+  it('downhole', async () => {
+    const { dir } = await profileRows(archiveOf(synthesizeSurvey(model, demoDownholeGeometry(), demoDownholeOptions())));
+    const rows = Papa.parse<Record<string, string>>(readFileSync(join(dir, 'out', 'layers.csv'), 'utf8'), { header: true, comments: '#', skipEmptyLines: true }).data
+      .filter((r) => r.method.startsWith('refracted'));
+    expect(rows.length).toBe(model.layers.length);
+    for (const r of rows) {
+      const truth = trueVsAt(model, (Number(r.depth_top_m) + Number(r.depth_bottom_m)) / 2);
+      expect(Math.abs(Number(r.velocity_mps) - truth) / truth).toBeLessThan(0.03);
+    }
+  });
+});
+
 describe('bad input is named and the rest still computes', () => {
   it('a missing file and a record with no depth are reported; the profile is still written', async () => {
     const res = synthesizeSurvey(model, demoDownholeGeometry(), demoDownholeOptions());

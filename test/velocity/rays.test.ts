@@ -52,3 +52,37 @@ describe('layer fit of downhole direct times with refracted rays (Kim, Bang & Ki
     fit.layers.forEach((l, j) => expect(Math.abs(l.velocityMps - expected[j]) / expected[j]).toBeLessThan(1e-3));
   });
 });
+
+import { fitLayerModel } from '../../src/core/velocity/rayfit';
+import { mulberry32 } from '../../src/core/random';
+
+describe('layer model over chosen layers (least squares with refracted rays, iterated)', () => {
+  const model = [{ topM: 0, velocityMps: 140 }, { topM: 4, velocityMps: 320 }, { topM: 8, velocityMps: 600 }];
+  const depthsM = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
+  const exact = depthsM.map((z) => layeredRay(model, 0, z, 3).timeS);
+  it('exact ray times (analytic forward model) give the layer velocities back and zero misfit', () => {
+    const fit = fitLayerModel({ depthsM, timesS: exact, offsetsM: depthsM.map(() => 3), sourceDepthM: 0 }, [4, 8])!;
+    expect(fit.converged).toBe(true);
+    expect(fit.layers.map((l) => l.velocityMps)).toEqual([expect.closeTo(140, 3), expect.closeTo(320, 3), expect.closeTo(600, 3)]);
+    expect(fit.rmsMisfitS).toBeLessThan(1e-8);
+  });
+  it('with 0.1 ms pick noise the misfit is about the noise and the stated sd covers the error (3 sigma)', () => {
+    const g = mulberry32(42);
+    const noisy = exact.map((t) => t + 1e-4 * g.normal());
+    const fit = fitLayerModel({ depthsM, timesS: noisy, offsetsM: depthsM.map(() => 3), sourceDepthM: 0 }, [4, 8])!;
+    expect(fit.rmsMisfitS).toBeGreaterThan(3e-5);
+    expect(fit.rmsMisfitS).toBeLessThan(2e-4);
+    fit.layers.forEach((l, j) => expect(Math.abs(l.velocityMps - model[j].velocityMps)).toBeLessThan(3 * l.velocitySdMps!));
+  });
+  it('straight slant-line regression is biased near a strong contrast; the refracted fit is not (Kim, Bang & Kim 2004)', () => {
+    const fit = fitLayerModel({ depthsM, timesS: exact, offsetsM: depthsM.map(() => 3), sourceDepthM: 0 }, [4, 8])!;
+    // straight-ray least squares of t against slant distance over the 320 m/s layer (5-8 m)
+    const xs = [5, 6, 7, 8].map((z) => Math.hypot(3, z));
+    const ts = [5, 6, 7, 8].map((z) => layeredRay(model, 0, z, 3).timeS);
+    const mx = xs.reduce((a, b) => a + b) / 4;
+    const mt = ts.reduce((a, b) => a + b) / 4;
+    const slope = xs.reduce((s, x, i) => s + (x - mx) * (ts[i] - mt), 0) / xs.reduce((s, x) => s + (x - mx) ** 2, 0);
+    expect(Math.abs(1 / slope - 320) / 320).toBeGreaterThan(0.01);
+    expect(Math.abs(fit.layers[1].velocityMps - 320) / 320).toBeLessThan(1e-3);
+  });
+});

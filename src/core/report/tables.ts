@@ -102,6 +102,23 @@ export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
   return { columns, rows };
 }
 
+/** Layer velocities: straight-line fits of time against slant distance, and the refracted-ray model. */
+export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
+  const u = unitColumn(system);
+  const columns = ['wave', u.name('depth_top', 'depth'), u.name('depth_bottom', 'depth'), 'method', u.name('velocity', 'velocity'), u.name('velocity_sd', 'velocity'),
+    'stations', 'rms_misfit_ms', 'flags'];
+  const rows: Cell[][] = d.layerFits.map((f) => [f.wave, u.value('depth', f.topM, 3), u.value('depth', f.bottomM, 3), `straight-line fit (${f.method})`,
+    u.value('velocity', f.velocityMps, 2), u.value('velocity', f.velocitySdMps, 2), f.stations, ms(f.rmsResidualS), f.velocitySdMps === null ? 'two stations: no sd' : '']);
+  const m = d.layerModel;
+  if (m) {
+    for (const l of m.layers) {
+      rows.push(['S', u.value('depth', l.topM, 3), u.value('depth', l.bottomM, 3), 'refracted-ray fit (onset)', u.value('velocity', l.velocityMps, 2),
+        u.value('velocity', l.velocitySdMps, 2), l.receivers, ms(m.rmsMisfitS), m.converged ? '' : 'not converged']);
+    }
+  }
+  return { columns, rows };
+}
+
 /** site.json: shape agreed in the site-class issue. */
 export function siteJson(d: Derived, settings: Settings): Record<string, unknown> {
   const v = d.site.vs30;

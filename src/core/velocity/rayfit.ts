@@ -95,3 +95,143 @@ export function fitLayersWithRays(input: RayFitInput, o: { maxIterations?: numbe
     residualsS,
   };
 }
+
+/**
+ * Layer model from downhole direct times over chosen layers (fewer layers than receivers): the same
+ * alternation of Snell's-law ray tracing and a linear solve, here least squares on T_i = sum_j L_ij s_j
+ * (normal equations, Cholesky), stopped when the slownesses change by less than `tolerance` (relative)
+ * or after `maxIterations`. Reports the RMS time misfit and, per layer, the one-sigma velocity from the
+ * residual variance and (L^T L)^-1 (ordinary least-squares covariance, any regression text).
+ * The last layer extends below the deepest receiver.
+ */
+export interface LayerModelFit {
+  layers: { topM: number; bottomM: number; velocityMps: number; velocitySdMps: number | null; receivers: number }[];
+  iterations: number;
+  converged: boolean;
+  rmsMisfitS: number;
+  residualsS: number[];
+}
+
+function choleskyFactor(a: Float64Array, n: number): Float64Array | null {
+  const l = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j <= i; j++) {
+      let s = a[i * n + j];
+      for (let k = 0; k < j; k++) s -= l[i * n + k] * l[j * n + k];
+      if (i === j) {
+        if (!(s > 0)) return null;
+        l[i * n + i] = Math.sqrt(s);
+      } else l[i * n + j] = s / l[j * n + j];
+    }
+  }
+  return l;
+}
+
+function choleskySolve(l: Float64Array, b: Float64Array, n: number): Float64Array {
+  const y = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    let s = b[i];
+    for (let k = 0; k < i; k++) s -= l[i * n + k] * y[k];
+    y[i] = s / l[i * n + i];
+  }
+  const x = new Float64Array(n);
+  for (let i = n - 1; i >= 0; i--) {
+    let s = y[i];
+    for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
+    x[i] = s / l[i * n + i];
+  }
+  return x;
+}
+
+export function fitLayerModel(input: RayFitInput, layerTopsM: number[], o: { maxIterations?: number; tolerance?: number } = {}): LayerModelFit | null {
+  const { depthsM, timesS, offsetsM, sourceDepthM } = input;
+  const n = depthsM.length;
+  const deepest = Math.max(...depthsM);
+  // Layers that hold at least one receiver depth (others cannot be resolved and are merged upward).
+  const tops = [...new Set([sourceDepthM, ...layerTopsM.filter((t) => t > sourceDepthM && t < deepest)])].sort((a, b) => a - b);
+  const receiversIn = tops.map((t, j) => depthsM.filter((z) => z > t && z <= (j + 1 < tops.length ? tops[j + 1] : Infinity)).length);
+  const kept = tops.filter((_, j) => receiversIn[j] > 0 || j === 0);
+  const m = kept.length;
+  if (n < m + 1 || m < 1) return null;
+  const maxIterations = o.maxIterations ?? 30;
+  const tolerance = o.tolerance ?? 1e-6;
+  let slowness: Float64Array = new Float64Array(m).fill(timesS.reduce((s, t, i) => s + t / Math.hypot(offsetsM[i], depthsM[i] - sourceDepthM), 0) / n);
+  for (let j = 0; j < m; j++) slowness[j] = Math.max(slowness[j], 1 / CEILING_VELOCITY_MPS);
+  const L = new Float64Array(n * m);
+  let iterations = 0;
+  let converged = false;
+  let factor: Float64Array | null = null;
+  const buildL = (s: Float64Array) => {
+    const model: VelocityLayer[] = kept.map((t, j) => ({ topM: t, velocityMps: 1 / s[j] }));
+    L.fill(0);
+    for (let i = 0; i < n; i++) {
+      const segs = segmentsBetween(model, sourceDepthM, depthsM[i]);
+      const ray = traceRay(segs, offsetsM[i], model[0].velocityMps);
+      // segments come out top to bottom; map each to its layer by depth
+      let top = Math.min(sourceDepthM, depthsM[i]);
+      segs.forEach((seg, k) => {
+        let j = 0;
+        while (j + 1 < m && kept[j + 1] <= top + 1e-9) j++;
+        L[i * m + j] += ray.segmentPathM[k];
+        top += seg.thicknessM;
+      });
+    }
+    return model;
+  };
+  for (; iterations < maxIterations; iterations++) {
+    buildL(slowness);
+    const ata = new Float64Array(m * m);
+    const atb = new Float64Array(m);
+    for (let a = 0; a < m; a++) {
+      for (let b = 0; b <= a; b++) {
+        let s = 0;
+        for (let i = 0; i < n; i++) s += L[i * m + a] * L[i * m + b];
+        ata[a * m + b] = s;
+        ata[b * m + a] = s;
+      }
+      let s = 0;
+      for (let i = 0; i < n; i++) s += L[i * m + a] * timesS[i];
+      atb[a] = s;
+    }
+    factor = choleskyFactor(ata, m);
+    if (!factor) return null;
+    const next = choleskySolve(factor, atb, m);
+    let change = 0;
+    for (let j = 0; j < m; j++) {
+      next[j] = Math.max(next[j], 1 / CEILING_VELOCITY_MPS);
+      change = Math.max(change, Math.abs(next[j] - slowness[j]) / slowness[j]);
+    }
+    slowness = next;
+    if (change < tolerance) {
+      converged = true;
+      iterations++;
+      break;
+    }
+  }
+  const model = buildL(slowness);
+  const residualsS = depthsM.map((z, i) => timesS[i] - traceRay(segmentsBetween(model, sourceDepthM, z), offsetsM[i], model[0].velocityMps).timeS);
+  const sse = residualsS.reduce((s, r) => s + r * r, 0);
+  const variance = n > m ? sse / (n - m) : NaN;
+  // Covariance of the slownesses: variance (L^T L)^-1; its diagonal by solving for unit vectors.
+  const sdOf = (j: number): number | null => {
+    if (!factor || !Number.isFinite(variance)) return null;
+    const e = new Float64Array(m);
+    e[j] = 1;
+    const col = choleskySolve(factor, e, m);
+    const sdS = Math.sqrt(Math.max(0, variance * col[j]));
+    return sdS / (slowness[j] * slowness[j]);
+  };
+  return {
+    layers: kept.map((t, j) => ({
+      topM: t,
+      bottomM: j + 1 < m ? kept[j + 1] : deepest,
+      velocityMps: 1 / slowness[j],
+      velocitySdMps: sdOf(j),
+      receivers: depthsM.filter((z) => z > t && z <= (j + 1 < m ? kept[j + 1] : Infinity)).length,
+    })),
+    iterations,
+    converged,
+    rmsMisfitS: Math.sqrt(sse / n),
+    residualsS,
+  };
+}
