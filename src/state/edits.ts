@@ -4,6 +4,8 @@
  * profile follows the edit at once.
  */
 import type { Wave } from '../core/model';
+import { toErrorInfo, type ErrorInfo } from '../core/errors';
+import { parseComparisonCsv, type ComparisonProfile } from '../core/stiffness/comparison';
 import { pickEditKey, stationWaveKey, type EditablePickMethod, type IntervalMethod, type Settings, type UserEdits } from '../core/settings';
 import { amend, commit, useApp, useResults, type Snapshot } from './store';
 
@@ -85,4 +87,24 @@ export function updateSettings(patch: Partial<Settings>): void {
 
 export function updateSurvey(change: (s: Snapshot['survey']) => Snapshot['survey']): void {
   commit((s) => ({ survey: change(s.survey) }));
+}
+
+/**
+ * Reads a comparison profile (depth and Vs, or depth and Rayleigh-wave velocity converted with the
+ * core's Viktorov approximation) and overlays it (one undo step). On a problem nothing changes and the
+ * error is returned in plain words.
+ */
+export function loadComparison(text: string, fileName: string, kind: 'vs' | 'rayleigh', poissonRatio: number): ErrorInfo | null {
+  let profile: ComparisonProfile;
+  try {
+    profile = parseComparisonCsv(text, fileName, { kind, poissonRatio });
+  } catch (e) {
+    return toErrorInfo(e, fileName);
+  }
+  commit(() => ({ comparison: profile }));
+  return null;
+}
+
+export function removeComparison(): void {
+  commit(() => ({ comparison: null }));
 }

@@ -136,6 +136,7 @@ export function applyProject(doc: ProjectDocument, opened: Pick<OpenedArchive, '
     survey: { ...doc.survey, records: [...doc.survey.records, ...added] },
     settings: doc.settings,
     edits: doc.edits,
+    comparison: doc.comparison ?? null,
     past: [],
     future: [],
     records: metas,
@@ -211,6 +212,7 @@ export function currentProject(): { doc: ProjectDocument; files: NamedBytes[] } 
     survey: s.survey,
     settings: s.settings,
     edits: s.edits,
+    ...(s.comparison ? { comparison: s.comparison } : {}),
     files: files.map((f) => f.name),
     deviationFiles: { ...s.deviationFiles },
   };
@@ -253,6 +255,7 @@ export function startFresh(): void {
     survey: newSurvey(st.survey.kind),
     settings: defaultSettings(),
     edits: emptyEdits(),
+    comparison: null,
     view: keepViewPrefs(st.view),
     past: [],
     future: [],

@@ -11,12 +11,15 @@ import type { UnitSystem } from '../core/units';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
 import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
+import type { ComparisonProfile } from '../core/stiffness/comparison';
 import { newSurvey } from './defaults';
 
 export interface Snapshot {
   survey: Survey;
   settings: Settings;
   edits: UserEdits;
+  /** A profile from another test overlaid on the Profile (null = none). */
+  comparison: ComparisonProfile | null;
 }
 
 export type FileStatus = 'reading' | 'ok' | 'error';
@@ -111,6 +114,7 @@ export function initialState(kind: TestKind = 'downhole'): Omit<AppState, 'view'
     survey: newSurvey(kind),
     settings: defaultSettings(),
     edits: emptyEdits(),
+    comparison: null,
     past: [],
     future: [],
     records: [],
@@ -128,7 +132,7 @@ export function initialState(kind: TestKind = 'downhole'): Omit<AppState, 'view'
 export const useApp = create<AppState>(() => initialState());
 
 function snapshot(s: AppState): Snapshot {
-  return { survey: s.survey, settings: s.settings, edits: s.edits };
+  return { survey: s.survey, settings: s.settings, edits: s.edits, comparison: s.comparison };
 }
 
 /**

@@ -8,7 +8,7 @@ import type { EditablePickMethod } from '../core/settings';
 import { STANDARD_NAMES } from '../core/stiffness/site';
 import { EXPORT_CAUTIONS } from '../core/report/tables';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
-import { currentDerived, useDerived } from '../state/derived';
+import { currentDerived, settleSpread, useDerived } from '../state/derived';
 import { clearPick, setPick, toggleStationExcluded } from '../state/edits';
 import { loadFiles, startFresh } from '../state/files';
 import { cancelProcessing, runProcessing } from '../state/processing';
@@ -22,6 +22,7 @@ import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
 import { TravelTime } from './TravelTime';
+import { warmHardwareWebgl } from './gl';
 import { fmt, label, useUnits } from './units';
 import { METHOD_WORDS } from './picks';
 
@@ -352,7 +353,14 @@ export function App() {
   const view = useApp((s) => s.view);
   useEffect(() => {
     window.addEventListener('keydown', handleKey);
-    return () => window.removeEventListener('keydown', handleKey);
+    warmHardwareWebgl();
+    // The printable summary carries the Vs30 spread: compute it now if the user has not paused yet.
+    const beforePrint = () => void settleSpread();
+    window.addEventListener('beforeprint', beforePrint);
+    return () => {
+      window.removeEventListener('keydown', handleKey);
+      window.removeEventListener('beforeprint', beforePrint);
+    };
   }, []);
   return (
     <div className={`app ${view.recordsOpen ? '' : 'records-closed'}`}>

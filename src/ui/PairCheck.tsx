@@ -98,7 +98,7 @@ export function PairCheck() {
           'Select a trace or an interval.'
         )}
       </div>
-      <Plot name="pair-check" data={data} layout={layout} className="plot small" />
+      <Plot name="pair-check" data={data} layout={layout} className="plot small" defer />
     </section>
   );
 }

@@ -2,15 +2,18 @@
  * Profile: Vs and Vp step profile with one-sigma bars, Gmax and Vs1 beside it, and the method
  * comparison table (every method's interval velocity, the one used, flags as short words).
  */
-import { useMemo } from 'react';
+import { memo, useMemo, useRef, useState } from 'react';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
 import type { IntervalValue } from '../core/velocity/intervals';
-import type { ProfileRow } from '../core/pipeline';
+import type { ComparisonResult, ProfileRow } from '../core/pipeline';
+import type { ComparisonProfile } from '../core/stiffness/comparison';
+import { DEFAULT_RAYLEIGH_POISSON } from '../core/stiffness/comparison';
+import type { ErrorInfo } from '../core/errors';
 import { useDerived } from '../state/derived';
-import { setIntervalMethod, toggleIntervalExcluded, updateSettings } from '../state/edits';
+import { loadComparison, removeComparison, setIntervalMethod, toggleIntervalExcluded, updateSettings } from '../state/edits';
 import { setView, useApp } from '../state/store';
 import { METHOD_SHORT, METHOD_WORDS } from './picks';
-import { BASE_LAYOUT, COLOURS, Plot, pointerToData, type PlotData } from './plot';
+import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { fromDisplay } from '../core/units';
 import { disp, fmt, label, useUnits } from './units';
 import type { UnitSystem } from '../core/units';
@@ -38,11 +41,28 @@ function stepLine(rows: readonly ProfileRow[], value: (r: ProfileRow) => number 
   return { x, y };
 }
 
+/** The comparison profile as a step line: point i holds from its depth to the next point; the last to bottomM. */
+function comparisonSteps(cmp: ComparisonProfile, bottomM: number, units: UnitSystem): { x: number[]; y: number[] } {
+  const pts = [...cmp.points].sort((a, b) => a.depthM - b.depthM);
+  const x: number[] = [];
+  const y: number[] = [];
+  pts.forEach((p, i) => {
+    const bottom = i + 1 < pts.length ? pts[i + 1].depthM : Math.max(bottomM, p.depthM);
+    x.push(disp('velocity', units, p.vsMps), disp('velocity', units, p.vsMps));
+    y.push(disp('depth', units, p.depthM), disp('depth', units, bottom));
+  });
+  return { x, y };
+}
+
 export function ProfilePlot() {
   const d = useDerived();
   const units = useUnits();
   const hoveredKey = useApp((s) => s.view.hoveredInterval);
-  const rows = useMemo(() => [...(d?.profile ?? [])].sort((a, b) => a.topM - b.topM), [d]);
+  const comparison = useApp((s) => s.comparison);
+  // Memoised on the profile array itself: the late Vs30 spread (same profile) does not redraw the plot.
+  const profile = d?.profile;
+  const intervals = d?.intervals;
+  const rows = useMemo(() => [...(profile ?? [])].sort((a, b) => a.topM - b.topM), [profile]);
 
   const data = useMemo(() => {
     const mid = rows.map((r) => disp('depth', units, r.midM));
@@ -50,6 +70,7 @@ export function ProfilePlot() {
     const vp = stepLine(rows, (r) => r.vpMps, units, 'velocity');
     const g = stepLine(rows, (r) => r.gmaxKpa, units, 'modulus');
     const vs1 = stepLine(rows, (r) => r.vs1Mps, units, 'velocity');
+    const withVp = rows.filter((r) => r.vpMps !== null && Number.isFinite(r.vpMps));
     const out: PlotData[] = [
       { type: 'scatter', mode: 'lines', name: 'Vs', x: vs.x, y: vs.y, line: { color: COLOURS.S, width: 2 }, hoverinfo: 'skip' },
       {
@@ -57,6 +78,10 @@ export function ProfilePlot() {
         marker: { symbol: 'circle', size: 5, color: COLOURS.S }, error_x: { type: 'data', array: rows.map((r) => disp('velocity', units, r.vsSdMps)), color: COLOURS.S, thickness: 1, width: 3 }, hoverinfo: 'skip',
       },
       { type: 'scatter', mode: 'lines', name: 'Vp', x: vp.x, y: vp.y, line: { color: COLOURS.P, width: 1.6, dash: 'dash' }, hoverinfo: 'skip' },
+      {
+        type: 'scatter', mode: 'markers', name: 'Vp ± 1 sd', x: withVp.map((r) => disp('velocity', units, r.vpMps!)), y: withVp.map((r) => disp('depth', units, r.midM)),
+        marker: { symbol: 'diamond-open', size: 5, color: COLOURS.P }, error_x: { type: 'data', array: withVp.map((r) => (r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0)), color: COLOURS.P, thickness: 1, width: 3 }, hoverinfo: 'skip',
+      },
       { type: 'scatter', mode: 'lines', name: 'Gmax', x: g.x, y: g.y, xaxis: 'x2', line: { color: COLOURS.ink, width: 1.6 }, hoverinfo: 'skip' },
       {
         type: 'scatter', mode: 'markers', name: 'Gmax ± 1 sd', x: rows.map((r) => disp('modulus', units, r.gmaxKpa)), y: mid, xaxis: 'x2',
@@ -64,37 +89,44 @@ export function ProfilePlot() {
       },
       { type: 'scatter', mode: 'lines', name: 'Vs1', x: vs1.x, y: vs1.y, xaxis: 'x3', line: { color: '#52606d', width: 1.6 }, hoverinfo: 'skip' },
     ];
+    if (comparison) {
+      const bottomM = rows.length ? rows[rows.length - 1].bottomM : 30;
+      const c = comparisonSteps(comparison, bottomM, units);
+      out.push({ type: 'scatter', mode: 'lines', name: `compared: ${comparison.name}`, x: c.x, y: c.y, line: { color: COLOURS.compare, width: 1.6, dash: 'dash' }, hoverinfo: 'skip' });
+    }
     return out;
-  }, [rows, units]);
+  }, [rows, units, comparison]);
 
+  const [bandTopM, bandBottomM] = hoveredBand(intervals, hoveredKey);
   const layout = useMemo(() => {
-    const hovered = hoveredKey ? d?.intervals.find((r) => r.key === hoveredKey) : undefined;
     const v = label('velocity', units);
     return {
       ...BASE_LAYOUT,
+      uirevision: 'profile',
       margin: { l: 48, r: 10, t: 44, b: 8 },
       xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})`, standoff: 4 }, ...TOP_AXIS },
       xaxis2: { domain: [0.56, 0.77], title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
       xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
       yaxis: { title: { text: `Depth (${label('depth', units)})` }, autorange: 'reversed', gridcolor: COLOURS.grid, zeroline: false },
-      shapes: hovered
-        ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, hovered.topM), y1: disp('depth', units, hovered.bottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
-        : [],
+      shapes:
+        bandTopM !== null && bandBottomM !== null
+          ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
+          : [],
     };
-  }, [hoveredKey, d, units]);
+  }, [bandTopM, bandBottomM, units]);
 
   const wave = useApp((s) => s.view.wave);
   const onMove = (ev: React.MouseEvent<HTMLDivElement>) => {
     const div = ev.currentTarget.querySelector('[data-plot="profile"]') as HTMLDivElement | null;
     const p = div && pointerToData(div, ev.clientX, ev.clientY);
-    if (!p || !d) return;
+    if (!p || !intervals) return;
     const depthM = fromDisplay('depth', units, p.y);
-    const r = d.intervals.find((x) => x.wave === wave && x.chosen && depthM >= x.topM && depthM < x.bottomM);
+    const r = intervals.find((x) => x.wave === wave && x.chosen && depthM >= x.topM && depthM < x.bottomM);
     const key = r?.key ?? null;
-    if (key !== hoveredKey) setView({ hoveredInterval: key });
+    if (key !== useApp.getState().view.hoveredInterval) setView({ hoveredInterval: key });
   };
   return (
-    <div className="profile-plot" onMouseMove={onMove} onMouseLeave={() => setView({ hoveredInterval: null })}>
+    <div className="profile-plot" onMouseMove={onMove} onMouseLeave={() => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null })}>
       <Plot name="profile" data={data} layout={layout} className="plot" />
     </div>
   );
@@ -123,6 +155,84 @@ function groups(intervals: readonly IntervalValue[], wave: 'S' | 'P'): IntervalG
   return [...map.values()].sort((a, b) => a.topM - b.topM);
 }
 
+interface RowProps {
+  /** Everything the row shows, as one string: the row redraws only when it changes. */
+  sig: string;
+  groupKey: string;
+  top: string;
+  bottom: string;
+  cells: { method: IntervalMethod; chosen: boolean; text: string }[];
+  own: IntervalMethod | undefined;
+  excluded: boolean;
+  selected: boolean;
+  hovered: boolean;
+  methods: IntervalMethod[];
+  profileMethod: IntervalMethod;
+  depLabel: string;
+  stationB: string | null;
+  compare: { other: string; diff: string } | null;
+  showCompare: boolean;
+  flags: string;
+}
+
+const IntervalRow = memo(
+  function IntervalRow(p: RowProps) {
+    return (
+      <tr
+        data-key={p.groupKey}
+        className={`${p.selected ? 'sel' : ''} ${p.hovered ? 'hov' : ''} ${p.excluded ? 'off' : ''}`}
+        onMouseEnter={() => setView({ hoveredInterval: p.groupKey })}
+        onClick={() => setView({ selectedInterval: p.groupKey, selectedStation: p.stationB })}
+      >
+        <td>{p.top}</td>
+        <td>{p.bottom}</td>
+        {p.showCompare && <td data-col="compare" className="cmp">{p.compare?.other ?? '–'}</td>}
+        {p.showCompare && <td data-col="difference" className="cmp">{p.compare?.diff ?? '–'}</td>}
+        {p.cells.map((c) => (
+          <td key={c.method} className={c.chosen ? 'chosen' : ''} data-method={c.method}>
+            {c.chosen ? '● ' : ''}
+            {c.text}
+          </td>
+        ))}
+        <td>
+          <select
+            value={p.own ?? ''}
+            onClick={(e) => e.stopPropagation()}
+            onChange={(e) => setIntervalMethod(p.groupKey, e.target.value ? (e.target.value as IntervalMethod) : null)}
+            aria-label={`Method for ${p.top}-${p.bottom} ${p.depLabel}`}
+          >
+            <option value="">({METHOD_SHORT[p.profileMethod]})</option>
+            {p.methods.map((m) => (
+              <option key={m} value={m}>
+                {METHOD_SHORT[m]}
+              </option>
+            ))}
+          </select>
+          <button
+            className="link"
+            title={p.excluded ? 'Put this interval back in the profile' : 'Leave this interval out of the profile'}
+            onClick={(e) => {
+              e.stopPropagation();
+              toggleIntervalExcluded(p.groupKey);
+            }}
+          >
+            {p.excluded ? 'use' : 'omit'}
+          </button>
+        </td>
+        <td className="flags">{p.flags}</td>
+      </tr>
+    );
+  },
+  (a, b) => a.sig === b.sig && a.selected === b.selected && a.hovered === b.hovered,
+);
+
+/** Comparison difference of the interval (matched by its mid-depth, as the core reports it). */
+function differenceAt(cmp: ComparisonResult | null | undefined, topM: number, bottomM: number): ComparisonResult['differences'][number] | undefined {
+  if (!cmp) return undefined;
+  const mid = 0.5 * (topM + bottomM);
+  return cmp.differences.find((x) => Math.abs(x.depthM - mid) < 1e-6);
+}
+
 export function IntervalsTable() {
   const d = useDerived();
   const units = useUnits();
@@ -130,17 +240,37 @@ export function IntervalsTable() {
   const selected = useApp((s) => s.view.selectedInterval);
   const hovered = useApp((s) => s.view.hoveredInterval);
   const edits = useApp((s) => s.edits);
-  const settings = useApp((s) => s.settings);
-  const list = useMemo(() => groups(d?.intervals ?? [], wave), [d, wave]);
-  const methods = INTERVAL_METHODS.filter((m) => list.some((g) => g.byMethod[m]));
+  const profileMethod = useApp((s) => s.settings.profileMethod);
+  const intervals = d?.intervals;
+  const cmp = d?.comparison;
+  const list = useMemo(() => groups(intervals ?? [], wave), [intervals, wave]);
+  const methods = useMemo(() => INTERVAL_METHODS.filter((m) => list.some((g) => g.byMethod[m])), [list]);
+  const showCompare = !!cmp && wave === 'S';
   const v = label('velocity', units);
   const dep = label('depth', units);
+  const rows = useMemo(
+    () =>
+      list.map((g) => {
+        const own = edits.chosenMethod[g.key];
+        const excluded = edits.excludedIntervals.includes(g.key);
+        const cells = methods.map((m) => ({ method: m, chosen: !!g.byMethod[m]?.chosen, text: fmt('velocity', units, g.byMethod[m]?.velocityMps) }));
+        const diff = showCompare ? differenceAt(cmp, g.topM, g.bottomM) : undefined;
+        const compare = diff ? { other: fmt('velocity', units, diff.comparisonVsMps), diff: `${diff.differencePct > 0 ? '+' : ''}${diff.differencePct.toFixed(1)}` } : null;
+        const flags = [...new Set([...(g.chosen?.flags ?? []), ...(excluded ? ['omitted'] : [])])].join(', ');
+        const top = fmt('depth', units, g.topM);
+        const bottom = fmt('depth', units, g.bottomM);
+        const stationB = g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null;
+        const sig = JSON.stringify([top, bottom, cells, own, excluded, methods, profileMethod, dep, stationB, compare, showCompare, flags]);
+        return { sig, groupKey: g.key, top, bottom, cells, own, excluded, methods, profileMethod, depLabel: dep, stationB, compare, showCompare, flags };
+      }),
+    [list, methods, edits.chosenMethod, edits.excludedIntervals, units, cmp, showCompare, profileMethod, dep],
+  );
   return (
     <div className="intervals">
       <div className="row-controls">
         <label>
           Profile method{' '}
-          <select value={settings.profileMethod} onChange={(e) => updateSettings({ profileMethod: e.target.value as IntervalMethod })} aria-label="Profile method">
+          <select value={profileMethod} onChange={(e) => updateSettings({ profileMethod: e.target.value as IntervalMethod })} aria-label="Profile method">
             {INTERVAL_METHODS.map((m) => (
               <option key={m} value={m}>
                 {METHOD_WORDS[m]}
@@ -151,11 +281,13 @@ export function IntervalsTable() {
         <span className="muted">{wave} intervals · ● = value in the profile</span>
       </div>
       <div className="table-wrap">
-        <table className="num" data-testid="intervals-table" onMouseLeave={() => setView({ hoveredInterval: null })}>
+        <table className="num" data-testid="intervals-table" onMouseLeave={() => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null })}>
           <thead>
             <tr>
               <th>Top ({dep})</th>
               <th>Bottom ({dep})</th>
+              {showCompare && <th className="cmp" title="Travel-time average of the compared profile over the interval">Compared ({v})</th>}
+              {showCompare && <th className="cmp" title="(compared - used) / used Vs of the interval">Diff. (%)</th>}
               {methods.map((m) => (
                 <th key={m} title={METHOD_WORDS[m]}>
                   {METHOD_SHORT[m]} ({v})
@@ -166,60 +298,92 @@ export function IntervalsTable() {
             </tr>
           </thead>
           <tbody>
-            {list.map((g) => {
-              const own = edits.chosenMethod[g.key];
-              const excluded = edits.excludedIntervals.includes(g.key);
-              return (
-                <tr
-                  key={g.key}
-                  data-key={g.key}
-                  className={`${g.key === selected ? 'sel' : ''} ${g.key === hovered ? 'hov' : ''} ${excluded ? 'off' : ''}`}
-                  onMouseEnter={() => setView({ hoveredInterval: g.key })}
-                  onClick={() => setView({ selectedInterval: g.key, selectedStation: g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null })}
-                >
-                  <td>{fmt('depth', units, g.topM)}</td>
-                  <td>{fmt('depth', units, g.bottomM)}</td>
-                  {methods.map((m) => {
-                    const r = g.byMethod[m];
-                    return (
-                      <td key={m} className={r?.chosen ? 'chosen' : ''} data-method={m}>
-                        {r?.chosen ? '● ' : ''}
-                        {fmt('velocity', units, r?.velocityMps)}
-                      </td>
-                    );
-                  })}
-                  <td>
-                    <select
-                      value={own ?? ''}
-                      onClick={(e) => e.stopPropagation()}
-                      onChange={(e) => setIntervalMethod(g.key, e.target.value ? (e.target.value as IntervalMethod) : null)}
-                      aria-label={`Method for ${fmt('depth', units, g.topM)}-${fmt('depth', units, g.bottomM)} ${dep}`}
-                    >
-                      <option value="">({METHOD_SHORT[settings.profileMethod]})</option>
-                      {methods.map((m) => (
-                        <option key={m} value={m}>
-                          {METHOD_SHORT[m]}
-                        </option>
-                      ))}
-                    </select>
-                    <button
-                      className="link"
-                      title={excluded ? 'Put this interval back in the profile' : 'Leave this interval out of the profile'}
-                      onClick={(e) => {
-                        e.stopPropagation();
-                        toggleIntervalExcluded(g.key);
-                      }}
-                    >
-                      {excluded ? 'use' : 'omit'}
-                    </button>
-                  </td>
-                  <td className="flags">{[...new Set([...(g.chosen?.flags ?? []), ...(excluded ? ['omitted'] : [])])].join(', ')}</td>
-                </tr>
-              );
-            })}
+            {rows.map((r) => (
+              <IntervalRow key={r.groupKey} {...r} selected={r.groupKey === selected} hovered={r.groupKey === hovered} />
+            ))}
           </tbody>
         </table>
       </div>
+    </div>
+  );
+}
+
+/** "Compare with another profile...": a CSV of depth and Vs, or depth and Rayleigh-wave velocity. */
+export function ComparisonControl() {
+  const comparison = useApp((s) => s.comparison);
+  const d = useDerived();
+  const units = useUnits();
+  const [open, setOpen] = useState(false);
+  const [kind, setKind] = useState<'vs' | 'rayleigh'>('vs');
+  const [nuText, setNuText] = useState(String(DEFAULT_RAYLEIGH_POISSON));
+  const [error, setError] = useState<ErrorInfo | null>(null);
+  const fileRef = useRef<HTMLInputElement>(null);
+  const v = label('velocity', units);
+  const nu = Number(nuText.replace(',', '.'));
+  const readFile = async (f: File) => {
+    setError(null);
+    const text = await f.text();
+    const err = loadComparison(text, f.name, kind, nu);
+    if (err) setError(err);
+    else setOpen(false);
+  };
+  const result = d?.comparison;
+  return (
+    <div className="compare" data-testid="comparison">
+      {comparison ? (
+        <div className="compare-line">
+          <span className="swatch-dash" aria-hidden="true" /> Compared with <b>{comparison.name}</b>
+          {comparison.source === 'rayleigh' ? ` (Rayleigh velocity → Vs, Viktorov, ν = ${comparison.poissonRatio ?? DEFAULT_RAYLEIGH_POISSON})` : ' (Vs)'}: its Vs30 ={' '}
+          <span data-testid="comparison-vs30">{fmt('velocity', units, result?.vs30?.vsMps)}</span> {v}
+          {d?.site.vs30 ? ` · ours ${fmt('velocity', units, d.site.vs30.vsMps)} ${v}` : ''}{' '}
+          <button className="link" onClick={removeComparison}>
+            remove
+          </button>
+          {comparison.notes?.length ? <div className="small muted">{comparison.notes.join('; ')}</div> : null}
+        </div>
+      ) : (
+        <button className="link" onClick={() => setOpen(!open)} aria-expanded={open}>
+          Compare with another profile…
+        </button>
+      )}
+      {open && !comparison && (
+        <div className="compare-form">
+          <label>
+            Column holds{' '}
+            <select value={kind} onChange={(e) => setKind(e.target.value as 'vs' | 'rayleigh')} aria-label="Comparison velocity kind">
+              <option value="vs">Vs (shear-wave velocity)</option>
+              <option value="rayleigh">Rayleigh-wave velocity</option>
+            </select>
+          </label>
+          {kind === 'rayleigh' && (
+            <label title="Vs = VR (1 + ν) / (0.87 + 1.12 ν), Viktorov's approximation">
+              Poisson's ratio ν <input className="field" size={4} value={nuText} onChange={(e) => setNuText(e.target.value)} aria-label="Poisson's ratio" />
+            </label>
+          )}
+          <button onClick={() => fileRef.current?.click()}>Choose CSV…</button>
+          <input
+            ref={fileRef}
+            type="file"
+            accept=".csv,.txt,text/csv,text/plain"
+            hidden
+            data-testid="comparison-input"
+            onChange={(e) => {
+              const f = e.target.files?.[0];
+              if (f) void readFile(f);
+              e.target.value = '';
+            }}
+          />
+          <div className="small muted">
+            Depth and velocity columns (e.g. depth_m, vs_mps; m or ft, m/s or ft/s in the header); each row is the top of a layer.
+            {kind === 'rayleigh' ? " Converted to Vs with Viktorov's approximation VR/Vs = (0.87 + 1.12 ν)/(1 + ν)." : ''}
+          </div>
+        </div>
+      )}
+      {error && (
+        <div className="error" role="alert">
+          The comparison file was not read: {error.message}
+        </div>
+      )}
     </div>
   );
 }
@@ -239,6 +403,7 @@ export function ProfilePane() {
         <button onClick={() => setView({ sheet: 'site' })}>Site…</button>
         <button onClick={() => setView({ sheet: 'export' })}>Export…</button>
       </div>
+      <ComparisonControl />
       <ProfilePlot />
       <IntervalsTable />
       <p className="caution-line">Results need review by a qualified professional before use; local codes govern.</p>

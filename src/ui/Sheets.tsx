@@ -6,7 +6,7 @@
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
 import { intervalsTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
 import type { Vs30RuleSetting } from '../core/settings';
-import { useDerived } from '../state/derived';
+import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
 import { projectArchiveBytes } from '../state/files';
 import { setView, useApp, useResults } from '../state/store';
@@ -39,6 +39,7 @@ export function SiteSheet() {
   const site = d?.site;
   const vs30 = site?.vs30;
   const u = site?.uncertainty;
+  const spreadPending = useSpreadPending();
   const v = label('velocity', units);
   const questions = siteQuestions();
   const standards = (site?.classes ?? []).map((c) => c.standard);
@@ -51,13 +52,26 @@ export function SiteSheet() {
           <div className="big" data-testid="site-vs30">
             Vs30 = {fmt('velocity', units, vs30.vsMps)} {v}
           </div>
+          <p className="caution-top">{CAUTIONS_PLAIN[0]} Full cautions at the end of this sheet.</p>
+          {d?.comparison && (
+            <p data-testid="site-comparison">
+              Compared profile {d.comparison.name}: Vs30 = {fmt('velocity', units, d.comparison.vs30?.vsMps)} {v}
+{' '}
+              (this profile {fmt('velocity', units, vs30.vsMps)} {v}; per interval in the Profile table)
+            </p>
+          )}
           <p className="muted">
             averaged over {fmt('depth', units, vs30.toDepthM)} {label('depth', units)}
             {vs30.extended ? ' (deepest velocity extended to 30 m)' : ''}; profile to {fmt('depth', units, vs30.profileDepthM)} {label('depth', units)}
             {vs30.flags.length ? ` · ${vs30.flags.join(', ')}` : ''}
           </p>
+          {spreadPending && !u && (
+            <p className="muted" data-testid="spread-updating">
+              Spread updating…
+            </p>
+          )}
           {u && (
-            <p>
+            <p data-testid="site-spread">
               Spread from the interval uncertainties ({settings.monteCarloDraws} draws): P05 {fmt('velocity', units, u.vs30P05Mps)} · P50 {fmt('velocity', units, u.vs30P50Mps)} · P95{' '}
               {fmt('velocity', units, u.vs30P95Mps)} {v}
             </p>
@@ -83,7 +97,9 @@ export function SiteSheet() {
                   <td className="text">{STANDARD_NAMES[c.standard]}</td>
                   <td className="cls">{c.siteClass}</td>
                   <td className="text">
-                    {u
+                    {spreadPending && !u
+                      ? 'updating…'
+                      : u
                       ? Object.entries(u.classProbabilities[c.standard] ?? {})
                           .filter(([, p]) => p > 0)
                           .sort((a, b) => b[1] - a[1])
@@ -151,8 +167,9 @@ export function ExportSheet() {
   const base = safeBaseName(name);
   const ready = !!(d && prepared);
   const csv = (kind: 'picks' | 'intervals' | 'profile') => {
-    if (!d || !prepared) return;
-    const table = kind === 'picks' ? picksTable(prepared.stations, d) : kind === 'intervals' ? intervalsTable(d) : profileTable(d);
+    const full = settledDerived();
+    if (!full || !prepared) return;
+    const table = kind === 'picks' ? picksTable(prepared.stations, full) : kind === 'intervals' ? intervalsTable(full) : profileTable(full);
     download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
   };
   const plot = (p: string, f: 'png' | 'svg') => {
@@ -172,7 +189,10 @@ export function ExportSheet() {
         <button disabled={!ready} onClick={() => csv('profile')}>
           Profile with stiffness (CSV)
         </button>
-        <button disabled={!ready} onClick={() => d && download(`${base}-site.json`, JSON.stringify(siteJson(d, settings), null, 2), 'application/json')}>
+        <button disabled={!ready} onClick={() => {
+            const full = settledDerived();
+            if (full) download(`${base}-site.json`, JSON.stringify(siteJson(full, settings), null, 2), 'application/json');
+          }}>
           Site summary (JSON)
         </button>
       </div>

@@ -15,9 +15,9 @@ import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
 import { snapTimeS } from '../core/picking/snap';
-import { decimateMinMax, mean, medianStep, peakAbs } from './decimate';
+import { decimateMinMax, dropFlatRuns, mean, medianStep, peakAbs } from './decimate';
 import { boardStations, effectiveReceiver, pickFor, receiversOf, METHOD_WORDS } from './picks';
-import { BASE_LAYOUT, COLOURS, Plot, pointerToData, type PlotData } from './plot';
+import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { disp, label, useUnits } from './units';
 import { hardwareWebgl } from './gl';
 
@@ -25,6 +25,8 @@ import { hardwareWebgl } from './gl';
 export const WEBGL_TRACE_THRESHOLD = 40;
 
 const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
+const BOARD_CONFIG = { doubleClick: 'reset' };
+const OVERLAY_CONFIG = { staticPlot: true, responsive: true };
 
 interface Range {
   t0S: number;
@@ -56,6 +58,8 @@ interface WiggleInput {
   kind: 'downhole' | 'downhole-pair' | 'crosshole';
   gl: boolean;
   colour: string;
+  /** A third of a pixel in depth units: flat runs closer than this to a straight line are not drawn point by point. */
+  flatTolY: number;
 }
 
 /** One long polyline per style with NaN gaps between traces (few Plotly traces draw fastest). */
@@ -101,9 +105,10 @@ function wiggles(inp: WiggleInput): PlotData[] {
     }
     const w = s.working;
     const peak = inp.normalise === 'common' ? commonPeak : Math.max(1e-30, peakAbs(w.samples));
-    const d = decimateMinMax(w.samples, w.delayS, w.sampleIntervalS, range.t0S, range.t1S, columns);
-    const y = new Float64Array(d.length);
-    for (let i = 0; i < d.length; i++) y[i] = base - Math.max(-clip, Math.min(clip, (d.v[i] / peak) * halfAmp));
+    const dec = decimateMinMax(w.samples, w.delayS, w.sampleIntervalS, range.t0S, range.t1S, columns);
+    const y = new Float64Array(dec.length);
+    for (let i = 0; i < dec.length; i++) y[i] = base - Math.max(-clip, Math.min(clip, (dec.v[i] / peak) * halfAmp));
+    const d = { t: dec.t, length: dropFlatRuns(dec.t, y, dec.length, inp.flatTolY) };
     push(parts.solid, d.t, y, d.length);
     if (inp.fill && d.length > 1) {
       if (inp.gl) {
@@ -124,17 +129,22 @@ function wiggles(inp: WiggleInput): PlotData[] {
         if (k) push(parts.hatch, lt, ly, k);
       } else {
         // Variable-area fill of the positive lobes: the positive envelope closed along the baseline.
+        // Runs along the baseline keep only their two ends (same polygon, far fewer points).
         const ly = new Float64Array(d.length + 2);
         const lt = new Float64Array(d.length + 2);
-        lt[0] = d.t[0];
-        ly[0] = base;
+        let k = 0;
+        lt[k] = d.t[0];
+        ly[k++] = base;
         for (let i = 0; i < d.length; i++) {
-          lt[i + 1] = d.t[i];
-          ly[i + 1] = Math.min(base, y[i]);
+          const yi = Math.min(base, y[i]);
+          const onBase = yi === base;
+          if (onBase && i > 0 && i + 1 < d.length && Math.min(base, y[i - 1]) === base && Math.min(base, y[i + 1]) === base) continue;
+          lt[k] = d.t[i];
+          ly[k++] = yi;
         }
-        lt[d.length + 1] = d.t[d.length - 1];
-        ly[d.length + 1] = base;
-        push(parts.lobes, lt, ly, d.length + 2);
+        lt[k] = d.t[d.length - 1];
+        ly[k++] = base;
+        push(parts.lobes, lt, ly, k);
       }
     }
   }
@@ -155,6 +165,18 @@ function wiggles(inp: WiggleInput): PlotData[] {
     out.push({ type, mode: 'lines', x: flat(parts.dashed, 0), y: flat(parts.dashed, 1), line: { width: 1, color: '#52606d', dash: 'dash' }, hoverinfo: 'skip', name: 'second direction', connectgaps: false });
   }
   return out;
+}
+
+/**
+ * At most a third of a screen pixel in depth units (the plot shows the depths plus one trace step each
+ * side), rounded down to a power of two so that small changes of the board's height (a message bar
+ * appearing) do not decimate and draw the traces again.
+ */
+function flatTolerance(depths: number[], stepDisp: number, plotHeightPx: number): number {
+  if (!depths.length || !(plotHeightPx > 0)) return 0;
+  const span = Math.max(...depths) - Math.min(...depths) + 2 * stepDisp;
+  const tol = span / plotHeightPx / 3;
+  return tol > 0 && Number.isFinite(tol) ? 2 ** Math.floor(Math.log2(tol)) : 0;
 }
 
 /** The chosen interval whose two stations are both on the board and bracket the pointer's depth. */
@@ -179,8 +201,12 @@ export function TraceBoard() {
   const view = useApp((s) => s.view);
   const units = useUnits();
   const derived = useDerived();
+  // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw the board.
+  const picks = derived?.picks;
+  const intervals = derived?.intervals;
   const [range, setRange] = useState<Range | null>(null);
   const [width, setWidth] = useState(900);
+  const [height, setHeight] = useState(600);
   const wrapRef = useRef<HTMLDivElement>(null);
   const divRef = useRef<HTMLDivElement | null>(null);
   const [drawMs, setDrawMs] = useState<number | null>(null);
@@ -202,11 +228,15 @@ export function TraceBoard() {
   useEffect(() => {
     const el = wrapRef.current;
     if (!el) return;
-    const ro = new ResizeObserver(() => setWidth(Math.max(200, el.clientWidth)));
+    const ro = new ResizeObserver(() => {
+      setWidth(Math.max(200, el.clientWidth));
+      setHeight(Math.max(100, el.clientHeight));
+    });
     ro.observe(el);
     return () => ro.disconnect();
   }, []);
 
+  const flatTolY = useMemo(() => flatTolerance(stations.map(depthOf), stepDisp, height - 48), [stations, depthOf, stepDisp, height]);
   const wiggleData = useMemo(() => {
     if (!shown || !stations.length) return [];
     const t0 = performance.now();
@@ -214,6 +244,7 @@ export function TraceBoard() {
       stations,
       range: shown,
       columns: Math.max(100, width - 90),
+      flatTolY: flatTolY,
       stepDisp,
       depthOf,
       normalise: view.normalise,
@@ -226,14 +257,14 @@ export function TraceBoard() {
     });
     wiggleMs.current = performance.now() - t0;
     return out;
-  }, [stations, shown, width, stepDisp, depthOf, view.normalise, view.gain, view.fill, view.hitView, survey.kind, gl, colour]);
+  }, [stations, shown, width, flatTolY, stepDisp, depthOf, view.normalise, view.gain, view.fill, view.hitView, survey.kind, gl, colour]);
 
   const pickData = useMemo(() => {
-    if (!derived) return [];
+    if (!picks) return [];
     const groups = { auto: { x: [] as number[], y: [] as number[], text: [] as string[] }, edited: { x: [] as number[], y: [] as number[], text: [] as string[] }, excluded: { x: [] as number[], y: [] as number[], text: [] as string[] } };
     const excludedSet = new Set(edits.excludedStations);
     for (const s of stations) {
-      const p = pickFor(derived.picks, s.key, wave, view.editMethod);
+      const p = pickFor(picks, s.key, wave, view.editMethod);
       if (!p) continue;
       const origin = excludedSet.has(stationWaveKey(s.key, wave)) ? 'excluded' : p.origin;
       groups[origin].x.push(p.timeS * 1000);
@@ -245,13 +276,13 @@ export function TraceBoard() {
       { type: 'scatter', mode: 'markers', name: 'edited picks', x: groups.edited.x, y: groups.edited.y, customdata: groups.edited.text, marker: { symbol: 'circle', size: 10, color: colour, line: { width: 2, color: COLOURS.rim } }, hoverinfo: 'skip' },
       { type: 'scatter', mode: 'markers', name: 'excluded picks', x: groups.excluded.x, y: groups.excluded.y, customdata: groups.excluded.text, marker: { symbol: 'x-thin-open', size: 7, color: COLOURS.muted, line: { width: 1.5, color: COLOURS.muted } }, hoverinfo: 'skip' },
     ] as PlotData[];
-  }, [derived, stations, wave, view.editMethod, depthOf, colour, edits.excludedStations]);
+  }, [picks, stations, wave, view.editMethod, depthOf, colour, edits.excludedStations]);
 
+  const [bandTopM, bandBottomM] = hoveredBand(intervals, view.hoveredInterval);
   const layout = useMemo(() => {
     const shapes: Record<string, unknown>[] = [];
-    const hovered = view.hoveredInterval ? derived?.intervals.find((r) => r.key === view.hoveredInterval) : undefined;
-    if (hovered) {
-      shapes.push({ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, hovered.topM), y1: disp('depth', units, hovered.bottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' });
+    if (bandTopM !== null && bandBottomM !== null) {
+      shapes.push({ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' });
     }
     const sel = stations.find((s) => s.key === view.selectedStation);
     if (sel) {
@@ -270,9 +301,31 @@ export function TraceBoard() {
       yaxis: { title: { text: `Depth (${label('depth', units)})` }, range: [yMax, yMin], zeroline: false, gridcolor: COLOURS.grid },
       shapes,
     };
-  }, [view.hoveredInterval, view.selectedStation, view.tool, derived, stations, depthOf, stepDisp, units, shown, wave, receiver, colour]);
+  }, [bandTopM, bandBottomM, view.selectedStation, view.tool, stations, depthOf, stepDisp, units, shown, wave, receiver, colour]);
 
-  const data = useMemo(() => [...wiggleData, ...pickData], [wiggleData, pickData]);
+  // The pick markers sit on an overlay plot with the same axes: a pick edit redraws only the markers,
+  // never the wiggles (Plotly recomputes every trace of a plot when any trace's data changes).
+  const [axes, setAxes] = useState<{ x: number[]; y: number[] } | null>(null);
+  const syncAxes = () => {
+    const fl = (divRef.current as unknown as { _fullLayout?: { xaxis: { range: number[] }; yaxis: { range: number[] } } } | null)?._fullLayout;
+    if (!fl) return;
+    const next = { x: [...fl.xaxis.range], y: [...fl.yaxis.range] };
+    setAxes((a) => (a && a.x[0] === next.x[0] && a.x[1] === next.x[1] && a.y[0] === next.y[0] && a.y[1] === next.y[1] ? a : next));
+  };
+  const overlayLayout = useMemo(() => {
+    const x = axes?.x ?? (layout.xaxis as { range?: number[] }).range;
+    const y = axes?.y ?? (layout.yaxis as { range?: number[] }).range;
+    const hidden = { visible: false, fixedrange: true, zeroline: false, showgrid: false };
+    return {
+      ...BASE_LAYOUT,
+      paper_bgcolor: 'rgba(0,0,0,0)',
+      plot_bgcolor: 'rgba(0,0,0,0)',
+      margin: layout.margin,
+      dragmode: false,
+      xaxis: { ...hidden, range: x },
+      yaxis: { ...hidden, range: y },
+    };
+  }, [axes, layout]);
 
   // Pick tool: click places a pick on the nearest trace, dragging moves it; one undo step per gesture.
   useEffect(() => {
@@ -430,20 +483,27 @@ export function TraceBoard() {
       </div>
       <div className="board-plot" ref={wrapRef} data-tool={view.tool}>
         {stations.length ? (
-          <Plot
-            name="trace-board"
-            data={data}
-            layout={layout}
-            config={{ doubleClick: 'reset' }}
-            onReady={(d) => (divRef.current = d)}
-            onDrawn={setDrawMs}
-            onRelayout={(e) => {
-              if (e['xaxis.autorange']) setRange(null);
-              else if (typeof e['xaxis.range[0]'] === 'number' && typeof e['xaxis.range[1]'] === 'number') {
-                setRange({ t0S: (e['xaxis.range[0]'] as number) / 1000, t1S: (e['xaxis.range[1]'] as number) / 1000 });
-              }
-            }}
-          />
+          <>
+            <Plot
+              name="trace-board"
+              data={wiggleData}
+              layout={layout}
+              config={BOARD_CONFIG}
+              onReady={(d) => (divRef.current = d)}
+              onDrawn={(ms) => {
+                setDrawMs(ms);
+                syncAxes();
+              }}
+              onRelayout={(e) => {
+                if (e['xaxis.autorange']) setRange(null);
+                else if (typeof e['xaxis.range[0]'] === 'number' && typeof e['xaxis.range[1]'] === 'number') {
+                  setRange({ t0S: (e['xaxis.range[0]'] as number) / 1000, t1S: (e['xaxis.range[1]'] as number) / 1000 });
+                }
+                syncAxes();
+              }}
+            />
+            <Plot name="trace-board-picks" data={pickData} layout={overlayLayout} config={OVERLAY_CONFIG} className="plot overlay" />
+          </>
         ) : (
           <div className="empty">
             {running ? 'Preparing the working traces…' : 'No traces yet: load waveform files or open the demo survey, then give each record a depth in Geometry.'}

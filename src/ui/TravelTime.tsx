@@ -7,7 +7,7 @@ import { useDerived } from '../state/derived';
 import { useApp, useResults } from '../state/store';
 import { effectiveReceiver } from './picks';
 import { METHOD_WORDS } from './picks';
-import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
+import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, type PlotData } from './plot';
 import { disp, fmt, label, useUnits } from './units';
 
 export function TravelTime() {
@@ -19,44 +19,48 @@ export function TravelTime() {
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
   const stations = useResults((s) => s.prepared?.stations);
   const receiver = effectiveReceiver(stations ?? [], wave, view.receiver);
-  const rows = useMemo(() => (d ? d.travelTimes.filter((r) => r.wave === wave && r.times[method] && (receiver === '*' || r.receiver === receiver)) : []), [d, wave, method, receiver]);
+  // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw this plot.
+  const travelTimes = d?.travelTimes;
+  const layerFits = d?.layerFits;
+  const intervals = d?.intervals;
+  const rows = useMemo(() => (travelTimes ? travelTimes.filter((r) => r.wave === wave && r.times[method] && (receiver === '*' || r.receiver === receiver)) : []), [travelTimes, wave, method, receiver]);
 
   const data = useMemo(() => {
     const out: PlotData[] = [];
     const y = rows.map((r) => disp('depth', units, r.depthM));
     out.push({ type: 'scatter', mode: 'markers', name: 'time', x: rows.map((r) => r.times[method]!.timeS * 1000), y, marker: { symbol: 'circle-open', size: 7, color: colour, line: { width: 1.5 } }, hoverinfo: 'skip' });
     out.push({ type: 'scatter', mode: 'markers', name: 'slant-corrected time', x: rows.map((r) => r.times[method]!.correctedS * 1000), y, marker: { symbol: 'circle', size: 6, color: colour, line: { width: 1, color: COLOURS.rim } }, hoverinfo: 'skip' });
-    for (const f of d?.layerFits ?? []) {
+    for (const f of layerFits ?? []) {
       if (f.wave !== wave || f.method !== method) continue;
       const inLayer = rows.filter((r) => r.depthM >= f.topM - 1e-9 && r.depthM <= f.bottomM + 1e-9);
       if (inLayer.length < 2) continue;
-      // The least-squares line passes through the centroid of its points; slope 1/V (core's fit).
-      const pBar = inLayer.reduce((a, r) => a + r.pathM, 0) / inLayer.length;
-      const tBar = inLayer.reduce((a, r) => a + r.times[method]!.timeS, 0) / inLayer.length;
+      // The core's fitted line: time = interceptS + pathM / velocityMps, at each station of the layer.
       out.push({
         type: 'scatter',
         mode: 'lines',
         name: `fit ${f.topM}-${f.bottomM}`,
-        x: inLayer.map((r) => (tBar + (r.pathM - pBar) / f.velocityMps) * 1000),
+        x: inLayer.map((r) => (f.interceptS + r.pathM / f.velocityMps) * 1000),
         y: inLayer.map((r) => disp('depth', units, r.depthM)),
         line: { color: COLOURS.rim, width: 1.5 },
         hoverinfo: 'skip',
       });
     }
     return out;
-  }, [rows, d, wave, method, units, colour]);
+  }, [rows, layerFits, wave, method, units, colour]);
 
+  const [bandTopM, bandBottomM] = hoveredBand(intervals, view.hoveredInterval);
   const layout = useMemo(() => {
-    const hovered = view.hoveredInterval ? d?.intervals.find((r) => r.key === view.hoveredInterval) : undefined;
-    const fits = (d?.layerFits ?? []).filter((f) => f.wave === wave && f.method === method);
+    const fits = (layerFits ?? []).filter((f) => f.wave === wave && f.method === method);
     return {
       ...BASE_LAYOUT,
+      uirevision: 'travel-time',
       margin: { l: 48, r: 8, t: 8, b: 34 },
       xaxis: { title: { text: 'Time (ms)' }, zeroline: false, gridcolor: COLOURS.grid, side: 'bottom' },
       yaxis: { title: { text: `Depth (${label('depth', units)})` }, autorange: 'reversed', zeroline: false, gridcolor: COLOURS.grid },
-      shapes: hovered
-        ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, hovered.topM), y1: disp('depth', units, hovered.bottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
-        : [],
+      shapes:
+        bandTopM !== null && bandBottomM !== null
+          ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
+          : [],
       annotations: fits.map((f) => ({
         xref: 'paper',
         x: 0.99,
@@ -69,7 +73,7 @@ export function TravelTime() {
         bgcolor: 'rgba(255,255,255,0.8)',
       })),
     };
-  }, [view.hoveredInterval, d, wave, method, units]);
+  }, [bandTopM, bandBottomM, layerFits, wave, method, units]);
 
   return (
     <section className="strip-pane" aria-label="Travel time">
@@ -77,7 +81,7 @@ export function TravelTime() {
       <div className="pane-note">
         {METHOD_WORDS[method]} picks, {wave} wave{receiver !== '*' && receiver !== 'R' ? `, receiver ${receiver}` : ''}: ○ time after trigger · ● slant-corrected · lines: layer fits
       </div>
-      <Plot name="travel-time" data={data} layout={layout} className="plot small" />
+      <Plot name="travel-time" data={data} layout={layout} className="plot small" defer />
     </section>
   );
 }

@@ -77,3 +77,23 @@ export function mean(samples: ArrayLike<number>): number {
   for (let i = 0; i < samples.length; i++) s += samples[i];
   return samples.length ? s / samples.length : 0;
 }
+
+/**
+ * Drops the inner points of flat runs: a point is left out when it and the next point both lie within
+ * tol of the last point kept, so the drawn line is never more than tol away from the decimated one
+ * (tol is a fraction of a pixel in data units). Compacts t and y in place; returns the new length.
+ */
+export function dropFlatRuns(t: Float64Array, y: Float64Array, n: number, tol: number): number {
+  if (n <= 2 || !(tol > 0)) return n;
+  let k = 1;
+  let last = y[0];
+  for (let i = 1; i < n - 1; i++) {
+    if (Math.abs(y[i] - last) < tol && Math.abs(y[i + 1] - last) < tol) continue;
+    t[k] = t[i];
+    y[k++] = y[i];
+    last = y[i];
+  }
+  t[k] = t[n - 1];
+  y[k++] = y[n - 1];
+  return k;
+}

@@ -8,6 +8,16 @@ let cached: boolean | null = null;
 
 export function hardwareWebgl(): boolean {
   if (cached !== null) return cached;
+  const t0 = performance.now();
+  try {
+    return probe();
+  } finally {
+    // When and how long the check ran (read by the e2e measurements).
+    document.documentElement.dataset.webglCheck = `${t0.toFixed(0)}+${(performance.now() - t0).toFixed(0)}`;
+  }
+}
+
+function probe(): boolean {
   try {
     const canvas = document.createElement('canvas');
     const gl = (canvas.getContext('webgl') ?? canvas.getContext('experimental-webgl')) as WebGLRenderingContext | null;
@@ -20,4 +30,11 @@ export function hardwareWebgl(): boolean {
     cached = false;
   }
   return cached;
+}
+
+/** Runs the check when the page is idle, so the first large board does not pay for a WebGL context. */
+export function warmHardwareWebgl(): void {
+  const idle = (globalThis as { requestIdleCallback?: (f: () => void) => number }).requestIdleCallback;
+  if (idle) idle(() => void hardwareWebgl());
+  else setTimeout(() => void hardwareWebgl(), 500);
 }

@@ -11,6 +11,12 @@ export type PlotLayout = Record<string, unknown>;
 /** Plot divs by name, for Export ("each plot as PNG/SVG"). */
 export const plotRegistry = new Map<string, HTMLDivElement>();
 
+/**
+ * Overlay plots drawn over a base plot (e.g. the pick markers over the Trace board wiggles, so a pick
+ * edit redraws only the markers): base name -> overlay name. Export draws both as one figure.
+ */
+export const OVERLAYS: Record<string, string> = { 'trace-board': 'trace-board-picks' };
+
 export const PLOT_NAMES: Record<string, string> = {
   'trace-board': 'Trace board',
   'pair-check': 'Pair check',
@@ -27,6 +33,7 @@ export const COLOURS = {
   grid: '#e4e7eb',
   band: 'rgba(253, 224, 71, 0.32)',
   select: 'rgba(15, 118, 110, 0.08)',
+  compare: '#7b8794',
 };
 
 export const BASE_LAYOUT: PlotLayout = {
@@ -54,9 +61,14 @@ interface PlotProps {
   onRelayout?: (ev: Record<string, unknown>) => void;
   /** Milliseconds the last draw took (for the measurements). */
   onDrawn?: (ms: number) => void;
+  /**
+   * Draw on the next frame instead of at once, keeping only the latest data (the bottom strip, so the
+   * Profile shows a pick edit first and a drag does not queue redraws).
+   */
+  defer?: boolean;
 }
 
-export function Plot({ name, data, layout, config, className, onReady, onRelayout, onDrawn }: PlotProps) {
+export function Plot({ name, data, layout, config, className, onReady, onRelayout, onDrawn, defer }: PlotProps) {
   const ref = useRef<HTMLDivElement>(null);
   const relayoutRef = useRef(onRelayout);
   relayoutRef.current = onRelayout;
@@ -70,26 +82,55 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
   }, [name]);
   useEffect(() => {
     const div = ref.current!;
-    const t0 = performance.now();
     let alive = true;
-    void Plotly.react(div, data as never, layout as never, { ...PLOT_CONFIG, ...(config ?? {}) } as never).then(() => {
-      if (!alive) return;
-      const ms = performance.now() - t0;
-      onDrawn?.(ms);
-      div.dataset.lastDrawMs = ms.toFixed(0);
-      div.dataset.drawn = String(Number(div.dataset.drawn ?? '0') + 1);
-      const d = div as unknown as { on?: (ev: string, f: (e: Record<string, unknown>) => void) => void; __bwRelayout?: boolean };
-      if (!d.__bwRelayout && d.on) {
-        d.__bwRelayout = true;
-        d.on('plotly_relayout', (e) => relayoutRef.current?.(e));
-      }
-      onReady?.(div);
-    });
+    const draw = () => {
+      const t0 = performance.now();
+      const drawing = Plotly.react(div, data as never, layout as never, { ...PLOT_CONFIG, ...(config ?? {}) } as never);
+      div.dataset.startedAt = t0.toFixed(1);
+      div.dataset.syncMs = (performance.now() - t0).toFixed(1);
+      // The frame that shows this draw (its callback runs just before that frame is painted).
+      requestAnimationFrame(() => {
+        div.dataset.paintedAt = performance.now().toFixed(1);
+        div.dataset.painted = String(Number(div.dataset.painted ?? '0') + 1);
+      });
+      void drawing.then(() => {
+        // Counted even when a newer draw has started meanwhile: this one was on screen.
+        const ms = performance.now() - t0;
+        div.dataset.lastDrawMs = ms.toFixed(0);
+        div.dataset.drawn = String(Number(div.dataset.drawn ?? '0') + 1);
+        if (!alive) return;
+        onDrawn?.(ms);
+        const d = div as unknown as { on?: (ev: string, f: (e: Record<string, unknown>) => void) => void; __bwRelayout?: boolean };
+        if (!d.__bwRelayout && d.on) {
+          d.__bwRelayout = true;
+          d.on('plotly_relayout', (e) => relayoutRef.current?.(e));
+        }
+        onReady?.(div);
+      });
+    };
+    if (!defer) {
+      draw();
+      return () => {
+        alive = false;
+      };
+    }
+    // A timer rather than a frame callback: it runs after the frame that shows the Profile.
+    const timer = setTimeout(draw, 0);
     return () => {
       alive = false;
+      clearTimeout(timer);
     };
-  }, [data, layout, config]);
+  }, [data, layout, config, defer]);
   return <div ref={ref} className={className ?? 'plot'} data-plot={name} />;
+}
+
+/**
+ * Top and bottom (m) of the hovered interval, as plain numbers so a layout that draws the band changes
+ * only when the band moves (not on every new result).
+ */
+export function hoveredBand(intervals: readonly { key: string; topM: number; bottomM: number }[] | undefined, key: string | null): [number | null, number | null] {
+  const r = key ? intervals?.find((x) => x.key === key) : undefined;
+  return r ? [r.topM, r.bottomM] : [null, null];
 }
 
 /** Pixel -> data conversion from Plotly's laid-out axes (x, y of the main subplot). */
@@ -120,5 +161,14 @@ interface Axis {
 export function downloadPlot(name: string, format: 'png' | 'svg', fileName: string): Promise<unknown> {
   const div = plotRegistry.get(name);
   if (!div) return Promise.reject(new Error(`${PLOT_NAMES[name] ?? name} is not on screen.`));
-  return Plotly.downloadImage(div as never, { format, filename: fileName, width: div.clientWidth || 900, height: div.clientHeight || 600 } as never);
+  const size = { format, filename: fileName, width: div.clientWidth || 900, height: div.clientHeight || 600 };
+  const over = OVERLAYS[name] ? plotRegistry.get(OVERLAYS[name]) : undefined;
+  if (over) {
+    // Base and overlay as one figure, with the axes as the user sees them.
+    const base = div as unknown as { data: PlotData[]; layout: PlotLayout; _fullLayout: { xaxis: { range: number[] }; yaxis: { range: number[] } } };
+    const top = over as unknown as { data: PlotData[] };
+    const layout = { ...base.layout, xaxis: { ...(base.layout.xaxis as object), range: [...base._fullLayout.xaxis.range] }, yaxis: { ...(base.layout.yaxis as object), range: [...base._fullLayout.yaxis.range] } };
+    return Plotly.downloadImage({ data: [...base.data, ...top.data], layout } as never, size as never);
+  }
+  return Plotly.downloadImage(div as never, size as never);
 }
