@@ -321,13 +321,31 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
   return { rows, velocity };
 }
 
-function siteSummary(velocity: readonly VelocityInterval[], settings: Settings, monteCarlo: boolean): SiteSummary {
-  const ivs = velocity.filter((v) => v.vsMps > 0).map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps, vsSdMps: v.vsSdMps }));
-  const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.vs30Rule) : null;
-  const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.siteAnswers)) : [];
-  const uncertainty = ivs.length && monteCarlo
+type SiteInterval = { topM: number; bottomM: number; vsMps: number; vsSdMps: number };
+
+function siteIntervals(rows: readonly SiteInterval[]): SiteInterval[] {
+  return rows.filter((v) => v.vsMps > 0).map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps, vsSdMps: v.vsSdMps }));
+}
+
+function spreadOf(ivs: SiteInterval[], settings: Settings): SiteUncertainty | null {
+  return ivs.length
     ? siteUncertainty(ivs, { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed, toDepthM: 30, rule: settings.vs30Rule, answers: settings.siteAnswers })
     : null;
+}
+
+/**
+ * The Monte Carlo spread of Vs30 and class probabilities for a result derived with monteCarlo: false
+ * (the UI computes it when the user pauses); the same figures derive() gives with monteCarlo on.
+ */
+export function siteSpread(derived: Derived, settings: Settings): SiteUncertainty | null {
+  return derived.site.vs30 ? spreadOf(siteIntervals(derived.profile), settings) : null;
+}
+
+function siteSummary(velocity: readonly VelocityInterval[], settings: Settings, monteCarlo: boolean): SiteSummary {
+  const ivs = siteIntervals(velocity);
+  const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.vs30Rule) : null;
+  const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.siteAnswers)) : [];
+  const uncertainty = monteCarlo ? spreadOf(ivs, settings) : null;
   return { vs30, classes, uncertainty, cautions: [...SITE_CAUTIONS] };
 }
 

@@ -10,14 +10,13 @@
  */
 import { useDeferredValue } from 'react';
 import { create } from 'zustand';
-import { derive, type Derived } from '../core/pipeline';
+import { derive, siteSpread, type Derived } from '../core/pipeline';
 import { toErrorInfo } from '../core/errors';
 import type { Survey } from '../core/model';
 import type { Settings, UserEdits } from '../core/settings';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
 import type { ComparisonProfile } from '../core/stiffness/comparison';
-import { siteUncertainty } from '../core/stiffness/montecarlo';
 import { useApp, useResults } from './store';
 
 type Inputs = [Survey, Prepared | null, AutoPickResult | null, UserEdits, Settings, ComparisonProfile | null];
@@ -41,15 +40,14 @@ export let lastSpreadMs = 0;
 export const useSpread = create<{ revision: number; pending: boolean }>(() => ({ revision: 0, pending: false }));
 
 /**
- * The Vs30 spread for a result computed without it: siteUncertainty over the profile's intervals with
- * the site settings, exactly the arguments of the core's siteSummary (pipeline.ts).
+ * The Vs30 spread for a result computed without it (the core's siteSpread: the same figures as
+ * derive() with the Monte Carlo on).
  */
 function withSpread(fast: Derived, settings: Settings): Derived {
-  const ivs = fast.profile.filter((r) => r.vsMps > 0).map((r) => ({ topM: r.topM, bottomM: r.bottomM, vsMps: r.vsMps, vsSdMps: r.vsSdMps }));
-  if (!ivs.length || !fast.site.vs30) return fast;
+  if (!fast.site.vs30) return fast;
   const t0 = performance.now();
   try {
-    const uncertainty = siteUncertainty(ivs, { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed, toDepthM: 30, rule: settings.vs30Rule, answers: settings.siteAnswers });
+    const uncertainty = siteSpread(fast, settings);
     return { ...fast, site: { ...fast.site, uncertainty } };
   } catch (e) {
     return { ...fast, issues: [...fast.issues, toErrorInfo(e, 'site spread')] };

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { runPipeline } from '../../src/core/pipeline';
+import { derive, runPipeline, siteSpread } from '../../src/core/pipeline';
 import { demoCrossholeGeometry, demoCrossholeOptions, demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
 import type { ComparisonProfile } from '../../src/core/stiffness/comparison';
 import { defaultSettings, emptyEdits } from '../../src/core/settings';
@@ -15,5 +15,17 @@ describe('comparison profile from another test', () => {
     expect(out.derived.comparison!.vs30!.vsMps).toBeCloseTo(237.99, 2);
     const diffs = out.derived.comparison!.differences.map((d) => Math.abs(d.differencePct)).sort((a, b) => a - b);
     expect(diffs[Math.floor(diffs.length / 2)]).toBeLessThan(3);
+  });
+});
+
+
+describe('site spread computed later equals the one derive() computes at once', () => {
+  it('siteSpread(derive(..., {monteCarlo:false})) === derive(...).site.uncertainty (same seed, same draws)', () => {
+    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), demoCrossholeOptions());
+    const s = defaultSettings();
+    const first = runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: s, edits: emptyEdits() });
+    const fast = derive(res.survey, first.prepared, first.auto, emptyEdits(), s, { monteCarlo: false });
+    expect(fast.site.uncertainty).toBeNull();
+    expect(siteSpread(fast, s)).toEqual(first.derived.site.uncertainty);
   });
 });
