@@ -4,7 +4,7 @@
  * images, the project archive, a printable summary).
  */
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
-import { intervalsTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
+import { intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
 import type { Vs30RuleSetting } from '../core/settings';
 import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
@@ -166,10 +166,13 @@ export function ExportSheet() {
   const [error, setError] = useState<string | null>(null);
   const base = safeBaseName(name);
   const ready = !!(d && prepared);
-  const csv = (kind: 'picks' | 'intervals' | 'profile') => {
+  const units = useUnits();
+  const csv = (kind: 'picks' | 'intervals' | 'profile' | 'layers') => {
     const full = settledDerived();
     if (!full || !prepared) return;
-    const table = kind === 'picks' ? picksTable(prepared.stations, full) : kind === 'intervals' ? intervalsTable(full) : profileTable(full);
+    // Columns carry the unit of the system the user works in (vs_mps or vs_ftps ...).
+    const table =
+      kind === 'picks' ? picksTable(prepared.stations, full, units) : kind === 'intervals' ? intervalsTable(full, units) : kind === 'layers' ? layersTable(full, units) : profileTable(full, units);
     download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
   };
   const plot = (p: string, f: 'png' | 'svg') => {
@@ -188,6 +191,9 @@ export function ExportSheet() {
         </button>
         <button disabled={!ready} onClick={() => csv('profile')}>
           Profile with stiffness (CSV)
+        </button>
+        <button disabled={!ready} onClick={() => csv('layers')}>
+          Layer fits: straight-line and refracted-ray (CSV)
         </button>
         <button disabled={!ready} onClick={() => {
             const full = settledDerived();

@@ -22,6 +22,7 @@ export function TravelTime() {
   // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw this plot.
   const travelTimes = d?.travelTimes;
   const layerFits = d?.layerFits;
+  const layerModel = d?.layerModel;
   const intervals = d?.intervals;
   const rows = useMemo(() => (travelTimes ? travelTimes.filter((r) => r.wave === wave && r.times[method] && (receiver === '*' || r.receiver === receiver)) : []), [travelTimes, wave, method, receiver]);
 
@@ -61,25 +62,33 @@ export function TravelTime() {
         bandTopM !== null && bandBottomM !== null
           ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
           : [],
-      annotations: fits.map((f) => ({
+      annotations: fits.map((f) => {
+        // The refracted-ray layer model (onset times, S) beside the straight-line fit, when it has this layer.
+        const ray = wave === 'S' && method === 'onset' ? layerModel?.layers.find((l) => Math.abs(l.topM - f.topM) < 1e-6 && Math.abs(l.bottomM - f.bottomM) < 1e-6) : undefined;
+        const text = ray
+          ? `line ${fmt('velocity', units, f.velocityMps)} · ray ${fmt('velocity', units, ray.velocityMps)} ${label('velocity', units)}`
+          : `${fmt('velocity', units, f.velocityMps)} ${label('velocity', units)}`;
+        return {
         xref: 'paper',
         x: 0.99,
         xanchor: 'right',
         yref: 'y',
         y: disp('depth', units, (f.topM + f.bottomM) / 2),
-        text: `${fmt('velocity', units, f.velocityMps)} ${label('velocity', units)}`,
+        text,
         showarrow: false,
         font: { size: 10, color: COLOURS.rim },
         bgcolor: 'rgba(255,255,255,0.8)',
-      })),
+        };
+      }),
     };
-  }, [bandTopM, bandBottomM, layerFits, wave, method, units]);
+  }, [bandTopM, bandBottomM, layerFits, layerModel, wave, method, units]);
 
   return (
     <section className="strip-pane" aria-label="Travel time">
       <h2>Travel time</h2>
       <div className="pane-note">
         {METHOD_WORDS[method]} picks, {wave} wave{receiver !== '*' && receiver !== 'R' ? `, receiver ${receiver}` : ''}: ○ time after trigger · ● slant-corrected · lines: layer fits
+        {layerModel && wave === 'S' && method === 'onset' ? ` (line = straight slant paths; ray = refracted rays, RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)` : ''}
       </div>
       <Plot name="travel-time" data={data} layout={layout} className="plot small" defer />
     </section>
