@@ -428,6 +428,20 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
         <input type="checkbox" checked={settings.rayFit} onChange={(e) => updateSettings({ rayFit: e.target.checked })} /> Refracted-ray layer fit (downhole)
       </label>
       <label>
+        Layer boundaries for the travel-time fits ({label('depth', units)}, comma separated; empty = soil layers){' '}
+        <Field
+          width={24}
+          ariaLabel="Layer boundaries"
+          placeholder="soil layers"
+          value={settings.layerBoundariesM.map((z) => fmt('depth', units, z, 2)).join(', ')}
+          onCommit={(t) => {
+            const parts = t.split(/[,;\s]+/).filter(Boolean).map((x) => parseDisplay('depth', units, x));
+            if (parts.some((x) => x === null || x < 0)) return;
+            updateSettings({ layerBoundariesM: [...new Set(parts as number[])].sort((a, b) => a - b) });
+          }}
+        />
+      </label>
+      <label>
         Flag when methods differ by more than <NumField value={Math.round(settings.methodDisagreementShare * 100)} onCommit={(x) => updateSettings({ methodDisagreementShare: x / 100 })} /> %
       </label>
     </div>
