@@ -228,7 +228,14 @@ function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Set
 /** Direct times of receiver stations in depth order, with the one-sigma uncertainty of each time difference from the station above. */
 function directTimesFor(stations: readonly Station[], pairs: readonly StationPair[], picks: readonly Pick[], delays: readonly PairDelay[], method: IntervalMethod): { station: Station; timeS: number; timeSdS: number }[] {
   const list = stations.filter((s) => s.wave === 'S').sort((a, b) => a.depthM - b.depthM);
-  const pickOf = (s: Station, m: EditablePickMethod) => picks.find((p) => p.stationKey === s.key && p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === m);
+  const pickIndex = new Map<string, Pick>();
+  for (const p of picks) {
+    const m = editableMethodOf(p);
+    if (p.wave === 'S' && p.origin !== 'excluded' && m && !pickIndex.has(`${p.stationKey}|${m}`)) pickIndex.set(`${p.stationKey}|${m}`, p);
+  }
+  const pickOf = (s: Station, m: EditablePickMethod) => pickIndex.get(`${s.key}|${m}`);
+  const pairInto = new Map(pairs.filter((q) => q.wave === 'S').map((q) => [q.b.key, q]));
+  const delayOf = new Map(delays.filter((x) => x.method === method).map((x) => [x.pairKey, x]));
   if (method === 'xcorr' || method === 'phase') {
     const out: { station: Station; timeS: number; timeSdS: number }[] = [];
     let t: number | null = null;
@@ -241,8 +248,8 @@ function directTimesFor(stations: readonly Station[], pairs: readonly StationPai
           sd = p.uncertaintyS;
         }
       } else {
-        const pr = pairs.find((q) => q.b.key === s.key && q.wave === 'S');
-        const d = pr && delays.find((x) => x.pairKey === pr.key && x.method === method);
+        const pr = pairInto.get(s.key);
+        const d = pr && delayOf.get(pr.key);
         if (!d) break;
         t += d.delayS;
         sd = d.uncertaintyS;
@@ -273,8 +280,9 @@ function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], d
     sourceDepthM: survey.sourceDepthM,
   });
   if (!result) return { result: null, byPair };
+  const pairByEnds = new Map(prepared.pairs.filter((p) => p.wave === 'S').map((p) => [`${p.a.key}>${p.b.key}`, p]));
   for (let j = 1; j < direct.length; j++) {
-    const pr = prepared.pairs.find((p) => p.wave === 'S' && p.a.key === direct[j - 1].station.key && p.b.key === direct[j].station.key);
+    const pr = pairByEnds.get(`${direct[j - 1].station.key}>${direct[j].station.key}`);
     const layer = result.layers[j];
     if (!pr || layer.outOfOrder || !(layer.pathInLayerM > 0)) continue;
     const v = layer.velocityMps;
