@@ -1,6 +1,7 @@
 /**
  * `cli profile <project.zip|folder> --out <dir> [--method <m>] [--units SI|US] [--strict]`: runs the pipeline on a
- * project and writes picks.csv, intervals.csv, profile.csv, layers.csv and site.json. Problems with single items
+ * project and writes picks.csv, intervals.csv, profile.csv, layers.csv, site.json and, for crosshole,
+ * direct.csv (source-to-receiver velocities). Problems with single items
  * (a missing file, a record with no depth) are listed on stderr and the rest still computes; an
  * unreadable project exits 2 with a one-line reason; --strict also exits 3 when any problem was listed.
  */
@@ -10,7 +11,7 @@ import { toErrorInfo } from '../core/errors';
 import { readProjectArchive, validateProjectDocument, type OpenedProject } from '../core/io/archive';
 import { loadProject } from '../core/io/project';
 import { runPipeline } from '../core/pipeline';
-import { intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core/report/tables';
+import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core/report/tables';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
 import type { CliIo } from './inspect';
 import type { UnitSystem } from '../core/units';
@@ -80,12 +81,13 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
   writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
   writeFileSync(join(out, 'layers.csv'), toCsv(layersTable(result.derived, units)));
+  if (project.survey.kind === 'crosshole') writeFileSync(join(out, 'direct.csv'), toCsv(directTable(result.derived, units)));
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
   const v = result.derived.site.vs30;
   io.stdout.write(
     `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.profileMethod}), ` +
       (v ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m` : 'no time-averaged Vs') +
-      `; wrote picks.csv, intervals.csv, profile.csv, layers.csv, site.json to ${out}\n`,
+      `; wrote picks.csv, intervals.csv, profile.csv, layers.csv, ${project.survey.kind === 'crosshole' ? 'direct.csv, ' : ''}site.json to ${out}\n`,
   );
   return strict && issues.length ? 3 : 0;
 }

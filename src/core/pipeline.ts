@@ -15,7 +15,7 @@ import { autoPickSurvey, type AutoPickResult } from './picking/autopick';
 import { buildStations, type Station } from './survey/stations';
 import { horizontalDistanceM } from './survey/geometry';
 import { delayRequests, intervalValues, pairStations, type IntervalValue, type StationPair } from './velocity/intervals';
-import { correctedTimeS, fitLine } from './velocity/formulas';
+import { correctedTimeS, fitLine, intervalVelocitySdMps } from './velocity/formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './velocity/rayfit';
 import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
 import { defaultSoilColumn, validateSoilColumn } from './stiffness/stress';
@@ -53,6 +53,48 @@ export function autoPick(prepared: Prepared, settings: Settings, onProgress?: (d
     },
     onProgress,
   );
+}
+
+export interface DirectVelocity {
+  stationKey: string;
+  receiver: string;
+  wave: Wave;
+  depthM: number;
+  pathM: number;
+  timeS: number;
+  velocityMps: number | null;
+  velocitySdMps: number | null;
+  flags: string[];
+}
+
+/**
+ * Crosshole direct velocities V = D / (t - t0) with D the 3-D source-receiver distance (deviation
+ * surveys) and t0 the trigger delay (ASTM D4428/D4428M). Checks the interval values: a source hole
+ * delay or a trigger offset shows up as near-hole direct velocities that disagree with the far hole's.
+ */
+function directVelocities(survey: Survey, stations: readonly Station[], picks: readonly Pick[], settings: Settings): DirectVelocity[] {
+  if (survey.kind !== 'crosshole') return [];
+  const onset = new Map<string, Pick>();
+  for (const p of picks) if (p.origin !== 'excluded' && editableMethodOf(p) === 'onset') onset.set(stationWaveKey(p.stationKey, p.wave), p);
+  const out: DirectVelocity[] = [];
+  for (const s of stations) {
+    const p = onset.get(stationWaveKey(s.key, s.wave));
+    if (!p) continue;
+    const dt = p.timeS - settings.triggerDelayS;
+    const flags = [...p.flags];
+    let v: number | null = null;
+    let sd: number | null = null;
+    if (!(dt > 0)) flags.push('non-positive time');
+    else {
+      v = s.straightPathM / dt;
+      sd = intervalVelocitySdMps(v, s.straightPathM, Math.SQRT2 * settings.positionSdM, dt, p.uncertaintyS);
+      const range = s.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+      if (v < range[0]) flags.push('slow?');
+      if (v > range[1]) flags.push('fast?');
+    }
+    out.push({ stationKey: s.key, receiver: s.receiver, wave: s.wave, depthM: s.depthM, pathM: s.straightPathM, timeS: p.timeS, velocityMps: v, velocitySdMps: sd, flags });
+  }
+  return out;
 }
 
 /** One row of the travel-time view: direct times at one station. */
@@ -100,6 +142,8 @@ export interface Derived {
   intervals: IntervalValue[];
   profile: ProfileRow[];
   travelTimes: TravelTimeRow[];
+  /** Crosshole: direct source-to-receiver velocities, V = D / (t - t0) (ASTM D4428), from the onset picks. */
+  direct: DirectVelocity[];
   layerFits: LayerFit[];
   rayFit: RayFitResult | null;
   /** Downhole: S layer velocities over the chosen layers from the onset times with refracted rays. */
@@ -462,6 +506,7 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
     intervals,
     profile,
     travelTimes,
+    direct: directVelocities(survey, prepared.stations, picks, settings),
     layerFits: layerFits(survey, travelTimes, settings, 'onset'),
     rayFit: ray.result,
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),

@@ -44,6 +44,8 @@ export interface Settings {
   methodDisagreementShare: number;
   /** Downhole: also fit layer velocities to the direct times with refracted (Snell's law) rays. */
   rayFit: boolean;
+  /** Crosshole direct velocities: trigger delay t0 subtracted from the picks, s (V = D / (t - t0), ASTM D4428). */
+  triggerDelayS: number;
   /** One-sigma uncertainty of each receiver/source position, m (enters the path-length uncertainty). */
   positionSdM: number;
   /** Depths of layer boundaries for travel-time regressions (user-chosen layers); empty = soil layers. */
@@ -76,6 +78,7 @@ export function defaultSettings(): Settings {
     profileMethod: 'xcorr',
     methodDisagreementShare: 0.1,
     rayFit: true,
+    triggerDelayS: 0,
     positionSdM: 0.02,
     layerBoundariesM: [],
     vs30Rule: 'no-extrapolation',

@@ -110,6 +110,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     intervals: [],
     profile: [],
     travelTimes: [],
+    direct: [],
     layerFits: [],
     rayFit: null,
     layerModel: null,

@@ -119,6 +119,15 @@ export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
   return { columns, rows };
 }
 
+/** Crosshole direct velocities (source to each receiver), one row per station. */
+export function directTable(d: Derived, system: UnitSystem = 'SI'): Table {
+  const u = unitColumn(system);
+  const columns = ['station', 'receiver', 'wave', u.name('depth', 'depth'), u.name('path', 'depth'), 'time_ms', u.name('velocity', 'velocity'), u.name('velocity_sd', 'velocity'), 'flags'];
+  const rows: Cell[][] = d.direct.map((r) => [r.stationKey, r.receiver, r.wave, u.value('depth', r.depthM, 3), u.value('depth', r.pathM, 4), ms(r.timeS),
+    u.value('velocity', r.velocityMps, 2), u.value('velocity', r.velocitySdMps, 2), r.flags.join('; ')]);
+  return { columns, rows };
+}
+
 /** site.json: shape agreed in the site-class issue. */
 export function siteJson(d: Derived, settings: Settings): Record<string, unknown> {
   const v = d.site.vs30;
