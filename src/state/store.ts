@@ -147,7 +147,8 @@ export function commit(change: (s: Snapshot) => Partial<Snapshot>, notice?: stri
       past: [...s.past, snapshot(s)].slice(-HISTORY_LIMIT),
       future: [],
       revision: s.revision + 1,
-      view: notice === undefined ? s.view : { ...s.view, notice },
+      // The same view object when the notice is unchanged, so panes that read the view do not re-render.
+      view: notice === undefined || notice === s.view.notice ? s.view : { ...s.view, notice },
     };
   });
 }

@@ -2,9 +2,11 @@
  * The one window: top bar, Records (left), Trace board or Geometry (centre), Profile (right, always
  * visible) with the Site and Export sheets over it, and the bottom strip with Pair check and Travel time.
  */
-import { useEffect, useRef } from 'react';
-import type { Wave } from '../core/model';
-import type { EditablePickMethod } from '../core/settings';
+import { memo, useDeferredValue, useEffect, useRef } from 'react';
+import type { Derived } from '../core/pipeline';
+import type { UnitSystem } from '../core/units';
+import type { Survey, Wave } from '../core/model';
+import type { EditablePickMethod, Settings } from '../core/settings';
 import { STANDARD_NAMES } from '../core/stiffness/site';
 import { EXPORT_CAUTIONS } from '../core/report/tables';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
@@ -278,10 +280,15 @@ function Messages() {
 
 /** Shown only when printing (print stylesheet): survey, settings, profile table, site class, cautions. */
 function PrintSummary() {
-  const d = useDerived();
+  // Deferred: an edit re-renders this hidden summary after the frame that shows the Profile.
+  const d = useDeferredValue(useDerived());
   const survey = useApp((s) => s.survey);
   const settings = useApp((s) => s.settings);
   const units = useUnits();
+  return <PrintBody d={d} survey={survey} settings={settings} units={units} />;
+}
+
+const PrintBody = memo(function PrintBody({ d, survey, settings, units }: { d: Derived | null; survey: Survey; settings: Settings; units: UnitSystem }) {
   const v = label('velocity', units);
   const dep = label('depth', units);
   return (
@@ -347,10 +354,15 @@ function PrintSummary() {
       </ul>
     </div>
   );
-}
+});
 
 export function App() {
-  const view = useApp((s) => s.view);
+  // Only the fields the frame needs: the panes read the rest themselves, so an edit does not re-render all.
+  const recordsOpen = useApp((s) => s.view.recordsOpen);
+  const centre = useApp((s) => s.view.centre);
+  const sheet = useApp((s) => s.view.sheet);
+  const helpOpen = useApp((s) => s.view.helpOpen);
+  const view = { recordsOpen, centre, sheet, helpOpen };
   useEffect(() => {
     window.addEventListener('keydown', handleKey);
     warmHardwareWebgl();

@@ -71,21 +71,23 @@ export function ProfilePlot() {
     const g = stepLine(rows, (r) => r.gmaxKpa, units, 'modulus');
     const vs1 = stepLine(rows, (r) => r.vs1Mps, units, 'velocity');
     const withVp = rows.filter((r) => r.vpMps !== null && Number.isFinite(r.vpMps));
+    // The one-sigma bars are drawn without a marker at their centre (mode 'none'): Plotly styles every
+    // marker on each redraw, which made the markers most of the time a pick edit took to show here.
     const out: PlotData[] = [
       { type: 'scatter', mode: 'lines', name: 'Vs', x: vs.x, y: vs.y, line: { color: COLOURS.S, width: 2 }, hoverinfo: 'skip' },
       {
-        type: 'scatter', mode: 'markers', name: 'Vs ± 1 sd', x: rows.map((r) => disp('velocity', units, r.vsMps)), y: mid,
-        marker: { symbol: 'circle', size: 5, color: COLOURS.S }, error_x: { type: 'data', array: rows.map((r) => disp('velocity', units, r.vsSdMps)), color: COLOURS.S, thickness: 1, width: 3 }, hoverinfo: 'skip',
+        type: 'scatter', mode: 'none', name: 'Vs ± 1 sd', x: rows.map((r) => disp('velocity', units, r.vsMps)), y: mid,
+        error_x: { type: 'data', array: rows.map((r) => disp('velocity', units, r.vsSdMps)), color: COLOURS.S, thickness: 1, width: 3 }, hoverinfo: 'skip',
       },
       { type: 'scatter', mode: 'lines', name: 'Vp', x: vp.x, y: vp.y, line: { color: COLOURS.P, width: 1.6, dash: 'dash' }, hoverinfo: 'skip' },
       {
-        type: 'scatter', mode: 'markers', name: 'Vp ± 1 sd', x: withVp.map((r) => disp('velocity', units, r.vpMps!)), y: withVp.map((r) => disp('depth', units, r.midM)),
-        marker: { symbol: 'diamond-open', size: 5, color: COLOURS.P }, error_x: { type: 'data', array: withVp.map((r) => (r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0)), color: COLOURS.P, thickness: 1, width: 3 }, hoverinfo: 'skip',
+        type: 'scatter', mode: 'none', name: 'Vp ± 1 sd', x: withVp.map((r) => disp('velocity', units, r.vpMps!)), y: withVp.map((r) => disp('depth', units, r.midM)),
+        error_x: { type: 'data', array: withVp.map((r) => (r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0)), color: COLOURS.P, thickness: 1, width: 3 }, hoverinfo: 'skip',
       },
       { type: 'scatter', mode: 'lines', name: 'Gmax', x: g.x, y: g.y, xaxis: 'x2', line: { color: COLOURS.ink, width: 1.6 }, hoverinfo: 'skip' },
       {
-        type: 'scatter', mode: 'markers', name: 'Gmax ± 1 sd', x: rows.map((r) => disp('modulus', units, r.gmaxKpa)), y: mid, xaxis: 'x2',
-        marker: { size: 4, color: COLOURS.ink }, error_x: { type: 'data', array: rows.map((r) => disp('modulus', units, r.gmaxSdKpa)), color: COLOURS.ink, thickness: 1, width: 2 }, hoverinfo: 'skip',
+        type: 'scatter', mode: 'none', name: 'Gmax ± 1 sd', x: rows.map((r) => disp('modulus', units, r.gmaxKpa)), y: mid, xaxis: 'x2',
+        error_x: { type: 'data', array: rows.map((r) => disp('modulus', units, r.gmaxSdKpa)), color: COLOURS.ink, thickness: 1, width: 2 }, hoverinfo: 'skip',
       },
       { type: 'scatter', mode: 'lines', name: 'Vs1', x: vs1.x, y: vs1.y, xaxis: 'x3', line: { color: '#52606d', width: 1.6 }, hoverinfo: 'skip' },
     ];
@@ -188,6 +190,7 @@ const IntervalRow = memo(
         <td>{p.bottom}</td>
         {p.showCompare && <td data-col="compare" className="cmp">{p.compare?.other ?? '–'}</td>}
         {p.showCompare && <td data-col="difference" className="cmp">{p.compare?.diff ?? '–'}</td>}
+        <td className="flags">{p.flags}</td>
         {p.cells.map((c) => (
           <td key={c.method} className={c.chosen ? 'chosen' : ''} data-method={c.method}>
             {c.chosen ? '● ' : ''}
@@ -219,7 +222,6 @@ const IntervalRow = memo(
             {p.excluded ? 'use' : 'omit'}
           </button>
         </td>
-        <td className="flags">{p.flags}</td>
       </tr>
     );
   },
@@ -288,13 +290,14 @@ export function IntervalsTable() {
               <th>Bottom ({dep})</th>
               {showCompare && <th className="cmp" title="Travel-time average of the compared profile over the interval">Compared ({v})</th>}
               {showCompare && <th className="cmp" title="(compared - used) / used Vs of the interval">Diff. (%)</th>}
+              {/* Flags before the method columns so they stay in view in the narrow Profile pane. */}
+              <th className="text">Flags</th>
               {methods.map((m) => (
                 <th key={m} title={METHOD_WORDS[m]}>
                   {METHOD_SHORT[m]} ({v})
                 </th>
               ))}
               <th>Used</th>
-              <th>Flags</th>
             </tr>
           </thead>
           <tbody>

@@ -24,6 +24,9 @@ import { hardwareWebgl } from './gl';
 /** Above this many traces the wiggles are drawn with WebGL (scattergl) when the GPU does the drawing. */
 export const WEBGL_TRACE_THRESHOLD = 40;
 
+/** Excluded-pick cross: a grey dark enough to see on the wiggles, still clearly not a pick colour. */
+const EXCLUDED_GREY = '#616e7c';
+
 const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
 const BOARD_CONFIG = { doubleClick: 'reset' };
 const OVERLAY_CONFIG = { staticPlot: true, responsive: true };
@@ -274,7 +277,7 @@ export function TraceBoard() {
     return [
       { type: 'scatter', mode: 'markers', name: 'auto picks', x: groups.auto.x, y: groups.auto.y, customdata: groups.auto.text, marker: { symbol: 'circle-open', size: 10, color: colour, line: { width: 2, color: colour } }, hoverinfo: 'skip' },
       { type: 'scatter', mode: 'markers', name: 'edited picks', x: groups.edited.x, y: groups.edited.y, customdata: groups.edited.text, marker: { symbol: 'circle', size: 10, color: colour, line: { width: 2, color: COLOURS.rim } }, hoverinfo: 'skip' },
-      { type: 'scatter', mode: 'markers', name: 'excluded picks', x: groups.excluded.x, y: groups.excluded.y, customdata: groups.excluded.text, marker: { symbol: 'x-thin-open', size: 7, color: COLOURS.muted, line: { width: 1.5, color: COLOURS.muted } }, hoverinfo: 'skip' },
+      { type: 'scatter', mode: 'markers', name: 'excluded picks', x: groups.excluded.x, y: groups.excluded.y, customdata: groups.excluded.text, marker: { symbol: 'x-thin-open', size: 9, color: EXCLUDED_GREY, line: { width: 2, color: EXCLUDED_GREY } }, hoverinfo: 'skip' },
     ] as PlotData[];
   }, [picks, stations, wave, view.editMethod, depthOf, colour, edits.excludedStations]);
 
@@ -502,7 +505,7 @@ export function TraceBoard() {
                 syncAxes();
               }}
             />
-            <Plot name="trace-board-picks" data={pickData} layout={overlayLayout} config={OVERLAY_CONFIG} className="plot overlay" />
+            <Plot name="trace-board-picks" data={pickData} layout={overlayLayout} config={OVERLAY_CONFIG} className="plot overlay" defer="data" />
           </>
         ) : (
           <div className="empty">

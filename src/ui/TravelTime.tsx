@@ -63,6 +63,9 @@ export function TravelTime() {
           ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
           : [],
       annotations: fits.map((f) => {
+        // Label on the side the times leave empty: a time-depth curve runs from top left to bottom
+        // right, so shallow layers are labelled at the right edge and deep (late) layers at the left.
+        const late = midTimeS(f) > 0.5 * Math.max(...fits.map((g) => midTimeS(g)));
         // The refracted-ray layer model (onset times, S) beside the straight-line fit, when it has this layer.
         const ray = wave === 'S' && method === 'onset' ? layerModel?.layers.find((l) => Math.abs(l.topM - f.topM) < 1e-6 && Math.abs(l.bottomM - f.bottomM) < 1e-6) : undefined;
         const text = ray
@@ -70,8 +73,8 @@ export function TravelTime() {
           : `${fmt('velocity', units, f.velocityMps)} ${label('velocity', units)}`;
         return {
         xref: 'paper',
-        x: 0.99,
-        xanchor: 'right',
+        x: late ? 0.01 : 0.99,
+        xanchor: late ? 'left' : 'right',
         yref: 'y',
         y: disp('depth', units, (f.topM + f.bottomM) / 2),
         text,
@@ -93,4 +96,9 @@ export function TravelTime() {
       <Plot name="travel-time" data={data} layout={layout} className="plot small" defer />
     </section>
   );
+}
+
+/** Time of a layer fit at the layer's mid-depth, s (vertical path; only to choose a label's side). */
+function midTimeS(f: { interceptS: number; topM: number; bottomM: number; velocityMps: number }): number {
+  return f.interceptS + (0.5 * (f.topM + f.bottomM)) / f.velocityMps;
 }

@@ -63,15 +63,18 @@ interface PlotProps {
   onDrawn?: (ms: number) => void;
   /**
    * Draw on the next frame instead of at once, keeping only the latest data (the bottom strip, so the
-   * Profile shows a pick edit first and a drag does not queue redraws).
+   * Profile shows a pick edit first and a drag does not queue redraws). 'data': only when the data
+   * changed and the layout did not (the Trace board's pick markers: they follow an edit one frame after
+   * the Profile, but follow a zoom or pan of the board in the same frame).
    */
-  defer?: boolean;
+  defer?: boolean | 'data';
 }
 
 export function Plot({ name, data, layout, config, className, onReady, onRelayout, onDrawn, defer }: PlotProps) {
   const ref = useRef<HTMLDivElement>(null);
   const relayoutRef = useRef(onRelayout);
   relayoutRef.current = onRelayout;
+  const drawnLayout = useRef<PlotLayout | null>(null);
   useEffect(() => {
     const div = ref.current!;
     plotRegistry.set(name, div);
@@ -108,17 +111,24 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
         onReady?.(div);
       });
     };
-    if (!defer) {
+    const later = defer === 'data' ? drawnLayout.current === layout : !!defer;
+    drawnLayout.current = layout;
+    if (!later) {
       draw();
       return () => {
         alive = false;
       };
     }
-    // A timer rather than a frame callback: it runs after the frame that shows the Profile.
-    const timer = setTimeout(draw, 0);
+    // A frame callback, then a timer: the timer runs after that frame is painted, so the frame that
+    // shows the Profile is not held back by these draws (a bare timer can run before the frame).
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const frame = requestAnimationFrame(() => {
+      timer = setTimeout(draw, 0);
+    });
     return () => {
       alive = false;
-      clearTimeout(timer);
+      cancelAnimationFrame(frame);
+      if (timer !== undefined) clearTimeout(timer);
     };
   }, [data, layout, config, defer]);
   return <div ref={ref} className={className ?? 'plot'} data-plot={name} />;
