@@ -221,11 +221,17 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
   });
 }
 
-/** Layer boundaries for fits: the user's, else the soil column's layer tops and bottom. */
-function layerBoundaries(survey: Survey, settings: Settings): number[] {
-  return settings.layerBoundariesM.length
-    ? [...settings.layerBoundariesM].sort((a, b) => a - b)
+/**
+ * Layer boundaries for fits: the user's, else the soil column's layer tops and bottom. The user's list
+ * is closed by the surface and the deepest station, so "5, 10" gives 0-5, 5-10 and 10-bottom layers.
+ */
+function layerBoundaries(survey: Survey, settings: Settings, deepestM: number): number[] {
+  const inner = settings.layerBoundariesM.length
+    ? settings.layerBoundariesM
     : survey.soil.layers.map((l) => l.topM).concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
+  const top = Math.min(0, ...inner);
+  const bottom = Math.max(deepestM, ...inner);
+  return [...new Set([top, ...inner, bottom])].sort((a, b) => a - b);
 }
 
 /** Refracted-ray layer model of the downhole S onset times over the chosen layers. */
@@ -237,13 +243,13 @@ function layerModelFor(survey: Survey, stations: readonly Station[], picks: read
     .map((s) => ({ z: s.receiverPos[2], t: onset.get(s.key)!, x: horizontalDistanceM(s.receiverPos, s.sourcePos) }))
     .sort((a, b) => a.z - b.z);
   if (pts.length < 3) return null;
-  return fitLayerModel({ depthsM: pts.map((p) => p.z), timesS: pts.map((p) => p.t), offsetsM: pts.map((p) => p.x), sourceDepthM: survey.sourceDepthM }, layerBoundaries(survey, settings));
+  return fitLayerModel({ depthsM: pts.map((p) => p.z), timesS: pts.map((p) => p.t), offsetsM: pts.map((p) => p.x), sourceDepthM: survey.sourceDepthM }, layerBoundaries(survey, settings, pts[pts.length - 1].z));
 }
 
 /** Travel time against path length, fitted per layer (user boundaries, else the soil layers). */
 function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Settings, method: EditablePickMethod): LayerFit[] {
   if (survey.kind === 'crosshole') return [];
-  const bounds = layerBoundaries(survey, settings);
+  const bounds = layerBoundaries(survey, settings, Math.max(0, ...rows.map((r) => r.depthM)));
   const fits: LayerFit[] = [];
   for (const wave of ['S', 'P'] as Wave[]) {
     const receiver = survey.kind === 'downhole-pair' ? 'upper' : undefined;

@@ -389,6 +389,34 @@ function BandField({ title, value, onChange }: { title: string; value: BandpassS
   );
 }
 
+/** Depths of the layers for the travel-time fits; a bad entry is refused with the reason shown. */
+function LayerBoundariesField({ settings, units }: { settings: Settings; units: UnitSystem }) {
+  const [problem, setProblem] = useState<string | null>(null);
+  return (
+    <label>
+      Layer boundaries for the travel-time fits ({label('depth', units)}, comma separated; empty = soil layers){' '}
+      <Field
+        width={24}
+        ariaLabel="Layer boundaries"
+        placeholder="soil layers"
+        value={settings.layerBoundariesM.map((z) => fmt('depth', units, z, 2)).join(', ')}
+        onCommit={(t) => {
+          const words = t.split(/[,;\s]+/).filter(Boolean);
+          const parts = words.map((x) => parseDisplay('depth', units, x));
+          const bad = words.find((_, i) => parts[i] === null || parts[i]! < 0);
+          if (bad !== undefined) {
+            setProblem(`"${bad}" is not a depth of zero or more; the boundaries were not changed.`);
+            return;
+          }
+          setProblem(null);
+          updateSettings({ layerBoundariesM: [...new Set(parts as number[])].sort((a, b) => a - b) });
+        }}
+      />
+      {problem && <span className="field-error" role="alert"> {problem}</span>}
+    </label>
+  );
+}
+
 function ProcessingFields({ settings, units }: { settings: Settings; units: UnitSystem }) {
   const v = label('velocity', units);
   const range = (which: 'vsRangeMps' | 'vpRangeMps', i: 0 | 1) => (
@@ -428,19 +456,10 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
         <input type="checkbox" checked={settings.rayFit} onChange={(e) => updateSettings({ rayFit: e.target.checked })} /> Refracted-ray layer fit (downhole)
       </label>
       <label>
-        Layer boundaries for the travel-time fits ({label('depth', units)}, comma separated; empty = soil layers){' '}
-        <Field
-          width={24}
-          ariaLabel="Layer boundaries"
-          placeholder="soil layers"
-          value={settings.layerBoundariesM.map((z) => fmt('depth', units, z, 2)).join(', ')}
-          onCommit={(t) => {
-            const parts = t.split(/[,;\s]+/).filter(Boolean).map((x) => parseDisplay('depth', units, x));
-            if (parts.some((x) => x === null || x < 0)) return;
-            updateSettings({ layerBoundariesM: [...new Set(parts as number[])].sort((a, b) => a - b) });
-          }}
-        />
+        Trigger delay t0 for crosshole direct velocities, V = D / (t − t0) (ms){' '}
+        <NumField value={settings.triggerDelayS * 1000} onCommit={(x) => updateSettings({ triggerDelayS: x / 1000 })} ariaLabel="Trigger delay" />
       </label>
+      <LayerBoundariesField settings={settings} units={units} />
       <label>
         Flag when methods differ by more than <NumField value={Math.round(settings.methodDisagreementShare * 100)} onCommit={(x) => updateSettings({ methodDisagreementShare: x / 100 })} /> %
       </label>

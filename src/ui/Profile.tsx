@@ -407,6 +407,10 @@ export function ProfilePane() {
         <button onClick={() => setView({ sheet: 'export' })}>Export…</button>
       </div>
       <ComparisonControl />
+      <div className="pane-note" aria-label="Profile legend">
+        <span style={{ color: COLOURS.S }}>━ Vs</span> · <span style={{ color: COLOURS.P }}>╍ Vp</span>
+        {d?.comparison ? <> · <span style={{ color: COLOURS.compare }}>╍ compared profile</span></> : null} · bars ±1 sd
+      </div>
       <ProfilePlot />
       <IntervalsTable />
       <p className="caution-line">Results need review by a qualified professional before use; local codes govern.</p>

@@ -4,7 +4,7 @@
  * images, the project archive, a printable summary).
  */
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
-import { intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
+import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
 import type { Vs30RuleSetting } from '../core/settings';
 import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
@@ -167,12 +167,17 @@ export function ExportSheet() {
   const base = safeBaseName(name);
   const ready = !!(d && prepared);
   const units = useUnits();
-  const csv = (kind: 'picks' | 'intervals' | 'profile' | 'layers') => {
+  const surveyKind = useApp((s) => s.survey.kind);
+  const csv = (kind: 'picks' | 'intervals' | 'profile' | 'layers' | 'direct') => {
     const full = settledDerived();
     if (!full || !prepared) return;
     // Columns carry the unit of the system the user works in (vs_mps or vs_ftps ...).
     const table =
-      kind === 'picks' ? picksTable(prepared.stations, full, units) : kind === 'intervals' ? intervalsTable(full, units) : kind === 'layers' ? layersTable(full, units) : profileTable(full, units);
+      kind === 'picks' ? picksTable(prepared.stations, full, units)
+      : kind === 'intervals' ? intervalsTable(full, units)
+      : kind === 'layers' ? layersTable(full, units)
+      : kind === 'direct' ? directTable(full, units)
+      : profileTable(full, units);
     download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
   };
   const plot = (p: string, f: 'png' | 'svg') => {
@@ -195,6 +200,11 @@ export function ExportSheet() {
         <button disabled={!ready} onClick={() => csv('layers')}>
           Layer fits: straight-line and refracted-ray (CSV)
         </button>
+        {surveyKind === 'crosshole' && (
+          <button disabled={!ready} onClick={() => csv('direct')}>
+            Direct velocities, source to each receiver (CSV)
+          </button>
+        )}
         <button disabled={!ready} onClick={() => {
             const full = settledDerived();
             if (full) download(`${base}-site.json`, JSON.stringify(siteJson(full, settings), null, 2), 'application/json');

@@ -29,3 +29,16 @@ describe('site spread computed later equals the one derive() computes at once', 
     expect(siteSpread(fast, s)).toEqual(first.derived.site.uncertainty);
   });
 });
+
+describe('user layer boundaries are closed by the surface and the deepest station', () => {
+  it('"5, 10" gives straight-line fits 0-5, 5-10 and 10-bottom, and a refracted-ray model of the same three layers', () => {
+    const model = demoEarthModel();
+    const res = synthesizeSurvey(model, { kind: 'downhole', holeId: 'DH1', depthsM: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14], sourceOffsetM: 2 }, {
+      seed: 4, sampleIntervalS: 5e-5, samplesPerTrace: 3000, sFrequencyHz: 100, pFrequencyHz: 400, attenuation: false, snr: null, maxTriggerDelayS: 0,
+    });
+    const out = runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: { ...defaultSettings(), layerBoundariesM: [5, 10] }, edits: emptyEdits() });
+    const s = out.derived.layerFits.filter((f) => f.wave === 'S').map((f) => [f.topM, f.bottomM]);
+    expect(s).toEqual([[0, 5], [5, 10], [10, 14]]);
+    expect(out.derived.layerModel!.layers.map((l) => [l.topM, l.bottomM])).toEqual([[0, 5], [5, 10], [10, 14]]);
+  });
+});
