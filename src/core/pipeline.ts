@@ -486,6 +486,13 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
   const picks = effectivePicks(prepared.stations, auto.picks, edits);
   const excluded = new Set(edits.excludedStations);
   const pairs = prepared.pairs.filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)));
+  // Say what an exclusion costs: the intervals that touched the station leave the profile.
+  for (const key of edits.excludedStations) {
+    const lost = prepared.pairs.filter((p) => stationWaveKey(p.a.key, p.wave) === key || stationWaveKey(p.b.key, p.wave) === key);
+    if (!lost.length) continue;
+    const spans = lost.map((p) => `${p.topM}-${p.bottomM} m`).join(', ');
+    issues.push({ code: 'STATION_EXCLUDED', message: `Station ${key.replace('|', ' (')}) is excluded: its ${lost.length === 1 ? 'interval' : 'intervals'} ${spans} ${lost.length === 1 ? 'is' : 'are'} left out of the profile.`, file: key, field: 'excluded' });
+  }
   const picksByStation = new Map<string, Pick[]>();
   for (const p of picks) {
     if (p.origin === 'excluded') continue;

@@ -129,3 +129,17 @@ describe('crosshole direct velocities V = D / (t - t0) (ASTM D4428/D4428M)', () 
     expect(b.velocityMps!).toBeCloseTo(a.pathM / (a.timeS - 0.001), 6);
   });
 });
+
+describe('excluding a station says which intervals leave the profile', () => {
+  it('one excluded depth removes the two intervals around it and names them', () => {
+    const res = downhole([3, 4, 5, 6]);
+    const first = run(res);
+    const st = first.prepared.stations.find((s) => s.wave === 'S' && s.depthM === 4)!;
+    const edits = emptyEdits();
+    edits.excludedStations.push(`${st.key}|S`);
+    const d = derive(res.survey, first.prepared, first.auto, edits, defaultSettings());
+    const note = d.issues.find((i) => i.code === 'STATION_EXCLUDED')!;
+    expect(note.message).toContain('3-4 m, 4-5 m');
+    expect(d.profile.map((r) => r.topM)).toEqual([5]);
+  });
+});
