@@ -11,10 +11,10 @@
 import { toErrorInfo, type ErrorInfo } from './errors';
 import type { PairDelay, Pick, Survey, Wave, WaveRecord } from './model';
 import { pickEditKey, stationWaveKey, type EditablePickMethod, type IntervalMethod, type Settings, type UserEdits } from './settings';
-import { autoPickSurvey, type AutoPickResult } from './picking/autopick';
+import { autoPickSurvey, pairDelays, type AutoPickResult, type PickingSettings } from './picking/autopick';
 import { buildStations, type Station } from './survey/stations';
 import { horizontalDistanceM } from './survey/geometry';
-import { delayRequests, intervalValues, pairStations, type IntervalValue, type StationPair } from './velocity/intervals';
+import { delayRequests, intervalValues, pairKey, pairStations, type IntervalValue, type StationPair } from './velocity/intervals';
 import { correctedTimeS, fitLine, intervalVelocitySdMps } from './velocity/formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './velocity/rayfit';
 import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
@@ -40,19 +40,51 @@ export function prepare(survey: Survey, records: ReadonlyMap<string, WaveRecord>
   return { stations, pairs, issues };
 }
 
+function pickingSettings(settings: Settings): PickingSettings {
+  return {
+    onsetMethod: settings.onsetMethod,
+    staS: settings.staS,
+    ltaS: settings.ltaS,
+    staLtaThreshold: settings.staLtaThreshold,
+    phaseBandHz: settings.phaseBandHz,
+  };
+}
+
 export function autoPick(prepared: Prepared, settings: Settings, onProgress?: (done: number, total: number) => void): AutoPickResult {
-  return autoPickSurvey(
-    prepared.stations.map((s) => s.working),
-    delayRequests(prepared.pairs, settings),
-    {
-      onsetMethod: settings.onsetMethod,
-      staS: settings.staS,
-      ltaS: settings.ltaS,
-      staLtaThreshold: settings.staLtaThreshold,
-      phaseBandHz: settings.phaseBandHz,
-    },
-    onProgress,
-  );
+  return autoPickSurvey(prepared.stations.map((s) => s.working), delayRequests(prepared.pairs, settings), pickingSettings(settings), onProgress);
+}
+
+/**
+ * Downhole (one receiver): when the user excludes a depth, the stations above and below it are paired
+ * directly, so the profile keeps a (longer) interval instead of a gap. Pick differences follow from
+ * the picks; the delays of the new pair are measured here (two traces, well under a millisecond).
+ */
+function bridgingPairs(survey: Survey, prepared: Prepared, excluded: ReadonlySet<string>, settings: Settings, issues: ErrorInfo[]): { pairs: StationPair[]; delays: PairDelay[] } {
+  const pairs: StationPair[] = [];
+  const delays: PairDelay[] = [];
+  if (survey.kind !== 'downhole' || !excluded.size) return { pairs, delays };
+  const existing = new Set(prepared.pairs.map((p) => p.key));
+  for (const wave of ['S', 'P'] as Wave[]) {
+    const kept = prepared.stations.filter((s) => s.wave === wave && !excluded.has(stationWaveKey(s.key, wave)));
+    const receivers = [...new Set(kept.map((s) => s.receiver))];
+    for (const r of receivers) {
+      const list = kept.filter((s) => s.receiver === r).sort((a, b) => a.depthM - b.depthM);
+      for (let i = 0; i + 1 < list.length; i++) {
+        const [a, b] = [list[i], list[i + 1]];
+        const key = pairKey(wave, a.key, b.key);
+        if (existing.has(key) || b.depthM - a.depthM < 1e-6) continue;
+        const pair: StationPair = { key, wave, kind: 'pseudo', a, b, topM: a.depthM, bottomM: b.depthM };
+        pairs.push(pair);
+        try {
+          const [req] = delayRequests([pair], settings);
+          for (const d of pairDelays(a.working, b.working, req, pickingSettings(settings))) delays.push({ ...d, flags: [...d.flags, 'bridges excluded station'] });
+        } catch (e) {
+          issues.push(toErrorInfo(e, key));
+        }
+      }
+    }
+  }
+  return { pairs, delays };
 }
 
 export interface DirectVelocity {
@@ -485,13 +517,20 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
   const issues: ErrorInfo[] = [...prepared.issues, ...(auto.problems ?? [])];
   const picks = effectivePicks(prepared.stations, auto.picks, edits);
   const excluded = new Set(edits.excludedStations);
-  const pairs = prepared.pairs.filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)));
-  // Say what an exclusion costs: the intervals that touched the station leave the profile.
+  const bridges = bridgingPairs(survey, prepared, excluded, settings, issues);
+  const pairs = prepared.pairs
+    .filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)))
+    .concat(bridges.pairs)
+    .sort((a, b) => (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.topM - b.topM || a.bottomM - b.bottomM);
+  const allDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
+  // Say what an exclusion costs: the intervals that touched the station leave the profile (or are bridged).
   for (const key of edits.excludedStations) {
     const lost = prepared.pairs.filter((p) => stationWaveKey(p.a.key, p.wave) === key || stationWaveKey(p.b.key, p.wave) === key);
     if (!lost.length) continue;
     const spans = lost.map((p) => `${p.topM}-${p.bottomM} m`).join(', ');
-    issues.push({ code: 'STATION_EXCLUDED', message: `Station ${key.replace('|', ' (')}) is excluded: its ${lost.length === 1 ? 'interval' : 'intervals'} ${spans} ${lost.length === 1 ? 'is' : 'are'} left out of the profile.`, file: key, field: 'excluded' });
+    const bridge = bridges.pairs.find((b) => lost.some((p) => p.a.key === b.a.key) && lost.some((p) => p.b.key === b.b.key));
+    const fate = bridge ? `replaced by ${bridge.topM}-${bridge.bottomM} m` : `left out of the profile`;
+    issues.push({ code: 'STATION_EXCLUDED', message: `Station ${key.replace('|', ' (')}) is excluded: ${lost.length === 1 ? 'interval' : 'intervals'} ${spans} ${lost.length === 1 ? 'is' : 'are'} ${fate}.`, file: key, field: 'excluded' });
   }
   const picksByStation = new Map<string, Pick[]>();
   for (const p of picks) {
@@ -499,8 +538,9 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
     picksByStation.set(p.stationKey, [...(picksByStation.get(p.stationKey) ?? []), p]);
   }
   const delaysByPair = new Map<string, PairDelay[]>();
-  for (const d of auto.delays) delaysByPair.set(d.pairKey, [...(delaysByPair.get(d.pairKey) ?? []), d]);
-  const ray = rayFitFor(survey, { ...prepared, pairs }, picks, auto.delays, settings);
+  for (const d of allDelays) delaysByPair.set(d.pairKey, [...(delaysByPair.get(d.pairKey) ?? []), d]);
+  const kept = prepared.stations.filter((st) => !excluded.has(stationWaveKey(st.key, st.wave)));
+  const ray = rayFitFor(survey, { ...prepared, stations: kept, pairs }, picks, allDelays, settings);
   const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity } = profileRows(survey, intervals, issues);
@@ -515,7 +555,7 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
   }
   return {
     picks,
-    delays: auto.delays,
+    delays: allDelays,
     intervals,
     profile,
     travelTimes,

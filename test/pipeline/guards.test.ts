@@ -130,8 +130,8 @@ describe('crosshole direct velocities V = D / (t - t0) (ASTM D4428/D4428M)', () 
   });
 });
 
-describe('excluding a station says which intervals leave the profile', () => {
-  it('one excluded depth removes the two intervals around it and names them', () => {
+describe('excluding a depth in a one-receiver downhole survey bridges it', () => {
+  it('the stations above and below are paired directly (3-5 m), measured by every method, and the note says so', () => {
     const res = downhole([3, 4, 5, 6]);
     const first = run(res);
     const st = first.prepared.stations.find((s) => s.wave === 'S' && s.depthM === 4)!;
@@ -139,7 +139,14 @@ describe('excluding a station says which intervals leave the profile', () => {
     edits.excludedStations.push(`${st.key}|S`);
     const d = derive(res.survey, first.prepared, first.auto, edits, defaultSettings());
     const note = d.issues.find((i) => i.code === 'STATION_EXCLUDED')!;
-    expect(note.message).toContain('3-4 m, 4-5 m');
-    expect(d.profile.map((r) => r.topM)).toEqual([5]);
+    expect(note.message).toContain('3-4 m, 4-5 m are replaced by 3-5 m');
+    expect(d.profile.map((r) => [r.topM, r.bottomM])).toEqual([[3, 5], [5, 6]]);
+    const bridge = d.intervals.filter((r) => r.wave === 'S' && r.topM === 3 && r.bottomM === 5);
+    const xc = bridge.find((r) => r.method === 'xcorr')!;
+    expect(xc.flags).toContain('bridges excluded station');
+    // The bridged xcorr delay equals the sum of the two original delays within a sample (same traces, linear delays).
+    const d34 = first.auto.delays.find((x) => x.method === 'xcorr' && x.pairKey.includes('R@3.000') && x.pairKey.includes('R@4.000'))!.delayS;
+    const d45 = first.auto.delays.find((x) => x.method === 'xcorr' && x.pairKey.includes('R@4.000') && x.pairKey.includes('R@5.000'))!.delayS;
+    expect(Math.abs(xc.dtS! - (d34 + d45))).toBeLessThan(5e-5);
   });
 });
