@@ -8,7 +8,7 @@
  * whose time is not later than the layers above allow gets a ceiling velocity and the flag 'inverted
  * time' (its pick is out of order). The misfit reported is the RMS time residual.
  */
-import { traceRay, segmentsBetween, type VelocityLayer } from '../survey/rays';
+import { layeredRay, traceRay, segmentsBetween, type VelocityLayer } from '../survey/rays';
 
 export interface RayFitInput {
   /** Receiver depths, m, strictly increasing. */
@@ -82,10 +82,7 @@ export function fitLayersWithRays(input: RayFitInput, o: { maxIterations?: numbe
     }
   }
   const model: VelocityLayer[] = tops.map((t, j) => ({ topM: t, velocityMps: 1 / slowness[j] }));
-  const residualsS = depthsM.map((z, i) => {
-    const ray = traceRay(segmentsBetween(model, sourceDepthM, z), offsetsM[i], model[0].velocityMps);
-    return timesS[i] - ray.timeS;
-  });
+  const residualsS = depthsM.map((z, i) => timesS[i] - layeredRay(model, sourceDepthM, z, offsetsM[i]).timeS);
   const rms = Math.sqrt(residualsS.reduce((s, r) => s + r * r, 0) / n);
   return {
     layers: model.map((m, j) => ({ topM: tops[j], bottomM: depthsM[j], velocityMps: m.velocityMps, pathInLayerM: L[j * n + j], outOfOrder: outOfOrder[j] })),
@@ -209,7 +206,7 @@ export function fitLayerModel(input: RayFitInput, layerTopsM: number[], o: { max
     }
   }
   const model = buildL(slowness);
-  const residualsS = depthsM.map((z, i) => timesS[i] - traceRay(segmentsBetween(model, sourceDepthM, z), offsetsM[i], model[0].velocityMps).timeS);
+  const residualsS = depthsM.map((z, i) => timesS[i] - layeredRay(model, sourceDepthM, z, offsetsM[i]).timeS);
   const sse = residualsS.reduce((s, r) => s + r * r, 0);
   const variance = n > m ? sse / (n - m) : NaN;
   // Covariance of the slownesses: variance (L^T L)^-1; its diagonal by solving for unit vectors.
