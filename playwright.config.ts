@@ -13,12 +13,21 @@ export default defineConfig({
     viewport: { width: 1600, height: 1000 },
     launchOptions: {
       executablePath: chromium,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
-        '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+      args: [
+        '--headless',
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-quic',
+        '--no-first-run',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+      ],
     },
   },
   webServer: {
-    command: 'npx vite build && npx vite build --mode single && npx vite preview --host 127.0.0.1 --port 4173 --strictPort',
+    command:
+      'npx vite build && npx vite build --mode single && npx vite preview --host 127.0.0.1 --port 4173 --strictPort',
     url: 'http://127.0.0.1:4173',
     reuseExistingServer: false,
     timeout: 180_000,

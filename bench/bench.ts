@@ -14,7 +14,14 @@ import { autoPick, derive, prepare } from '../src/core/pipeline';
 import { analyseStation, pairDelays, pairDelaysFromAnalysis } from '../src/core/picking/autopick';
 import { defaultSettings, emptyEdits, type IntervalMethod } from '../src/core/settings';
 import { siteUncertainty } from '../src/core/stiffness/montecarlo';
-import { demoCrossholeGeometry, demoCrossholeOptions, demoEarthModel, synthesizeSurvey, toSeg2Input, type SynthResult } from '../src/core/synth';
+import {
+  demoCrossholeGeometry,
+  demoCrossholeOptions,
+  demoEarthModel,
+  synthesizeSurvey,
+  toSeg2Input,
+  type SynthResult,
+} from '../src/core/synth';
 
 const json = process.argv.includes('--json');
 const log = (s: string) => {
@@ -38,16 +45,20 @@ function quantile(xs: number[], q: number): number {
 
 function denseDownhole(attenuation: boolean): SynthResult {
   const depthsM = Array.from({ length: 350 }, (_, i) => Math.round((1 + i * 0.1) * 10) / 10);
-  return synthesizeSurvey(demoEarthModel(), { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM: 2 }, {
-    seed: attenuation ? 71 : 70,
-    sampleIntervalS: 5e-5,
-    samplesPerTrace: 4096,
-    sFrequencyHz: 100,
-    pFrequencyHz: 400,
-    attenuation,
-    snr: 25, // realistic field noise for a good hammer source (common practice)
-    maxTriggerDelayS: 0, // accuracy is of the picking; trigger jitter is a separate error
-  });
+  return synthesizeSurvey(
+    demoEarthModel(),
+    { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM: 2 },
+    {
+      seed: attenuation ? 71 : 70,
+      sampleIntervalS: 5e-5,
+      samplesPerTrace: 4096,
+      sFrequencyHz: 100,
+      pFrequencyHz: 400,
+      attenuation,
+      snr: 25, // realistic field noise for a good hammer source (common practice)
+      maxTriggerDelayS: 0, // accuracy is of the picking; trigger jitter is a separate error
+    },
+  );
 }
 
 function recordsMap(rs: WaveRecord[]): Map<string, WaveRecord> {
@@ -59,7 +70,10 @@ function traceCount(rs: WaveRecord[]): number {
 }
 
 /** True S travel time per station key, from the forward model's truth (mean over the station's hits). */
-function trueStationTimes(res: SynthResult, stationKeyOf: (recordId: string, channel: number) => string | null): Map<string, number> {
+function trueStationTimes(
+  res: SynthResult,
+  stationKeyOf: (recordId: string, channel: number) => string | null,
+): Map<string, number> {
   const sum = new Map<string, { t: number; n: number }>();
   for (const r of res.truth.records) {
     for (const c of r.channels) {
@@ -79,16 +93,33 @@ function runSurvey(label: string, res: SynthResult) {
   const records = recordsMap(res.records);
   const traces = traceCount(res.records);
   const mb = (traces * res.records[0].traces[0].samples.length * 4) / 1e6;
-  const io = time(() => res.records.map((r) => readSeg2(writeSeg2(toSeg2Input(r), { byteOrder: 'little', formatCode: 4 }), r.fileName)));
+  const io = time(() =>
+    res.records.map((r) => readSeg2(writeSeg2(toSeg2Input(r), { byteOrder: 'little', formatCode: 4 }), r.fileName)),
+  );
   const prep = time(() => prepare(res.survey, records, settings));
   const auto = time(() => autoPick(prep.value, settings));
   const der = time(() => derive(res.survey, prep.value, auto.value, emptyEdits(), settings));
-  log(`\n${label}: ${res.records.length} records, ${traces} traces (${mb.toFixed(1)} MB of float32 samples), ${prep.value.stations.length} stations, ${prep.value.pairs.length} pairs`);
-  log(`  write+read SEG-2  ${io.ms.toFixed(0).padStart(7)} ms  ${(traces / (io.ms / 1000)).toFixed(0).padStart(8)} traces/s  ${(mb / (io.ms / 1000)).toFixed(1)} MB/s`);
-  log(`  prepare           ${prep.ms.toFixed(0).padStart(7)} ms  ${(traces / (prep.ms / 1000)).toFixed(0).padStart(8)} traces/s`);
-  log(`  auto-pick         ${auto.ms.toFixed(0).padStart(7)} ms  ${(traces / (auto.ms / 1000)).toFixed(0).padStart(8)} traces/s  (target: 2,000-trace survey < 1,500 ms)`);
+  log(
+    `\n${label}: ${res.records.length} records, ${traces} traces (${mb.toFixed(1)} MB of float32 samples), ${prep.value.stations.length} stations, ${prep.value.pairs.length} pairs`,
+  );
+  log(
+    `  write+read SEG-2  ${io.ms.toFixed(0).padStart(7)} ms  ${(traces / (io.ms / 1000)).toFixed(0).padStart(8)} traces/s  ${(mb / (io.ms / 1000)).toFixed(1)} MB/s`,
+  );
+  log(
+    `  prepare           ${prep.ms.toFixed(0).padStart(7)} ms  ${(traces / (prep.ms / 1000)).toFixed(0).padStart(8)} traces/s`,
+  );
+  log(
+    `  auto-pick         ${auto.ms.toFixed(0).padStart(7)} ms  ${(traces / (auto.ms / 1000)).toFixed(0).padStart(8)} traces/s  (target: 2,000-trace survey < 1,500 ms)`,
+  );
   log(`  derive            ${der.ms.toFixed(1).padStart(7)} ms`);
-  return { prep: prep.value, auto: auto.value, derived: der.value, times: { io: io.ms, prepare: prep.ms, autoPick: auto.ms, derive: der.ms }, traces, mb };
+  return {
+    prep: prep.value,
+    auto: auto.value,
+    derived: der.value,
+    times: { io: io.ms, prepare: prep.ms, autoPick: auto.ms, derive: der.ms },
+    traces,
+    mb,
+  };
 }
 
 const METHODS: IntervalMethod[] = ['xcorr', 'phase', 'onset', 'peak', 'trough', 'zero-crossing'];
@@ -102,7 +133,17 @@ function accuracy(res: SynthResult, run: ReturnType<typeof runSurvey>, periodS: 
   };
   const truth = trueStationTimes(res, keyOf);
   const dt = res.records[0].traces[0].sampleIntervalS;
-  const out: Record<string, { medianErrMs: number; p90ErrMs: number; medianErrSamples: number; p90ErrSamples: number; cycleSkipShare: number; n: number }> = {};
+  const out: Record<
+    string,
+    {
+      medianErrMs: number;
+      p90ErrMs: number;
+      medianErrSamples: number;
+      p90ErrSamples: number;
+      cycleSkipShare: number;
+      n: number;
+    }
+  > = {};
   for (const m of METHODS) {
     const errs: number[] = [];
     let skips = 0;
@@ -151,7 +192,8 @@ function drift(run: ReturnType<typeof runSurvey>) {
     cum += e.xcorr - e.onset;
     points.push({ depthM: e.depth, cumulativeMs: cum * 1000 });
   }
-  const at = (z: number) => points.reduce((best, p) => (Math.abs(p.depthM - z) < Math.abs(best.depthM - z) ? p : best), points[0]);
+  const at = (z: number) =>
+    points.reduce((best, p) => (Math.abs(p.depthM - z) < Math.abs(best.depthM - z) ? p : best), points[0]);
   return { points: [5, 10, 20, 30].map((z) => at(z)), flaggedShare: flagged / Math.max(1, n) };
 }
 
@@ -161,8 +203,21 @@ function pairDelayMs(run: ReturnType<typeof runSurvey>): { inSurveyMs: number; w
   const a = s[100].working;
   const b = s[110].working;
   const settings = defaultSettings();
-  const req = { pairKey: 'bench', wave: 'S' as const, a: a.stationKey, b: b.stationKey, minDelayS: 0.0005, maxDelayS: 0.02 };
-  const pick = { onsetMethod: settings.onsetMethod, staS: settings.staS, ltaS: settings.ltaS, staLtaThreshold: settings.staLtaThreshold, phaseBandHz: null };
+  const req = {
+    pairKey: 'bench',
+    wave: 'S' as const,
+    a: a.stationKey,
+    b: b.stationKey,
+    minDelayS: 0.0005,
+    maxDelayS: 0.02,
+  };
+  const pick = {
+    onsetMethod: settings.onsetMethod,
+    staS: settings.staS,
+    ltaS: settings.ltaS,
+    staLtaThreshold: settings.staLtaThreshold,
+    phaseBandHz: null,
+  };
   const aa = analyseStation(a, pick);
   const bb = analyseStation(b, pick);
   for (let i = 0; i < 50; i++) pairDelays(a, b, req, pick);
@@ -178,9 +233,20 @@ function pairDelayMs(run: ReturnType<typeof runSurvey>): { inSurveyMs: number; w
 
 function perEdit() {
   // 60 depths, 1 m steps: the per-edit path (derive: intervals, profile, stiffness, Vs30, Monte Carlo).
-  const res = synthesizeSurvey(demoEarthModel(), { kind: 'downhole', holeId: 'DH1', depthsM: Array.from({ length: 60 }, (_, i) => 1 + i * 0.5), sourceOffsetM: 2 }, {
-    seed: 5, sampleIntervalS: 5e-5, samplesPerTrace: 4096, sFrequencyHz: 100, pFrequencyHz: 400, attenuation: true, snr: 25, maxTriggerDelayS: 1e-4,
-  });
+  const res = synthesizeSurvey(
+    demoEarthModel(),
+    { kind: 'downhole', holeId: 'DH1', depthsM: Array.from({ length: 60 }, (_, i) => 1 + i * 0.5), sourceOffsetM: 2 },
+    {
+      seed: 5,
+      sampleIntervalS: 5e-5,
+      samplesPerTrace: 4096,
+      sFrequencyHz: 100,
+      pFrequencyHz: 400,
+      attenuation: true,
+      snr: 25,
+      maxTriggerDelayS: 1e-4,
+    },
+  );
   const settings = defaultSettings();
   const prep = prepare(res.survey, recordsMap(res.records), settings);
   const auto = autoPick(prep, settings);
@@ -195,9 +261,20 @@ function perEdit() {
     runs.push(time(() => derive(res.survey, prep, auto, edits, settings)).ms);
     runsNoMc.push(time(() => derive(res.survey, prep, auto, edits, settings, { monteCarlo: false })).ms);
   }
-  const ivs = Array.from({ length: 60 }, (_, i) => ({ topM: i * 0.5, bottomM: (i + 1) * 0.5, vsMps: 150 + 5 * i, vsSdMps: 10 }));
-  const mc = time(() => siteUncertainty(ivs, { draws: 10000, seed: 1, toDepthM: 30, rule: 'no-extrapolation', answers: {} }));
-  return { deriveMedianMs: quantile(runs, 0.5), deriveWithoutMcMedianMs: quantile(runsNoMc, 0.5), monteCarlo60Ms: mc.ms };
+  const ivs = Array.from({ length: 60 }, (_, i) => ({
+    topM: i * 0.5,
+    bottomM: (i + 1) * 0.5,
+    vsMps: 150 + 5 * i,
+    vsSdMps: 10,
+  }));
+  const mc = time(() =>
+    siteUncertainty(ivs, { draws: 10000, seed: 1, toDepthM: 30, rule: 'no-extrapolation', answers: {} }),
+  );
+  return {
+    deriveMedianMs: quantile(runs, 0.5),
+    deriveWithoutMcMedianMs: quantile(runsNoMc, 0.5),
+    monteCarlo60Ms: mc.ms,
+  };
 }
 
 const clean = denseDownhole(false);
@@ -205,7 +282,9 @@ const cleanRun = runSurvey('Downhole, attenuation off', clean);
 const acc = accuracy(clean, cleanRun, 1 / 100);
 log('  accuracy of S interval delays against the model (attenuation off):');
 for (const [m, a] of Object.entries(acc)) {
-  log(`    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms (${a.medianErrSamples.toFixed(2)} samples)  p90 ${a.p90ErrMs.toFixed(4)} ms (${a.p90ErrSamples.toFixed(2)} samples)  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%  n=${a.n}`);
+  log(
+    `    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms (${a.medianErrSamples.toFixed(2)} samples)  p90 ${a.p90ErrMs.toFixed(4)} ms (${a.p90ErrSamples.toFixed(2)} samples)  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%  n=${a.n}`,
+  );
 }
 const att = denseDownhole(true);
 const attRun = runSurvey('Downhole, attenuation on', att);
@@ -213,18 +292,32 @@ const accAtt = accuracy(att, attRun, 1 / 100);
 const dr = drift(attRun);
 log('  with attenuation: cumulative (xcorr - onset) interval time against depth (pulse broadening):');
 for (const p of dr.points) log(`    to ${p.depthM.toFixed(1)} m: ${p.cumulativeMs.toFixed(3)} ms`);
-log(`    intervals flagged "methods differ": ${(dr.flaggedShare * 100).toFixed(1)}%; survey-level drift ${attRun.derived.drift ? `${(attRun.derived.drift.share * 100).toFixed(2)}% of travel time, ${attRun.derived.drift.significant ? 'reported (METHOD_DRIFT)' : 'not significant'}` : 'n/a'}`);
-log(`    same figures with attenuation off: drift ${cleanRun.derived.drift ? `${(cleanRun.derived.drift.share * 100).toFixed(2)}%, ${cleanRun.derived.drift.significant ? 'reported' : 'not reported'}` : 'n/a'}`);
-for (const [m, a] of Object.entries(accAtt)) log(`    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms  p90 ${a.p90ErrMs.toFixed(4)} ms  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%`);
+log(
+  `    intervals flagged "methods differ": ${(dr.flaggedShare * 100).toFixed(1)}%; survey-level drift ${attRun.derived.drift ? `${(attRun.derived.drift.share * 100).toFixed(2)}% of travel time, ${attRun.derived.drift.significant ? 'reported (METHOD_DRIFT)' : 'not significant'}` : 'n/a'}`,
+);
+log(
+  `    same figures with attenuation off: drift ${cleanRun.derived.drift ? `${(cleanRun.derived.drift.share * 100).toFixed(2)}%, ${cleanRun.derived.drift.significant ? 'reported' : 'not reported'}` : 'n/a'}`,
+);
+for (const [m, a] of Object.entries(accAtt))
+  log(
+    `    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms  p90 ${a.p90ErrMs.toFixed(4)} ms  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%`,
+  );
 const xh = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), demoCrossholeOptions());
 const xhRun = runSurvey('Crosshole (demo geometry)', xh);
 const pd = pairDelayMs(cleanRun);
-log(`\nOne pair delay (xcorr, 4,096-sample traces): ${pd.inSurveyMs.toFixed(3)} ms as in the survey run (target < 0.2 ms); ${pd.withAnalysisMs.toFixed(3)} ms including the analysis of both traces`);
+log(
+  `\nOne pair delay (xcorr, 4,096-sample traces): ${pd.inSurveyMs.toFixed(3)} ms as in the survey run (target < 0.2 ms); ${pd.withAnalysisMs.toFixed(3)} ms including the analysis of both traces`,
+);
 const pe = perEdit();
-log(`Per edit on a 60-depth survey: derive ${pe.deriveMedianMs.toFixed(1)} ms with the Monte Carlo, ${pe.deriveWithoutMcMedianMs.toFixed(1)} ms without (target < 50 ms); Monte Carlo 60 intervals x 10,000 draws ${pe.monteCarlo60Ms.toFixed(1)} ms (target < 50 ms)`);
+log(
+  `Per edit on a 60-depth survey: derive ${pe.deriveMedianMs.toFixed(1)} ms with the Monte Carlo, ${pe.deriveWithoutMcMedianMs.toFixed(1)} ms without (target < 50 ms); Monte Carlo 60 intervals x 10,000 draws ${pe.monteCarlo60Ms.toFixed(1)} ms (target < 50 ms)`,
+);
 
 if (json) {
-  const stage = (ms: number, traces: number) => ({ ms: Math.round(ms * 100) / 100, tracesPerS: Math.round(traces / (ms / 1000)) });
+  const stage = (ms: number, traces: number) => ({
+    ms: Math.round(ms * 100) / 100,
+    tracesPerS: Math.round(traces / (ms / 1000)),
+  });
   const doc = {
     stages: {
       seg2WriteRead: stage(cleanRun.times.io, cleanRun.traces),
@@ -241,7 +334,13 @@ if (json) {
     deriveWithoutMonteCarloMs60Depths: pe.deriveWithoutMcMedianMs,
     monteCarloMs60Intervals: pe.monteCarlo60Ms,
     accuracy: acc,
-    attenuationOn: { accuracy: accAtt, cumulativeXcorrMinusOnsetMs: dr.points, flaggedMethodsDifferShare: dr.flaggedShare, driftShare: attRun.derived.drift?.share ?? null, driftReported: attRun.derived.drift?.significant ?? false },
+    attenuationOn: {
+      accuracy: accAtt,
+      cumulativeXcorrMinusOnsetMs: dr.points,
+      flaggedMethodsDifferShare: dr.flaggedShare,
+      driftShare: attRun.derived.drift?.share ?? null,
+      driftReported: attRun.derived.drift?.significant ?? false,
+    },
     attenuationOffDriftReported: cleanRun.derived.drift?.significant ?? false,
   };
   process.stdout.write(JSON.stringify(doc, null, 1) + '\n');

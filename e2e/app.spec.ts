@@ -56,8 +56,12 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   await expect(page.locator('.board-foot')).toContainText('30 traces');
 
   // A corrupt file shows its own error; the 60 good files stay loaded.
-  const corrupt = Buffer.from([0x55, 0x3a, 0x01, 0x00, 0x10, 0x00, 0x40, 0x00, 0x01, 0x00, 0x00, 0x01, 0x0a, 0x00, 0x00, 0x00, 0xff, 0xff]);
-  await page.getByTestId('file-input').setInputFiles({ name: 'broken.sg2', mimeType: 'application/octet-stream', buffer: corrupt });
+  const corrupt = Buffer.from([
+    0x55, 0x3a, 0x01, 0x00, 0x10, 0x00, 0x40, 0x00, 0x01, 0x00, 0x00, 0x01, 0x0a, 0x00, 0x00, 0x00, 0xff, 0xff,
+  ]);
+  await page
+    .getByTestId('file-input')
+    .setInputFiles({ name: 'broken.sg2', mimeType: 'application/octet-stream', buffer: corrupt });
   const bad = page.locator('li.file[data-file="broken.sg2"]');
   await expect(bad).toHaveAttribute('data-status', 'error');
   await expect(bad.locator('.file-error')).toContainText('broken.sg2');
@@ -69,7 +73,9 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   await waitProcessed(page);
 
   const before = await derivedState(page);
-  const autoPick = before.picks.find((p) => p.stationKey === STATION && p.wave === 'S' && (p.method === 'aic' || p.method === 'stalta'))!;
+  const autoPick = before.picks.find(
+    (p) => p.stationKey === STATION && p.wave === 'S' && (p.method === 'aic' || p.method === 'stalta'),
+  )!;
   expect(autoPick, 'an automatic onset pick at 10 m').toBeTruthy();
   const chosenBefore = before.intervals.find((r) => r.key === INTERVAL_ABOVE && r.chosen)!;
   expect(chosenBefore.method).toBe('xcorr');
@@ -172,19 +178,30 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   expect(site.cautions.length).toBeGreaterThan(0);
   // Plots as images (Plotly.downloadImage): PNG signature bytes 89 50 4E 47 (PNG specification), SVG text.
   const profilePlotRow = page.locator('.sheet tr', { hasText: 'Profile' });
-  const [png] = await Promise.all([page.waitForEvent('download'), profilePlotRow.getByRole('button', { name: 'PNG' }).click()]);
+  const [png] = await Promise.all([
+    page.waitForEvent('download'),
+    profilePlotRow.getByRole('button', { name: 'PNG' }).click(),
+  ]);
   expect(png.suggestedFilename()).toMatch(/profile\.png$/);
   expect([...readFileSync((await png.path())!).subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
-  const [svg] = await Promise.all([page.waitForEvent('download'), page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click()]);
+  const [svg] = await Promise.all([
+    page.waitForEvent('download'),
+    page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click(),
+  ]);
   expect(readFileSync((await svg.path())!, 'utf8')).toContain('<svg');
   // The project archive holds the 60 files unchanged and the current edits (read back with the core).
-  const [zip] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: /^Project archive/ }).click()]);
+  const [zip] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('button', { name: /^Project archive/ }).click(),
+  ]);
   const opened = readProjectArchive(new Uint8Array(readFileSync((await zip.path())!)), 'download.zip');
   expect(opened.files).toHaveLength(60);
   expect(opened.missing).toEqual([]);
   expect(opened.doc.edits).toEqual(st.edits);
   const demoFile = makeDemoProject('downhole').files[7];
-  expect(Buffer.from(opened.files.find((f) => f.name === demoFile.name)!.bytes).equals(Buffer.from(demoFile.bytes))).toBe(true);
+  expect(
+    Buffer.from(opened.files.find((f) => f.name === demoFile.name)!.bytes).equals(Buffer.from(demoFile.bytes)),
+  ).toBe(true);
   await page.getByRole('button', { name: 'Close' }).click();
 
   // Printable summary: the print stylesheet shows only the summary.
@@ -217,7 +234,9 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   expect(problems, problems.join('\n')).toEqual([]);
 });
 
-test('geometry, US units, keyboard help and the bottom strip render; Start fresh empties the session', async ({ page }) => {
+test('geometry, US units, keyboard help and the bottom strip render; Start fresh empties the session', async ({
+  page,
+}) => {
   await page.goto('/');
   await page.locator('button[data-demo="crosshole"]').click();
   await waitProcessed(page);
@@ -251,13 +270,20 @@ test('geometry, US units, keyboard help and the bottom strip render; Start fresh
   await row.hover();
   const bands = await page.evaluate(() =>
     ['trace-board', 'travel-time', 'profile'].map((n) => {
-      const div = document.querySelector(`[data-plot="${n}"]`) as HTMLElement & { layout: { shapes?: { fillcolor?: string; y0: number; y1: number }[] } };
-      return (div.layout.shapes ?? []).filter((sh) => sh.fillcolor === 'rgba(253, 224, 71, 0.32)').map((sh) => [sh.y0, sh.y1]);
+      const div = document.querySelector(`[data-plot="${n}"]`) as HTMLElement & {
+        layout: { shapes?: { fillcolor?: string; y0: number; y1: number }[] };
+      };
+      return (div.layout.shapes ?? [])
+        .filter((sh) => sh.fillcolor === 'rgba(253, 224, 71, 0.32)')
+        .map((sh) => [sh.y0, sh.y1]);
     }),
   );
   const hovered = (await derivedState(page)).intervals.find((r) => r.key === key)!;
   // US units on screen: band edges in feet (1 ft = 0.3048 m).
-  for (const b of bands) expect(b).toEqual([[hovered.topM / 0.3048, hovered.bottomM / 0.3048]].map((p) => p.map((v) => expect.closeTo(v, 6))));
+  for (const b of bands)
+    expect(b).toEqual(
+      [[hovered.topM / 0.3048, hovered.bottomM / 0.3048]].map((p) => p.map((v) => expect.closeTo(v, 6))),
+    );
   await page.screenshot({ path: `${SCREENS}/13-hovered-interval.png` });
   await page.getByRole('button', { name: 'Keyboard help' }).click();
   await expect(page.getByRole('dialog', { name: 'Keyboard' })).toBeVisible();
@@ -272,7 +298,11 @@ test('geometry, US units, keyboard help and the bottom strip render; Start fresh
   // Loose waveform files (not an archive): placed from their headers / the default file-name pattern,
   // then processed to a profile. The demo's files carry depth and hit in their names (dh_d12.0_L.sg2).
   const demo = makeDemoProject('downhole');
-  await page.getByTestId('file-input').setInputFiles(demo.files.map((f) => ({ name: f.name, mimeType: 'application/octet-stream', buffer: Buffer.from(f.bytes) })));
+  await page
+    .getByTestId('file-input')
+    .setInputFiles(
+      demo.files.map((f) => ({ name: f.name, mimeType: 'application/octet-stream', buffer: Buffer.from(f.bytes) })),
+    );
   await expect(page.locator('li.file[data-status="ok"]')).toHaveCount(60);
   await waitProcessed(page);
   const placed = (await appState(page)).survey.records;

@@ -13,19 +13,38 @@ type Saved = { edits: unknown; comparison: unknown; survey: unknown };
 
 async function sessionState(page: Page): Promise<Saved & { revision: number }> {
   return page.evaluate(() => {
-    const bw = (window as unknown as { __borewave: { useApp: { getState: () => { edits: unknown; comparison: unknown; survey: unknown; revision: number } } } }).__borewave;
+    const bw = (
+      window as unknown as {
+        __borewave: {
+          useApp: { getState: () => { edits: unknown; comparison: unknown; survey: unknown; revision: number } };
+        };
+      }
+    ).__borewave;
     const s = bw.useApp.getState();
-    return JSON.parse(JSON.stringify({ edits: s.edits, comparison: s.comparison, survey: s.survey, revision: s.revision }));
+    return JSON.parse(
+      JSON.stringify({ edits: s.edits, comparison: s.comparison, survey: s.survey, revision: s.revision }),
+    );
   });
 }
 
 /** Waits until a save has completed that holds the store's current revision. */
 async function waitSaved(page: Page): Promise<void> {
-  await page.waitForFunction(() => {
-    const bw = (window as unknown as { __borewave: { useApp: { getState: () => { revision: number } }; useAutosave: { getState: () => { status: string; savedRevision: number | null } } } }).__borewave;
-    const a = bw.useAutosave.getState();
-    return a.status === 'saved' && a.savedRevision === bw.useApp.getState().revision;
-  }, null, { timeout: 15_000 });
+  await page.waitForFunction(
+    () => {
+      const bw = (
+        window as unknown as {
+          __borewave: {
+            useApp: { getState: () => { revision: number } };
+            useAutosave: { getState: () => { status: string; savedRevision: number | null } };
+          };
+        }
+      ).__borewave;
+      const a = bw.useAutosave.getState();
+      return a.status === 'saved' && a.savedRevision === bw.useApp.getState().revision;
+    },
+    null,
+    { timeout: 15_000 },
+  );
 }
 
 async function restore(page: Page): Promise<void> {
@@ -42,7 +61,9 @@ test('a page closed before or during an autosave restores the last completed sav
   await page.locator('button[data-demo="downhole"]').click();
   await waitProcessed(page);
   await page.getByRole('button', { name: 'Compare with another profile…' }).click();
-  await page.getByTestId('comparison-input').setInputFiles({ name: 'masw.csv', mimeType: 'text/csv', buffer: Buffer.from('depth_m,vs_mps\n0,200\n10,400\n') });
+  await page
+    .getByTestId('comparison-input')
+    .setInputFiles({ name: 'masw.csv', mimeType: 'text/csv', buffer: Buffer.from('depth_m,vs_mps\n0,200\n10,400\n') });
   await expect(page.getByTestId('comparison-vs30')).toBeVisible();
   // Edit A: a pick nudged one sample; wait for the save that holds it.
   await page.keyboard.press('ArrowDown');

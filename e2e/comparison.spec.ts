@@ -24,15 +24,30 @@ async function loadCsv(page: Page, name: string, text: string): Promise<void> {
   await page.getByTestId('comparison-input').setInputFiles({ name, mimeType: 'text/csv', buffer: Buffer.from(text) });
 }
 
-async function appComparison(page: Page): Promise<{ vs30: number | null; differences: { depthM: number; differencePct: number }[] } | null> {
+async function appComparison(
+  page: Page,
+): Promise<{ vs30: number | null; differences: { depthM: number; differencePct: number }[] } | null> {
   return page.evaluate(() => {
-    const bw = (window as unknown as { __borewave: { derived: () => { comparison: { vs30: { vsMps: number } | null; differences: { depthM: number; differencePct: number }[] } | null } | null } }).__borewave;
+    const bw = (
+      window as unknown as {
+        __borewave: {
+          derived: () => {
+            comparison: {
+              vs30: { vsMps: number } | null;
+              differences: { depthM: number; differencePct: number }[];
+            } | null;
+          } | null;
+        };
+      }
+    ).__borewave;
     const c = bw.derived()?.comparison;
     return c ? { vs30: c.vs30?.vsMps ?? null, differences: c.differences } : null;
   });
 }
 
-test('a comparison profile is overlaid with its Vs30 and differences; bad files are refused in plain words', async ({ page }) => {
+test('a comparison profile is overlaid with its Vs30 and differences; bad files are refused in plain words', async ({
+  page,
+}) => {
   await page.goto('/');
   await page.locator('button[data-demo="downhole"]').click();
   await waitProcessed(page);
@@ -54,7 +69,9 @@ test('a comparison profile is overlaid with its Vs30 and differences; bad files 
 
   // Overlay: one grey dashed step line on the Vs axis.
   const overlay = await page.evaluate(() => {
-    const div = document.querySelector('[data-plot="profile"]') as HTMLElement & { data: { name: string; x: number[]; y: number[]; line?: { dash?: string; color?: string }; xaxis?: string }[] };
+    const div = document.querySelector('[data-plot="profile"]') as HTMLElement & {
+      data: { name: string; x: number[]; y: number[]; line?: { dash?: string; color?: string }; xaxis?: string }[];
+    };
     const t = div.data.find((d) => d.name.startsWith('compared'));
     return t ? { x: t.x, y: t.y, dash: t.line?.dash, color: t.line?.color, xaxis: t.xaxis ?? 'x' } : null;
   });
@@ -73,12 +90,20 @@ test('a comparison profile is overlaid with its Vs30 and differences; bad files 
     const r = readWaveFile(f.bytes, f.name);
     if (r.ok) records.set(f.name, { ...r.record, id: f.name });
   }
-  const ref = runPipeline({ survey: st.survey, records, settings: st.settings, edits: st.edits, comparison: parseComparisonCsv(VS_CSV, 'masw.csv', { kind: 'vs' }) });
+  const ref = runPipeline({
+    survey: st.survey,
+    records,
+    settings: st.settings,
+    edits: st.edits,
+    comparison: parseComparisonCsv(VS_CSV, 'masw.csv', { kind: 'vs' }),
+  });
   expect(ref.derived.comparison!.vs30!.vsMps).toBeCloseTo(cmp.vs30!, 9);
   expect(cmp.differences.length).toBe(ref.derived.comparison!.differences.length);
   const first = ref.derived.comparison!.differences[0];
   const row = page.locator('[data-testid="intervals-table"] tbody tr').first();
-  await expect(row.locator('td[data-col="difference"]')).toHaveText(`${first.differencePct > 0 ? '+' : ''}${first.differencePct.toFixed(1)}`);
+  await expect(row.locator('td[data-col="difference"]')).toHaveText(
+    `${first.differencePct > 0 ? '+' : ''}${first.differencePct.toFixed(1)}`,
+  );
   await expect(page.locator('[data-testid="intervals-table"] th', { hasText: 'Compared (m/s)' })).toBeVisible();
   await page.screenshot({ path: `${SCREENS}/40-comparison.png` });
 

@@ -7,12 +7,26 @@
 import { test, expect, type Page } from '@playwright/test';
 import { appState, SCREENS, waitProcessed } from './helpers';
 
-interface Row { wave: string; receiver: string; depthM: number; pathM: number; times: Record<string, { timeS: number } | undefined> }
-interface Fit { wave: string; topM: number; bottomM: number; method: string; velocityMps: number }
+interface Row {
+  wave: string;
+  receiver: string;
+  depthM: number;
+  pathM: number;
+  times: Record<string, { timeS: number } | undefined>;
+}
+interface Fit {
+  wave: string;
+  topM: number;
+  bottomM: number;
+  method: string;
+  velocityMps: number;
+}
 
 async function fitsAndRows(page: Page): Promise<{ fits: Fit[]; rows: Row[] }> {
   return page.evaluate(() => {
-    const bw = (window as unknown as { __borewave: { derived: () => { layerFits: unknown[]; travelTimes: unknown[] } | null } }).__borewave;
+    const bw = (
+      window as unknown as { __borewave: { derived: () => { layerFits: unknown[]; travelTimes: unknown[] } | null } }
+    ).__borewave;
     const d = bw.derived()!;
     return JSON.parse(JSON.stringify({ fits: d.layerFits, rows: d.travelTimes }));
   });
@@ -37,7 +51,11 @@ test('layer boundaries typed in Geometry (5, 10 m) set the Travel time fits', as
   await waitProcessed(page);
   const before = await fitsAndRows(page);
   // Before: the fits follow the soil layers of the demo survey (at least one of them crosses 5-10 m).
-  expect(before.fits.some((f) => f.wave === 'S' && !(f.topM >= 5 - 1e-9 && f.bottomM <= 10 + 1e-9) && f.topM < 10 && f.bottomM > 5)).toBe(true);
+  expect(
+    before.fits.some(
+      (f) => f.wave === 'S' && !(f.topM >= 5 - 1e-9 && f.bottomM <= 10 + 1e-9) && f.topM < 10 && f.bottomM > 5,
+    ),
+  ).toBe(true);
 
   await page.getByRole('tab', { name: 'Geometry' }).click();
   const field = page.getByLabel('Layer boundaries');
@@ -51,13 +69,19 @@ test('layer boundaries typed in Geometry (5, 10 m) set the Travel time fits', as
   const { fits, rows } = await fitsAndRows(page);
   const s = fits.filter((f) => f.wave === 'S' && f.method === 'onset');
   // Every S fit lies inside one of the layers the boundaries make (none crosses 5 m or 10 m).
-  for (const f of s) expect([f.bottomM <= 5 + 1e-9, f.topM >= 5 - 1e-9 && f.bottomM <= 10 + 1e-9, f.topM >= 10 - 1e-9]).toContain(true);
+  for (const f of s)
+    expect([f.bottomM <= 5 + 1e-9, f.topM >= 5 - 1e-9 && f.bottomM <= 10 + 1e-9, f.topM >= 10 - 1e-9]).toContain(true);
   const mid = s.find((f) => Math.abs(f.topM - 5) < 1e-9 && Math.abs(f.bottomM - 10) < 1e-9);
   expect(mid).toBeDefined();
   // Its velocity: 1 / OLS slope of onset time against straight path over the stations from 5 to 10 m.
   const inLayer = rows.filter((r) => r.wave === 'S' && r.times.onset && r.depthM >= 5 - 1e-9 && r.depthM <= 10 + 1e-9);
   expect(inLayer.length).toBeGreaterThanOrEqual(2);
-  const vRef = 1 / olsSlope(inLayer.map((r) => r.pathM), inLayer.map((r) => r.times.onset!.timeS));
+  const vRef =
+    1 /
+    olsSlope(
+      inLayer.map((r) => r.pathM),
+      inLayer.map((r) => r.times.onset!.timeS),
+    );
   expect(mid!.velocityMps).toBeCloseTo(vRef, 6);
 
   // The Travel time pane follows: a fit line from 5 m to 10 m, one point per station of the layer.
@@ -65,13 +89,21 @@ test('layer boundaries typed in Geometry (5, 10 m) set the Travel time fits', as
   await expect
     .poll(() =>
       page.evaluate(() => {
-        const div = document.querySelector('[data-plot="travel-time"]') as (HTMLElement & { data?: { name: string; y: number[] }[] }) | null;
+        const div = document.querySelector('[data-plot="travel-time"]') as
+          | (HTMLElement & { data?: { name: string; y: number[] }[] })
+          | null;
         const t = div?.data?.find((d) => d.name === 'fit 5-10');
         return t ? [Math.min(...t.y), Math.max(...t.y), t.y.length] : null;
       }),
     )
-    .toEqual([expect.closeTo(Math.min(...inLayer.map((r) => r.depthM)), 9), expect.closeTo(Math.max(...inLayer.map((r) => r.depthM)), 9), inLayer.length]);
-  await page.locator('section[aria-label="Travel time"]').screenshot({ path: `${SCREENS}/60-travel-time-layer-boundaries.png` });
+    .toEqual([
+      expect.closeTo(Math.min(...inLayer.map((r) => r.depthM)), 9),
+      expect.closeTo(Math.max(...inLayer.map((r) => r.depthM)), 9),
+      inLayer.length,
+    ]);
+  await page
+    .locator('section[aria-label="Travel time"]')
+    .screenshot({ path: `${SCREENS}/60-travel-time-layer-boundaries.png` });
 
   // Emptying the field goes back to the soil layers.
   await page.getByRole('tab', { name: 'Geometry' }).click();

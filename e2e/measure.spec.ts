@@ -18,9 +18,19 @@ mkdirSync(SCREENS, { recursive: true });
 const figures: Record<string, unknown> = {};
 
 function surveyZip(depthsM: number[], name: string): Buffer {
-  const r = synthesizeSurvey(demoEarthModel(), { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM: 2 }, { ...demoDownholeOptions(), samplesPerTrace: 4096, surveyName: name });
-  const files = r.records.map((rec) => ({ name: rec.fileName, bytes: writeSeg2(toSeg2Input(rec), { byteOrder: 'little', formatCode: 4 }) }));
-  const doc = newProjectDocument(r.survey, files.map((f) => f.name));
+  const r = synthesizeSurvey(
+    demoEarthModel(),
+    { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM: 2 },
+    { ...demoDownholeOptions(), samplesPerTrace: 4096, surveyName: name },
+  );
+  const files = r.records.map((rec) => ({
+    name: rec.fileName,
+    bytes: writeSeg2(toSeg2Input(rec), { byteOrder: 'little', formatCode: 4 }),
+  }));
+  const doc = newProjectDocument(
+    r.survey,
+    files.map((f) => f.name),
+  );
   return Buffer.from(writeProjectArchive(doc, files));
 }
 
@@ -58,19 +68,26 @@ test('pick edit to updated profile, 60-depth survey', async ({ page }) => {
       // Let the other panes finish and the idle spread arrive before the next edit.
       await new Promise((res) => setTimeout(res, 400));
       const draws: Record<string, number> = {};
-      for (const el of document.querySelectorAll<HTMLElement>('[data-plot]')) draws[el.dataset.plot!] = Number(el.dataset.lastDrawMs ?? 'NaN');
+      for (const el of document.querySelectorAll<HTMLElement>('[data-plot]'))
+        draws[el.dataset.plot!] = Number(el.dataset.lastDrawMs ?? 'NaN');
       return { ms, deriveMs: bw.deriveMs(), draws };
     });
     times.push(r.ms);
     derive.push(r.deriveMs);
     drawsPerPlot.push(r.draws);
   }
-  const spreadMs = await page.evaluate(() => (window as unknown as { __borewave: { spreadMs: () => number } }).__borewave.spreadMs());
+  const spreadMs = await page.evaluate(() =>
+    (window as unknown as { __borewave: { spreadMs: () => number } }).__borewave.spreadMs(),
+  );
   figures.spreadMs = Math.round(spreadMs);
-  figures.lastDrawMsPerPlot = Object.fromEntries(Object.keys(drawsPerPlot[0]).map((k) => [k, median(drawsPerPlot.map((d) => d[k]))]));
+  figures.lastDrawMsPerPlot = Object.fromEntries(
+    Object.keys(drawsPerPlot[0]).map((k) => [k, median(drawsPerPlot.map((d) => d[k]))]),
+  );
   figures.editToProfileMs = { median: median(times), all: times.map((t) => Math.round(t)) };
   figures.deriveMs = { median: median(derive), all: derive.map((t) => Math.round(t)) };
-  console.log(`MEASURE pick edit -> profile redrawn (60 depths): median ${median(times).toFixed(0)} ms (derive ${median(derive).toFixed(0)} ms)`);
+  console.log(
+    `MEASURE pick edit -> profile redrawn (60 depths): median ${median(times).toFixed(0)} ms (derive ${median(derive).toFixed(0)} ms)`,
+  );
   expect(times.length).toBe(9);
 });
 
@@ -80,9 +97,16 @@ test('first draw of 300 traces x 4096 samples', async ({ page }) => {
   const zip = surveyZip(depths, '300-trace measurement survey');
   await page.goto('/');
   await page.evaluate(() => {
-    const bw = (window as unknown as { __borewave: { useResults: { subscribe: (f: (s: { prepared: unknown }, p: { prepared: unknown }) => void) => void } } }).__borewave;
+    const bw = (
+      window as unknown as {
+        __borewave: {
+          useResults: { subscribe: (f: (s: { prepared: unknown }, p: { prepared: unknown }) => void) => void };
+        };
+      }
+    ).__borewave;
     bw.useResults.subscribe((s, p) => {
-      if (s.prepared && s.prepared !== p.prepared) (window as unknown as { __tResults: number }).__tResults = performance.now();
+      if (s.prepared && s.prepared !== p.prepared)
+        (window as unknown as { __tResults: number }).__tResults = performance.now();
     });
   });
   const t0 = Date.now();
@@ -92,10 +116,15 @@ test('first draw of 300 traces x 4096 samples', async ({ page }) => {
   const drawn = await page.evaluate(async () => {
     const w = window as unknown as { __tResults: number };
     await new Promise<void>((res) => {
-      const poll = () => (Number((document.querySelector('[data-plot="trace-board"]') as HTMLElement | null)?.dataset.drawn ?? '0') > 0 ? res() : requestAnimationFrame(poll));
+      const poll = () =>
+        Number((document.querySelector('[data-plot="trace-board"]') as HTMLElement | null)?.dataset.drawn ?? '0') > 0
+          ? res()
+          : requestAnimationFrame(poll);
       poll();
     });
-    const div = document.querySelector('[data-plot="trace-board"]') as HTMLElement & { data: { type: string; name: string }[] };
+    const div = document.querySelector('[data-plot="trace-board"]') as HTMLElement & {
+      data: { type: string; name: string }[];
+    };
     const boardMs = performance.now() - w.__tResults;
     // The frame that first showed the board (a Plotly draw promise can resolve later than its frame).
     await new Promise<void>((res) => {
@@ -104,9 +133,16 @@ test('first draw of 300 traces x 4096 samples', async ({ page }) => {
     });
     const paintedMs = Number(div.dataset.paintedAt) - w.__tResults;
     // Then every pane: the Profile's lines and the pick markers over the board.
-    const points = (p: string) => ((document.querySelector(`[data-plot="${p}"]`) as (HTMLElement & { data?: { x: unknown[] }[] }) | null)?.data ?? []).reduce((a, d) => a + (d.x?.length ?? 0), 0);
+    const points = (p: string) =>
+      (
+        (document.querySelector(`[data-plot="${p}"]`) as (HTMLElement & { data?: { x: unknown[] }[] }) | null)?.data ??
+        []
+      ).reduce((a, d) => a + (d.x?.length ?? 0), 0);
     await new Promise<void>((res) => {
-      const poll = () => (points('profile') > 0 && points('trace-board-picks') > 0 && points('travel-time') > 0 ? res() : requestAnimationFrame(poll));
+      const poll = () =>
+        points('profile') > 0 && points('trace-board-picks') > 0 && points('travel-time') > 0
+          ? res()
+          : requestAnimationFrame(poll);
       poll();
     });
     return {
@@ -124,27 +160,38 @@ test('first draw of 300 traces x 4096 samples', async ({ page }) => {
   figures.firstDraw300x4096Ms = Math.round(drawn.ms);
   figures.firstDraw300PaintedMs = Math.round(drawn.paintedMs);
   figures.firstDraw300AllPanesMs = Math.round(drawn.allPanesMs);
-  figures.firstDraw300Parts = { untilDrawStartsMs: Math.round(drawn.startMs), plotlySyncMs: Math.round(drawn.plotlySyncMs), webglCheckAtPlusMs: drawn.webglCheck };
+  figures.firstDraw300Parts = {
+    untilDrawStartsMs: Math.round(drawn.startMs),
+    plotlySyncMs: Math.round(drawn.plotlySyncMs),
+    webglCheckAtPlusMs: drawn.webglCheck,
+  };
   figures.firstDrawTraceTypes = drawn.types;
   figures.openReadPrepareAutoPick300Ms = processMs;
   figures.boardFooter = foot.replace(/\s+/g, ' ');
-  console.log(`MEASURE first draw of 300 traces x 4096 samples (renderer auto: ${drawn.types.join(', ')}): ${drawn.ms.toFixed(0)} ms after the results arrived (board's first frame ${drawn.paintedMs.toFixed(0)} ms; every pane ${drawn.allPanesMs.toFixed(0)} ms); open+read+prepare+auto-pick ${processMs} ms`);
+  console.log(
+    `MEASURE first draw of 300 traces x 4096 samples (renderer auto: ${drawn.types.join(', ')}): ${drawn.ms.toFixed(0)} ms after the results arrived (board's first frame ${drawn.paintedMs.toFixed(0)} ms; every pane ${drawn.allPanesMs.toFixed(0)} ms); open+read+prepare+auto-pick ${processMs} ms`,
+  );
   await expect(page.locator('.board-foot')).toContainText('300 traces');
   // The other panes follow the board: the Profile's Vs line and the pick markers are drawn.
-  const drawnPoints = (plot: string) => page.evaluate((p) => {
-    const div = document.querySelector(`[data-plot="${p}"]`) as (HTMLElement & { data?: { x: unknown[] }[] }) | null;
-    return (div?.data ?? []).reduce((a, d) => a + (d.x?.length ?? 0), 0);
-  }, plot);
+  const drawnPoints = (plot: string) =>
+    page.evaluate((p) => {
+      const div = document.querySelector(`[data-plot="${p}"]`) as (HTMLElement & { data?: { x: unknown[] }[] }) | null;
+      return (div?.data ?? []).reduce((a, d) => a + (d.x?.length ?? 0), 0);
+    }, plot);
   await expect.poll(() => drawnPoints('profile'), { timeout: 10_000 }).toBeGreaterThan(500);
   await expect.poll(() => drawnPoints('trace-board-picks'), { timeout: 10_000 }).toBeGreaterThan(250);
   await page.screenshot({ path: `${SCREENS}/20-300-traces.png` });
 
   // The same board forced to WebGL (scattergl): the draw must happen with WebGL traces.
   const gl = await page.evaluate(async () => {
-    const div = document.querySelector('[data-plot="trace-board"]') as HTMLElement & { data: { type: string; name: string }[] };
+    const div = document.querySelector('[data-plot="trace-board"]') as HTMLElement & {
+      data: { type: string; name: string }[];
+    };
     const n0 = Number(div.dataset.drawn ?? '0');
     const t0 = performance.now();
-    const bw = (window as unknown as { __borewave: { useApp: { setState: (f: (s: { view: object }) => object) => void } } }).__borewave;
+    const bw = (
+      window as unknown as { __borewave: { useApp: { setState: (f: (s: { view: object }) => object) => void } } }
+    ).__borewave;
     bw.useApp.setState((s) => ({ view: { ...s.view, renderer: 'webgl' } }));
     await new Promise<void>((res) => {
       const poll = () => (Number(div.dataset.drawn ?? '0') > n0 ? res() : requestAnimationFrame(poll));

@@ -9,7 +9,10 @@ import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { SCREENS, waitProcessed } from './helpers';
 
-test('the page refuses connections (CSP connect-src none) and requests only its own files', async ({ page, baseURL }) => {
+test('the page refuses connections (CSP connect-src none) and requests only its own files', async ({
+  page,
+  baseURL,
+}) => {
   const requests: string[] = [];
   page.on('request', (r) => requests.push(r.url()));
   await page.goto('/');

@@ -13,7 +13,11 @@ test('every pane, one screenshot each', async ({ page }) => {
   await page.locator('button[data-demo="downhole"]').click();
   await waitProcessed(page);
   await page.getByRole('button', { name: 'Compare with another profile…' }).click();
-  await page.getByTestId('comparison-input').setInputFiles({ name: 'masw.csv', mimeType: 'text/csv', buffer: Buffer.from('depth_m,vs_mps\n0,180\n6,260\n16,380\n') });
+  await page.getByTestId('comparison-input').setInputFiles({
+    name: 'masw.csv',
+    mimeType: 'text/csv',
+    buffer: Buffer.from('depth_m,vs_mps\n0,180\n6,260\n16,380\n'),
+  });
   await expect(page.getByTestId('comparison-vs30')).toBeVisible();
   for (let i = 0; i < 12; i++) await page.keyboard.press('ArrowDown');
   await page.keyboard.press('ArrowRight');
@@ -36,11 +40,20 @@ test('every pane, one screenshot each', async ({ page }) => {
   const ranges = () =>
     page.evaluate(() =>
       ['trace-board', 'trace-board-picks'].map((n) => {
-        const fl = (document.querySelector(`[data-plot="${n}"]`) as HTMLElement & { _fullLayout: { xaxis: { range: number[] }; yaxis: { range: number[] } } })._fullLayout;
+        const fl = (
+          document.querySelector(`[data-plot="${n}"]`) as HTMLElement & {
+            _fullLayout: { xaxis: { range: number[] }; yaxis: { range: number[] } };
+          }
+        )._fullLayout;
         return [...fl.xaxis.range, ...fl.yaxis.range].map((v) => Number(v.toFixed(6)));
       }),
     );
-  await expect.poll(async () => { const [a, b] = await ranges(); return JSON.stringify(a) === JSON.stringify(b); }).toBe(true);
+  await expect
+    .poll(async () => {
+      const [a, b] = await ranges();
+      return JSON.stringify(a) === JSON.stringify(b);
+    })
+    .toBe(true);
   const [zoomed] = await ranges();
   expect(zoomed[1] - zoomed[0]).toBeLessThan(100);
   await page.locator('.board').screenshot({ path: `${SCREENS}/52b-trace-board-zoomed.png` });
@@ -60,7 +73,10 @@ test('every pane, one screenshot each', async ({ page }) => {
   const during = await page.evaluate(async () => {
     window.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight' }));
     await new Promise((r) => requestAnimationFrame(() => setTimeout(r, 0)));
-    return { updating: !!document.querySelector('[data-testid="spread-updating"]'), spread: !!document.querySelector('[data-testid="site-spread"]') };
+    return {
+      updating: !!document.querySelector('[data-testid="spread-updating"]'),
+      spread: !!document.querySelector('[data-testid="site-spread"]'),
+    };
   });
   expect(during).toEqual({ updating: true, spread: false });
   await expect(page.getByTestId('site-spread')).toContainText('P05');
@@ -70,7 +86,10 @@ test('every pane, one screenshot each', async ({ page }) => {
   await page.locator('.right').screenshot({ path: `${SCREENS}/57-export-sheet.png` });
   // The Trace board image carries the pick markers (drawn on an overlay on screen): Plotly draws each
   // marker as an SVG path whose class list starts with "point", one per station of the 30-depth board.
-  const [svg] = await Promise.all([page.waitForEvent('download'), page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click()]);
+  const [svg] = await Promise.all([
+    page.waitForEvent('download'),
+    page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click(),
+  ]);
   const text = readFileSync((await svg.path())!, 'utf8');
   expect(text.match(/class="point[" ]/g)?.length ?? 0).toBeGreaterThanOrEqual(30);
   await page.getByRole('button', { name: 'Close' }).click();

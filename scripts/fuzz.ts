@@ -28,7 +28,22 @@ const seeds: Uint8Array[] = [];
 for (const order of ['little', 'big'] as const) {
   for (const code of [1, 2, 4, 5] as const) {
     const s = Float64Array.from({ length: 32 }, (_, i) => Math.sin(i / 3) * 1e3);
-    seeds.push(writeSeg2({ fileStrings: { UNITS: 'METERS' }, notes: ['a', 'b'], traces: [1, 2, 3].map((c) => ({ channel: c, samples: s, sampleIntervalS: 1e-4, delayS: 0, receiverLocation: [0, 0, c] })) }, { byteOrder: order, formatCode: code }));
+    seeds.push(
+      writeSeg2(
+        {
+          fileStrings: { UNITS: 'METERS' },
+          notes: ['a', 'b'],
+          traces: [1, 2, 3].map((c) => ({
+            channel: c,
+            samples: s,
+            sampleIntervalS: 1e-4,
+            delayS: 0,
+            receiverLocation: [0, 0, c],
+          })),
+        },
+        { byteOrder: order, formatCode: code },
+      ),
+    );
   }
 }
 
@@ -68,8 +83,15 @@ function textInput(): string {
 }
 
 const seedSurvey: Survey = {
-  name: 'fuzz', kind: 'downhole', boreholes: [{ id: 'B', collarEastM: 0, collarNorthM: 0, deviation: [] }], mainHoleId: 'B', sourceOffsetM: 2, sourceDepthM: 0,
-  receiverSpacingM: 1, receiverHoleIds: [], records: [{ recordId: 'a.sg2', depthM: 1, hit: 'left', channels: [], excluded: false, assignedBy: 'manual' }],
+  name: 'fuzz',
+  kind: 'downhole',
+  boreholes: [{ id: 'B', collarEastM: 0, collarNorthM: 0, deviation: [] }],
+  mainHoleId: 'B',
+  sourceOffsetM: 2,
+  sourceDepthM: 0,
+  receiverSpacingM: 1,
+  receiverHoleIds: [],
+  records: [{ recordId: 'a.sg2', depthM: 1, hit: 'left', channels: [], excluded: false, assignedBy: 'manual' }],
   soil: { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },
 };
 const archiveSeed = writeProjectArchive(newProjectDocument(seedSurvey), [{ name: 'a.sg2', bytes: seeds[0] }]);
@@ -137,9 +159,14 @@ let unexpected = 0;
 readers.forEach((r, k) => {
   const t = tallies[k];
   unexpected += t.unexpected;
-  process.stdout.write(`${r.name}: ${t.tried} inputs, ${t.ok} read, ${t.unexpected} unexpected exceptions, slowest ${t.slowestMs.toFixed(2)} ms\n`);
-  for (const [code, n] of [...t.codes.entries()].sort((a, b) => b[1] - a[1])) process.stdout.write(`  ${code.padEnd(28)} ${n}\n`);
+  process.stdout.write(
+    `${r.name}: ${t.tried} inputs, ${t.ok} read, ${t.unexpected} unexpected exceptions, slowest ${t.slowestMs.toFixed(2)} ms\n`,
+  );
+  for (const [code, n] of [...t.codes.entries()].sort((a, b) => b[1] - a[1]))
+    process.stdout.write(`  ${code.padEnd(28)} ${n}\n`);
   if (t.firstUnexpected) process.stdout.write(`  first unexpected: ${t.firstUnexpected}\n`);
 });
-process.stdout.write(`total ${total} inputs in ${((performance.now() - t0) / 1000).toFixed(1)} s, unexpected exceptions: ${unexpected}\n`);
+process.stdout.write(
+  `total ${total} inputs in ${((performance.now() - t0) / 1000).toFixed(1)} s, unexpected exceptions: ${unexpected}\n`,
+);
 process.exitCode = unexpected > 0 ? 1 : 0;

@@ -19,11 +19,29 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const sampleDir = join(root, 'sample-data');
 
 function truthCsv(result: SynthResult): string {
-  const head = 'record_id,depth_m,hit,channel,receiver,component,s_arrival_s,p_arrival_s,s_travel_s,p_travel_s,trigger_delay_s,s_path_m,p_path_m,q_eff_s,q_eff_p,noise_std';
+  const head =
+    'record_id,depth_m,hit,channel,receiver,component,s_arrival_s,p_arrival_s,s_travel_s,p_travel_s,trigger_delay_s,s_path_m,p_path_m,q_eff_s,q_eff_p,noise_std';
   const f = (x: number, d = 9) => x.toFixed(d);
   const rows = result.truth.records.flatMap((r) =>
     r.channels.map((c) =>
-      [r.recordId, r.depthM, r.hit, c.channel, c.receiver, c.component, f(c.sArrivalS), f(c.pArrivalS), f(c.sTravelS), f(c.pTravelS), f(r.triggerDelayS), f(c.sPathM, 6), f(c.pPathM, 6), f(c.qEffS, 3), f(c.qEffP, 3), r.noiseStd.toPrecision(6)].join(','),
+      [
+        r.recordId,
+        r.depthM,
+        r.hit,
+        c.channel,
+        c.receiver,
+        c.component,
+        f(c.sArrivalS),
+        f(c.pArrivalS),
+        f(c.sTravelS),
+        f(c.pTravelS),
+        f(r.triggerDelayS),
+        f(c.sPathM, 6),
+        f(c.pPathM, 6),
+        f(c.qEffS, 3),
+        f(c.qEffP, 3),
+        r.noiseStd.toPrecision(6),
+      ].join(','),
     ),
   );
   return [head, ...rows].join('\n') + '\n';
@@ -31,8 +49,26 @@ function truthCsv(result: SynthResult): string {
 
 function modelCsv(model: EarthModel): string {
   const head = 'layer,top_m,bottom_m,vs_mps,vp_skeleton_mps,unit_weight_kn_m3,q_s,q_p,behaviour';
-  const rows = model.layers.map((l) => [`"${l.name}"`, l.topM, Number.isFinite(l.thicknessM) ? l.topM + l.thicknessM : '', l.vsMps, l.vpMps, l.unitWeightKnM3, l.qS, l.qP, l.behaviour].join(','));
-  return [head, ...rows, `# water table ${model.waterTableM} m; below it Vp = max(skeleton Vp, ${model.waterVpMps ?? 1500} m/s)`].join('\n') + '\n';
+  const rows = model.layers.map((l) =>
+    [
+      `"${l.name}"`,
+      l.topM,
+      Number.isFinite(l.thicknessM) ? l.topM + l.thicknessM : '',
+      l.vsMps,
+      l.vpMps,
+      l.unitWeightKnM3,
+      l.qS,
+      l.qP,
+      l.behaviour,
+    ].join(','),
+  );
+  return (
+    [
+      head,
+      ...rows,
+      `# water table ${model.waterTableM} m; below it Vp = max(skeleton Vp, ${model.waterVpMps ?? 1500} m/s)`,
+    ].join('\n') + '\n'
+  );
 }
 
 /** Largest difference between written-then-read samples and the synthetic ones, relative to the trace peak. */
@@ -64,7 +100,9 @@ function makeSurvey(kind: TestKind): void {
   writeFileSync(join(dir, 'truth.csv'), truthCsv(result));
   const zip = writeProjectArchive(doc, files);
   writeFileSync(join(dir, 'project.zip'), zip);
-  console.log(`${plan.folder}: ${result.records.length} SEG-2 files (${plan.byteOrder}-endian, format ${plan.formatCode}), round-trip error ${err.toExponential(2)} of peak, project.zip ${(zip.length / 1e6).toFixed(2)} MB`);
+  console.log(
+    `${plan.folder}: ${result.records.length} SEG-2 files (${plan.byteOrder}-endian, format ${plan.formatCode}), round-trip error ${err.toExponential(2)} of peak, project.zip ${(zip.length / 1e6).toFixed(2)} MB`,
+  );
 }
 
 function folderBytes(dir: string): number {

@@ -3,7 +3,15 @@
  * of 4,096 samples with 1,999 neighbour pairs, and single pair-delay calls.
  * Run: npx tsx scripts/measure-picking.ts
  */
-import { analyseStation, autoPickSurvey, pairDelays, pairDelaysFromAnalysis, type DelayRequest, type PickingSettings, type WorkingTrace } from '../src/core/picking/autopick';
+import {
+  analyseStation,
+  autoPickSurvey,
+  pairDelays,
+  pairDelaysFromAnalysis,
+  type DelayRequest,
+  type PickingSettings,
+  type WorkingTrace,
+} from '../src/core/picking/autopick';
 import { conditionTrace } from '../src/core/signal/condition';
 
 const nTraces = 2000;
@@ -45,7 +53,13 @@ const pairs: DelayRequest[] = [];
 for (let k = 0; k + 1 < nTraces; k++) {
   pairs.push({ pairKey: `P${k}`, wave: 'S', a: `S${k}`, b: `S${k + 1}`, minDelayS: -0.05, maxDelayS: 0.05 });
 }
-const settings: PickingSettings = { onsetMethod: 'aic', staS: 0.003, ltaS: 0.03, staLtaThreshold: 3, phaseBandHz: null };
+const settings: PickingSettings = {
+  onsetMethod: 'aic',
+  staS: 0.003,
+  ltaS: 0.03,
+  staLtaThreshold: 3,
+  phaseBandHz: null,
+};
 
 function time(label: string, runs: number, fn: () => void): number {
   fn(); // warm-up
@@ -57,12 +71,18 @@ function time(label: string, runs: number, fn: () => void): number {
   }
   t.sort((a, b) => a - b);
   const median = t[Math.floor(t.length / 2)];
-  console.log(`${label}: median ${median.toFixed(3)} ms over ${runs} runs (min ${t[0].toFixed(3)}, max ${t[t.length - 1].toFixed(3)})`);
+  console.log(
+    `${label}: median ${median.toFixed(3)} ms over ${runs} runs (min ${t[0].toFixed(3)}, max ${t[t.length - 1].toFixed(3)})`,
+  );
   return median;
 }
 
-time('autoPickSurvey, 2000 traces x 4096 samples + 1999 pairs (xcorr)', 5, () => autoPickSurvey(traces, pairs, settings));
-time('autoPickSurvey, same with phase band 50-200 Hz', 5, () => autoPickSurvey(traces, pairs, { ...settings, phaseBandHz: [50, 200] }));
+time('autoPickSurvey, 2000 traces x 4096 samples + 1999 pairs (xcorr)', 5, () =>
+  autoPickSurvey(traces, pairs, settings),
+);
+time('autoPickSurvey, same with phase band 50-200 Hz', 5, () =>
+  autoPickSurvey(traces, pairs, { ...settings, phaseBandHz: [50, 200] }),
+);
 time('autoPickSurvey, STA/LTA onsets', 5, () => autoPickSurvey(traces, pairs, { ...settings, onsetMethod: 'stalta' }));
 const a = analyseStation(traces[50], settings);
 const b = analyseStation(traces[51], settings);
@@ -76,7 +96,12 @@ const perPublic = time(`pairDelays x 200 (public call: analyses both traces firs
 });
 console.log(`  -> ${(perPublic / 200).toFixed(4)} ms per call`);
 time('conditionTrace x 2000 (detrend, 5% taper, 4th-order 20-400 Hz zero-phase band-pass)', 3, () => {
-  for (const t of traces) conditionTrace(t.samples, dtS, { detrend: true, taperFraction: 0.05, bandpass: { lowHz: 20, highHz: 400, order: 4 } });
+  for (const t of traces)
+    conditionTrace(t.samples, dtS, {
+      detrend: true,
+      taperFraction: 0.05,
+      bandpass: { lowHz: 20, highHz: 400, order: 4 },
+    });
 });
 const res = autoPickSurvey(traces, pairs, settings);
 console.log(`picks ${res.picks.length}, delays ${res.delays.length}, problems ${res.problems.length}`);
@@ -97,5 +122,9 @@ const delayErrMs = res.delays
   })
   .sort((x, y) => x - y);
 const pct = (v: number[], q: number): string => v[Math.min(v.length - 1, Math.floor(q * v.length))].toFixed(3);
-console.log(`|onset error| ms: median ${pct(onsetErrMs, 0.5)}, 95% ${pct(onsetErrMs, 0.95)}, max ${pct(onsetErrMs, 1)}`);
-console.log(`|delay error| ms: median ${pct(delayErrMs, 0.5)}, 95% ${pct(delayErrMs, 0.95)}, max ${pct(delayErrMs, 1)}`);
+console.log(
+  `|onset error| ms: median ${pct(onsetErrMs, 0.5)}, 95% ${pct(onsetErrMs, 0.95)}, max ${pct(onsetErrMs, 1)}`,
+);
+console.log(
+  `|delay error| ms: median ${pct(delayErrMs, 0.5)}, 95% ${pct(delayErrMs, 0.95)}, max ${pct(delayErrMs, 1)}`,
+);

@@ -11,7 +11,14 @@ watchProcessing();
 void checkForSavedSession();
 
 // Read-only handles for the end-to-end tests and measurements (no effect on the app).
-(window as unknown as { __borewave: unknown }).__borewave = { useApp, useResults, useAutosave, derived: currentDerived, deriveMs: () => lastDeriveMs, spreadMs: () => lastSpreadMs };
+(window as unknown as { __borewave: unknown }).__borewave = {
+  useApp,
+  useResults,
+  useAutosave,
+  derived: currentDerived,
+  deriveMs: () => lastDeriveMs,
+  spreadMs: () => lastSpreadMs,
+};
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

@@ -1,7 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import {
-  csvColumn, formatQuantity, fromDisplay, FT_PER_M, KNM3_PER_PCF, KPA_PER_KSI, KPA_PER_PSF, MGM3_PER_LBFT3,
-  toDisplay, unitSpec, type QuantityKind, type UnitSystem,
+  csvColumn,
+  formatQuantity,
+  fromDisplay,
+  FT_PER_M,
+  KNM3_PER_PCF,
+  KPA_PER_KSI,
+  KPA_PER_PSF,
+  MGM3_PER_LBFT3,
+  toDisplay,
+  unitSpec,
+  type QuantityKind,
+  type UnitSystem,
 } from '../src/core/units';
 
 describe('unit factors from the exact definitions', () => {
@@ -31,10 +41,11 @@ describe('display and entry', () => {
   const kinds: QuantityKind[] = ['depth', 'velocity', 'stress', 'modulus', 'unitWeight', 'density'];
   const systems: UnitSystem[] = ['SI', 'US'];
   it('fromDisplay inverts toDisplay for every quantity and system (round trip, relative 1e-14)', () => {
-    for (const k of kinds) for (const s of systems) {
-      const si = 123.456;
-      expect(fromDisplay(k, s, toDisplay(k, s, si)) / si).toBeCloseTo(1, 14);
-    }
+    for (const k of kinds)
+      for (const s of systems) {
+        const si = 123.456;
+        expect(fromDisplay(k, s, toDisplay(k, s, si)) / si).toBeCloseTo(1, 14);
+      }
   });
   it('SI display: modulus kPa -> MPa (76,000 kPa = 76.0 MPa, shared/domain.md section 4)', () => {
     expect(formatQuantity('modulus', 'SI', 76000)).toBe('76.0 MPa');

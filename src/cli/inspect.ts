@@ -29,7 +29,11 @@ export async function runInspect(args: string[], io: CliIo): Promise<number> {
       bytes = new Uint8Array(await readFile(path));
     } catch (e) {
       const reason = e instanceof Error ? e.message : String(e);
-      summaries.push({ file: path, ok: false, error: { code: 'FILE_NOT_READABLE', message: `${path}: cannot read the file (${reason})`, file: path } });
+      summaries.push({
+        file: path,
+        ok: false,
+        error: { code: 'FILE_NOT_READABLE', message: `${path}: cannot read the file (${reason})`, file: path },
+      });
       continue;
     }
     summaries.push(summarizeOutcome(path, readWaveFile(bytes, basename(path))));
@@ -67,7 +71,17 @@ export function formatTable(summaries: FileSummary[]): string {
     if (s.notes.length > 0) out.push(s.notes.map((n) => `  note: ${n}\n`).join(''));
     const rows = [['chan', 'samples', 'dt (s)', 'delay (s)', 'min', 'max', 'rms', 'receiver', 'source']];
     for (const t of s.traces) {
-      rows.push([String(t.channel), String(t.samples), num(t.sampleIntervalS), num(t.delayS), num(t.min), num(t.max), num(t.rms), pos(t.receiverLocation), pos(t.sourceLocation)]);
+      rows.push([
+        String(t.channel),
+        String(t.samples),
+        num(t.sampleIntervalS),
+        num(t.delayS),
+        num(t.min),
+        num(t.max),
+        num(t.rms),
+        pos(t.receiverLocation),
+        pos(t.sourceLocation),
+      ]);
     }
     out.push(pad(rows));
   }

@@ -11,7 +11,15 @@ import { toErrorInfo } from '../core/errors';
 import { readProjectArchive, validateProjectDocument, type OpenedProject } from '../core/io/archive';
 import { loadProject } from '../core/io/project';
 import { runPipeline } from '../core/pipeline';
-import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core/report/tables';
+import {
+  directTable,
+  intervalsTable,
+  layersTable,
+  picksTable,
+  profileTable,
+  siteJson,
+  toCsv,
+} from '../core/report/tables';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
 import type { CliIo } from './inspect';
 import type { UnitSystem } from '../core/units';
@@ -27,7 +35,9 @@ function openFolder(dir: string): OpenedProject {
   }
   const doc = validateProjectDocument(raw, dir);
   const present = new Set(readdirSync(dir));
-  const files = doc.files.filter((n) => present.has(n)).map((n) => ({ name: n, bytes: new Uint8Array(readFileSync(join(dir, n))) }));
+  const files = doc.files
+    .filter((n) => present.has(n))
+    .map((n) => ({ name: n, bytes: new Uint8Array(readFileSync(join(dir, n))) }));
   return { doc, files, missing: doc.files.filter((n) => !present.has(n)) };
 }
 
@@ -49,14 +59,17 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
         return 2;
       }
       units = u;
-    }
-    else if (a.startsWith('--')) {
+    } else if (a.startsWith('--')) {
       io.stderr.write(`profile: unknown option ${a}\n`);
       return 2;
     } else input = a;
   }
   if (!input || !out) {
-    io.stderr.write('usage: cli profile <project.zip|folder> --out <dir> [--method ' + INTERVAL_METHODS.join('|') + '] [--units SI|US] [--strict]\n');
+    io.stderr.write(
+      'usage: cli profile <project.zip|folder> --out <dir> [--method ' +
+        INTERVAL_METHODS.join('|') +
+        '] [--units SI|US] [--strict]\n',
+    );
     return 2;
   }
   if (method && !INTERVAL_METHODS.includes(method as IntervalMethod)) {
@@ -66,14 +79,22 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   let opened: OpenedProject;
   try {
     if (!existsSync(input)) throw new Error(`${input} does not exist`);
-    opened = statSync(input).isDirectory() ? openFolder(input) : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+    opened = statSync(input).isDirectory()
+      ? openFolder(input)
+      : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
   } catch (e) {
     io.stderr.write(`profile: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
     return 2;
   }
   const project = loadProject(opened, basename(input));
   const settings = method ? { ...project.settings, profileMethod: method as IntervalMethod } : project.settings;
-  const result = runPipeline({ survey: project.survey, records: project.records, settings, edits: project.edits, comparison: project.comparison });
+  const result = runPipeline({
+    survey: project.survey,
+    records: project.records,
+    settings,
+    edits: project.edits,
+    comparison: project.comparison,
+  });
   const issues = [...project.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   mkdirSync(out, { recursive: true });
@@ -81,7 +102,8 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
   writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
   writeFileSync(join(out, 'layers.csv'), toCsv(layersTable(result.derived, units)));
-  if (project.survey.kind === 'crosshole') writeFileSync(join(out, 'direct.csv'), toCsv(directTable(result.derived, units)));
+  if (project.survey.kind === 'crosshole')
+    writeFileSync(join(out, 'direct.csv'), toCsv(directTable(result.derived, units)));
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
   const v = result.derived.site.vs30;
   io.stdout.write(

@@ -10,16 +10,37 @@
  */
 import { toErrorInfo, type ErrorInfo } from './errors';
 import type { PairDelay, Pick, Survey, Wave, WaveRecord } from './model';
-import { pickEditKey, stationWaveKey, type EditablePickMethod, type IntervalMethod, type Settings, type UserEdits } from './settings';
+import {
+  pickEditKey,
+  stationWaveKey,
+  type EditablePickMethod,
+  type IntervalMethod,
+  type Settings,
+  type UserEdits,
+} from './settings';
 import { autoPickSurvey, pairDelays, type AutoPickResult, type PickingSettings } from './picking/autopick';
 import { buildStations, type Station } from './survey/stations';
 import { horizontalDistanceM } from './survey/geometry';
-import { delayRequests, intervalValues, pairKey, pairStations, type IntervalValue, type StationPair } from './velocity/intervals';
+import {
+  delayRequests,
+  intervalValues,
+  pairKey,
+  pairStations,
+  type IntervalValue,
+  type StationPair,
+} from './velocity/intervals';
 import { correctedTimeS, fitLine, intervalVelocitySdMps } from './velocity/formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './velocity/rayfit';
 import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
 import { defaultSoilColumn, validateSoilColumn } from './stiffness/stress';
-import { siteClass, timeAveragedVs, SITE_CAUTIONS, SITE_STANDARDS, type SiteClassResult, type TimeAveraged } from './stiffness/site';
+import {
+  siteClass,
+  timeAveragedVs,
+  SITE_CAUTIONS,
+  SITE_STANDARDS,
+  type SiteClassResult,
+  type TimeAveraged,
+} from './stiffness/site';
 import { siteUncertainty, type SiteUncertainty } from './stiffness/montecarlo';
 import { compareProfiles, type ComparisonProfile } from './stiffness/comparison';
 
@@ -50,8 +71,17 @@ function pickingSettings(settings: Settings): PickingSettings {
   };
 }
 
-export function autoPick(prepared: Prepared, settings: Settings, onProgress?: (done: number, total: number) => void): AutoPickResult {
-  return autoPickSurvey(prepared.stations.map((s) => s.working), delayRequests(prepared.pairs, settings), pickingSettings(settings), onProgress);
+export function autoPick(
+  prepared: Prepared,
+  settings: Settings,
+  onProgress?: (done: number, total: number) => void,
+): AutoPickResult {
+  return autoPickSurvey(
+    prepared.stations.map((s) => s.working),
+    delayRequests(prepared.pairs, settings),
+    pickingSettings(settings),
+    onProgress,
+  );
 }
 
 /**
@@ -59,7 +89,13 @@ export function autoPick(prepared: Prepared, settings: Settings, onProgress?: (d
  * directly, so the profile keeps a (longer) interval instead of a gap. Pick differences follow from
  * the picks; the delays of the new pair are measured here (two traces, well under a millisecond).
  */
-function bridgingPairs(survey: Survey, prepared: Prepared, excluded: ReadonlySet<string>, settings: Settings, issues: ErrorInfo[]): { pairs: StationPair[]; delays: PairDelay[] } {
+function bridgingPairs(
+  survey: Survey,
+  prepared: Prepared,
+  excluded: ReadonlySet<string>,
+  settings: Settings,
+  issues: ErrorInfo[],
+): { pairs: StationPair[]; delays: PairDelay[] } {
   const pairs: StationPair[] = [];
   const delays: PairDelay[] = [];
   if (survey.kind !== 'downhole' || !excluded.size) return { pairs, delays };
@@ -77,7 +113,8 @@ function bridgingPairs(survey: Survey, prepared: Prepared, excluded: ReadonlySet
         pairs.push(pair);
         try {
           const [req] = delayRequests([pair], settings);
-          for (const d of pairDelays(a.working, b.working, req, pickingSettings(settings))) delays.push({ ...d, flags: [...d.flags, 'bridges excluded station'] });
+          for (const d of pairDelays(a.working, b.working, req, pickingSettings(settings)))
+            delays.push({ ...d, flags: [...d.flags, 'bridges excluded station'] });
         } catch (e) {
           issues.push(toErrorInfo(e, key));
         }
@@ -104,10 +141,16 @@ export interface DirectVelocity {
  * surveys) and t0 the trigger delay (ASTM D4428/D4428M). Checks the interval values: a source hole
  * delay or a trigger offset shows up as near-hole direct velocities that disagree with the far hole's.
  */
-function directVelocities(survey: Survey, stations: readonly Station[], picks: readonly Pick[], settings: Settings): DirectVelocity[] {
+function directVelocities(
+  survey: Survey,
+  stations: readonly Station[],
+  picks: readonly Pick[],
+  settings: Settings,
+): DirectVelocity[] {
   if (survey.kind !== 'crosshole') return [];
   const onset = new Map<string, Pick>();
-  for (const p of picks) if (p.origin !== 'excluded' && editableMethodOf(p) === 'onset') onset.set(stationWaveKey(p.stationKey, p.wave), p);
+  for (const p of picks)
+    if (p.origin !== 'excluded' && editableMethodOf(p) === 'onset') onset.set(stationWaveKey(p.stationKey, p.wave), p);
   const out: DirectVelocity[] = [];
   for (const s of stations) {
     const p = onset.get(stationWaveKey(s.key, s.wave));
@@ -124,7 +167,17 @@ function directVelocities(survey: Survey, stations: readonly Station[], picks: r
       if (v < range[0]) flags.push('slow?');
       if (v > range[1]) flags.push('fast?');
     }
-    out.push({ stationKey: s.key, receiver: s.receiver, wave: s.wave, depthM: s.depthM, pathM: s.straightPathM, timeS: p.timeS, velocityMps: v, velocitySdMps: sd, flags });
+    out.push({
+      stationKey: s.key,
+      receiver: s.receiver,
+      wave: s.wave,
+      depthM: s.depthM,
+      pathM: s.straightPathM,
+      timeS: p.timeS,
+      velocityMps: v,
+      velocitySdMps: sd,
+      flags,
+    });
   }
   return out;
 }
@@ -236,7 +289,11 @@ export function effectivePicks(stations: readonly Station[], auto: readonly Pick
 
 function travelTimeRows(survey: Survey, stations: readonly Station[], picks: readonly Pick[]): TravelTimeRow[] {
   const byStation = new Map<string, Pick[]>();
-  for (const p of picks) byStation.set(stationWaveKey(p.stationKey, p.wave), [...(byStation.get(stationWaveKey(p.stationKey, p.wave)) ?? []), p]);
+  for (const p of picks)
+    byStation.set(stationWaveKey(p.stationKey, p.wave), [
+      ...(byStation.get(stationWaveKey(p.stationKey, p.wave)) ?? []),
+      p,
+    ]);
   return stations.map((s) => {
     const times: TravelTimeRow['times'] = {};
     for (const p of byStation.get(stationWaveKey(s.key, s.wave)) ?? []) {
@@ -245,7 +302,8 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
       const zs = s.sourcePos[2];
       times[m] = {
         timeS: p.timeS,
-        correctedS: survey.kind === 'crosshole' ? p.timeS : correctedTimeS(p.timeS, zs, s.receiverPos[2], s.straightPathM),
+        correctedS:
+          survey.kind === 'crosshole' ? p.timeS : correctedTimeS(p.timeS, zs, s.receiverPos[2], s.straightPathM),
         origin: p.origin,
       };
     }
@@ -260,26 +318,50 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
 function layerBoundaries(survey: Survey, settings: Settings, deepestM: number): number[] {
   const inner = settings.layerBoundariesM.length
     ? settings.layerBoundariesM
-    : survey.soil.layers.map((l) => l.topM).concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
+    : survey.soil.layers
+        .map((l) => l.topM)
+        .concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
   const top = Math.min(0, ...inner);
   const bottom = Math.max(deepestM, ...inner);
   return [...new Set([top, ...inner, bottom])].sort((a, b) => a - b);
 }
 
 /** Refracted-ray layer model of the downhole S onset times over the chosen layers. */
-function layerModelFor(survey: Survey, stations: readonly Station[], picks: readonly Pick[], settings: Settings): LayerModelFit | null {
+function layerModelFor(
+  survey: Survey,
+  stations: readonly Station[],
+  picks: readonly Pick[],
+  settings: Settings,
+): LayerModelFit | null {
   if (survey.kind === 'crosshole') return null;
-  const onset = new Map(picks.filter((p) => p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === 'onset').map((p) => [p.stationKey, p.timeS]));
+  const onset = new Map(
+    picks
+      .filter((p) => p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === 'onset')
+      .map((p) => [p.stationKey, p.timeS]),
+  );
   const pts = stations
     .filter((s) => s.wave === 'S' && onset.has(s.key))
     .map((s) => ({ z: s.receiverPos[2], t: onset.get(s.key)!, x: horizontalDistanceM(s.receiverPos, s.sourcePos) }))
     .sort((a, b) => a.z - b.z);
   if (pts.length < 3) return null;
-  return fitLayerModel({ depthsM: pts.map((p) => p.z), timesS: pts.map((p) => p.t), offsetsM: pts.map((p) => p.x), sourceDepthM: survey.sourceDepthM }, layerBoundaries(survey, settings, pts[pts.length - 1].z));
+  return fitLayerModel(
+    {
+      depthsM: pts.map((p) => p.z),
+      timesS: pts.map((p) => p.t),
+      offsetsM: pts.map((p) => p.x),
+      sourceDepthM: survey.sourceDepthM,
+    },
+    layerBoundaries(survey, settings, pts[pts.length - 1].z),
+  );
 }
 
 /** Travel time against path length, fitted per layer (user boundaries, else the soil layers). */
-function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Settings, method: EditablePickMethod): LayerFit[] {
+function layerFits(
+  survey: Survey,
+  rows: readonly TravelTimeRow[],
+  settings: Settings,
+  method: EditablePickMethod,
+): LayerFit[] {
   if (survey.kind === 'crosshole') return [];
   const bounds = layerBoundaries(survey, settings, Math.max(0, ...rows.map((r) => r.depthM)));
   const fits: LayerFit[] = [];
@@ -288,7 +370,10 @@ function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Set
     const ws = rows.filter((r) => r.wave === wave && (!receiver || r.receiver === receiver) && r.times[method]);
     for (let i = 0; i + 1 < bounds.length; i++) {
       const inLayer = ws.filter((r) => r.depthM >= bounds[i] - 1e-9 && r.depthM <= bounds[i + 1] + 1e-9);
-      const fit = fitLine(inLayer.map((r) => r.pathM), inLayer.map((r) => r.times[method]!.timeS));
+      const fit = fitLine(
+        inLayer.map((r) => r.pathM),
+        inLayer.map((r) => r.times[method]!.timeS),
+      );
       if (!fit || !(fit.slope > 0)) continue;
       fits.push({
         wave,
@@ -308,12 +393,19 @@ function layerFits(survey: Survey, rows: readonly TravelTimeRow[], settings: Set
 
 /** Direct times of one receiver for the given method: pick times, or (delay methods) the first onset plus cumulative delays. */
 /** Direct times of receiver stations in depth order, with the one-sigma uncertainty of each time difference from the station above. */
-function directTimesFor(stations: readonly Station[], pairs: readonly StationPair[], picks: readonly Pick[], delays: readonly PairDelay[], method: IntervalMethod): { station: Station; timeS: number; timeSdS: number }[] {
+function directTimesFor(
+  stations: readonly Station[],
+  pairs: readonly StationPair[],
+  picks: readonly Pick[],
+  delays: readonly PairDelay[],
+  method: IntervalMethod,
+): { station: Station; timeS: number; timeSdS: number }[] {
   const list = stations.filter((s) => s.wave === 'S').sort((a, b) => a.depthM - b.depthM);
   const pickIndex = new Map<string, Pick>();
   for (const p of picks) {
     const m = editableMethodOf(p);
-    if (p.wave === 'S' && p.origin !== 'excluded' && m && !pickIndex.has(`${p.stationKey}|${m}`)) pickIndex.set(`${p.stationKey}|${m}`, p);
+    if (p.wave === 'S' && p.origin !== 'excluded' && m && !pickIndex.has(`${p.stationKey}|${m}`))
+      pickIndex.set(`${p.stationKey}|${m}`, p);
   }
   const pickOf = (s: Station, m: EditablePickMethod) => pickIndex.get(`${s.key}|${m}`);
   const pairInto = new Map(pairs.filter((q) => q.wave === 'S').map((q) => [q.b.key, q]));
@@ -341,7 +433,9 @@ function directTimesFor(stations: readonly Station[], pairs: readonly StationPai
     return out;
   }
   const m: EditablePickMethod = method === 'ray-fit' ? 'onset' : method;
-  const withPicks = list.map((s) => ({ station: s, pick: pickOf(s, m) })).filter((x) => x.pick && Number.isFinite(x.pick.timeS));
+  const withPicks = list
+    .map((s) => ({ station: s, pick: pickOf(s, m) }))
+    .filter((x) => x.pick && Number.isFinite(x.pick.timeS));
   return withPicks.map((x, i) => ({
     station: x.station,
     timeS: x.pick!.timeS,
@@ -349,7 +443,13 @@ function directTimesFor(stations: readonly Station[], pairs: readonly StationPai
   }));
 }
 
-function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], delays: readonly PairDelay[], settings: Settings): { result: RayFitResult | null; byPair: Map<string, { velocityMps: number; sdMps: number }> } {
+function rayFitFor(
+  survey: Survey,
+  prepared: Prepared,
+  picks: readonly Pick[],
+  delays: readonly PairDelay[],
+  settings: Settings,
+): { result: RayFitResult | null; byPair: Map<string, { velocityMps: number; sdMps: number }> } {
   const byPair = new Map<string, { velocityMps: number; sdMps: number }>();
   if (survey.kind !== 'downhole' || !settings.rayFit) return { result: null, byPair };
   const method = settings.profileMethod === 'ray-fit' ? 'xcorr' : settings.profileMethod;
@@ -375,9 +475,21 @@ function rayFitFor(survey: Survey, prepared: Prepared, picks: readonly Pick[], d
 }
 
 /** P-interval flags that keep its Vp out of Poisson's ratio and the moduli. */
-const DOUBTFUL_VP_FLAGS = new Set(['low correlation', 'at lag bound', 'outside lag bound', 'slow?', 'fast?', 'low snr', 'no onset']);
+const DOUBTFUL_VP_FLAGS = new Set([
+  'low correlation',
+  'at lag bound',
+  'outside lag bound',
+  'slow?',
+  'fast?',
+  'low snr',
+  'no onset',
+]);
 
-function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues: ErrorInfo[]): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
+function profileRows(
+  survey: Survey,
+  intervals: readonly IntervalValue[],
+  issues: ErrorInfo[],
+): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
   const chosenS = intervals.filter((r) => r.wave === 'S' && r.chosen).sort((a, b) => a.topM - b.topM);
   const chosenP = intervals.filter((r) => r.wave === 'P' && r.chosen);
   const velocity: VelocityInterval[] = chosenS.map((s) => {
@@ -387,9 +499,20 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
     const flags = [...s.flags];
     if (doubtful.length) flags.push(`vp left out (${doubtful.join(', ')})`);
     const useVp = p && !doubtful.length;
-    return { topM: s.topM, bottomM: s.bottomM, vsMps: s.velocityMps!, vsSdMps: s.velocitySdMps ?? 0, vpMps: useVp ? p.velocityMps : null, vpSdMps: useVp ? p.velocitySdMps : null, flags };
+    return {
+      topM: s.topM,
+      bottomM: s.bottomM,
+      vsMps: s.velocityMps!,
+      vsSdMps: s.velocitySdMps ?? 0,
+      vpMps: useVp ? p.velocityMps : null,
+      vpSdMps: useVp ? p.velocitySdMps : null,
+      flags,
+    };
   });
-  const fallbackSoil = { ...defaultSoilColumn(Math.max(30, ...velocity.map((v) => v.bottomM))), waterTableM: survey.soil.waterTableM };
+  const fallbackSoil = {
+    ...defaultSoilColumn(Math.max(30, ...velocity.map((v) => v.bottomM))),
+    waterTableM: survey.soil.waterTableM,
+  };
   const soilProblems = survey.soil.layers.length ? validateSoilColumn(survey.soil) : [];
   issues.push(...soilProblems);
   // An unusable soil column must not stop the profile: moduli then use the stated defaults, flagged.
@@ -406,7 +529,13 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
     const s = chosenS[i];
     const p = chosenP.find((q) => Math.abs(q.topM - s.topM) < 1e-6 && Math.abs(q.bottomM - s.bottomM) < 1e-6);
     const vpUsed = velocity[i].vpMps !== null;
-    return { ...r, intervalKey: s.key, method: s.method, vpMethod: vpUsed ? p?.method ?? null : null, vpSdMps: velocity[i].vpSdMps };
+    return {
+      ...r,
+      intervalKey: s.key,
+      method: s.method,
+      vpMethod: vpUsed ? (p?.method ?? null) : null,
+      vpSdMps: velocity[i].vpSdMps,
+    };
   });
   return { rows, velocity };
 }
@@ -414,12 +543,20 @@ function profileRows(survey: Survey, intervals: readonly IntervalValue[], issues
 type SiteInterval = { topM: number; bottomM: number; vsMps: number; vsSdMps: number };
 
 function siteIntervals(rows: readonly SiteInterval[]): SiteInterval[] {
-  return rows.filter((v) => v.vsMps > 0).map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps, vsSdMps: v.vsSdMps }));
+  return rows
+    .filter((v) => v.vsMps > 0)
+    .map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps, vsSdMps: v.vsSdMps }));
 }
 
 function spreadOf(ivs: SiteInterval[], settings: Settings): SiteUncertainty | null {
   return ivs.length
-    ? siteUncertainty(ivs, { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed, toDepthM: 30, rule: settings.vs30Rule, answers: settings.siteAnswers })
+    ? siteUncertainty(ivs, {
+        draws: settings.monteCarloDraws,
+        seed: settings.monteCarloSeed,
+        toDepthM: 30,
+        rule: settings.vs30Rule,
+        answers: settings.siteAnswers,
+      })
     : null;
 }
 
@@ -464,7 +601,9 @@ function methodDrift(intervals: readonly IntervalValue[]): MethodDrift | null {
     e[r.method] = r.dtS;
     byKey.set(r.key, e);
   }
-  const rows = [...byKey.values()].filter((e) => e.onset !== undefined && e.xcorr !== undefined).sort((a, b) => a.depthM - b.depthM);
+  const rows = [...byKey.values()]
+    .filter((e) => e.onset !== undefined && e.xcorr !== undefined)
+    .sort((a, b) => a.depthM - b.depthM);
   if (rows.length < 5) return null;
   let cum = 0;
   let travel = 0;
@@ -499,21 +638,37 @@ export interface ComparisonResult {
   differences: { depthM: number; vsMps: number; comparisonVsMps: number; differencePct: number }[];
 }
 
-function comparisonResult(cmp: ComparisonProfile, velocity: readonly VelocityInterval[], settings: Settings): ComparisonResult {
+function comparisonResult(
+  cmp: ComparisonProfile,
+  velocity: readonly VelocityInterval[],
+  settings: Settings,
+): ComparisonResult {
   const pts = [...cmp.points].sort((a, b) => a.depthM - b.depthM);
   // Points are step tops; the last step runs to our profile's bottom or 30 m, whichever is deeper.
   const bottomM = Math.max(30, ...velocity.map((v) => v.bottomM), pts.length ? pts[pts.length - 1].depthM + 1 : 0);
-  const steps = pts.map((p, i) => ({ topM: p.depthM, bottomM: i + 1 < pts.length ? pts[i + 1].depthM : bottomM, vsMps: p.vsMps })).filter((s) => s.bottomM > s.topM);
+  const steps = pts
+    .map((p, i) => ({ topM: p.depthM, bottomM: i + 1 < pts.length ? pts[i + 1].depthM : bottomM, vsMps: p.vsMps }))
+    .filter((s) => s.bottomM > s.topM);
   return {
     name: cmp.name,
     source: cmp.source,
     vs30: steps.length ? timeAveragedVs(steps, 30, settings.vs30Rule) : null,
-    differences: compareProfiles(velocity.map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps })), cmp),
+    differences: compareProfiles(
+      velocity.map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps })),
+      cmp,
+    ),
   };
 }
 
 /** Light stage: everything that follows from the auto picks and the user's edits. */
-export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult, edits: UserEdits, settings: Settings, options: DeriveOptions = {}): Derived {
+export function derive(
+  survey: Survey,
+  prepared: Prepared,
+  auto: AutoPickResult,
+  edits: UserEdits,
+  settings: Settings,
+  options: DeriveOptions = {},
+): Derived {
   const issues: ErrorInfo[] = [...prepared.issues, ...(auto.problems ?? [])];
   const picks = effectivePicks(prepared.stations, auto.picks, edits);
   const excluded = new Set(edits.excludedStations);
@@ -525,12 +680,21 @@ export function derive(survey: Survey, prepared: Prepared, auto: AutoPickResult,
   const allDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
   // Say what an exclusion costs: the intervals that touched the station leave the profile (or are bridged).
   for (const key of edits.excludedStations) {
-    const lost = prepared.pairs.filter((p) => stationWaveKey(p.a.key, p.wave) === key || stationWaveKey(p.b.key, p.wave) === key);
+    const lost = prepared.pairs.filter(
+      (p) => stationWaveKey(p.a.key, p.wave) === key || stationWaveKey(p.b.key, p.wave) === key,
+    );
     if (!lost.length) continue;
     const spans = lost.map((p) => `${p.topM}-${p.bottomM} m`).join(', ');
-    const bridge = bridges.pairs.find((b) => lost.some((p) => p.a.key === b.a.key) && lost.some((p) => p.b.key === b.b.key));
+    const bridge = bridges.pairs.find(
+      (b) => lost.some((p) => p.a.key === b.a.key) && lost.some((p) => p.b.key === b.b.key),
+    );
     const fate = bridge ? `replaced by ${bridge.topM}-${bridge.bottomM} m` : `left out of the profile`;
-    issues.push({ code: 'STATION_EXCLUDED', message: `Station ${key.replace('|', ' (')}) is excluded: ${lost.length === 1 ? 'interval' : 'intervals'} ${spans} ${lost.length === 1 ? 'is' : 'are'} ${fate}.`, file: key, field: 'excluded' });
+    issues.push({
+      code: 'STATION_EXCLUDED',
+      message: `Station ${key.replace('|', ' (')}) is excluded: ${lost.length === 1 ? 'interval' : 'intervals'} ${spans} ${lost.length === 1 ? 'is' : 'are'} ${fate}.`,
+      file: key,
+      field: 'excluded',
+    });
   }
   const picksByStation = new Map<string, Pick[]>();
   for (const p of picks) {
@@ -585,11 +749,16 @@ export interface PipelineResult {
 }
 
 /** The whole pipeline in one call (command line, benchmark, tests). */
-export function runPipeline(input: PipelineInput, onProgress?: (stage: string, done: number, total: number) => void): PipelineResult {
+export function runPipeline(
+  input: PipelineInput,
+  onProgress?: (stage: string, done: number, total: number) => void,
+): PipelineResult {
   const prepared = prepare(input.survey, input.records, input.settings);
   onProgress?.('prepare', 1, 1);
   const auto = autoPick(prepared, input.settings, (d, t) => onProgress?.('auto-pick', d, t));
-  const derived = derive(input.survey, prepared, auto, input.edits, input.settings, { comparison: input.comparison ?? null });
+  const derived = derive(input.survey, prepared, auto, input.edits, input.settings, {
+    comparison: input.comparison ?? null,
+  });
   onProgress?.('derive', 1, 1);
   return { prepared, auto, derived };
 }

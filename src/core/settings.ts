@@ -10,7 +10,15 @@ import type { Wave } from './model';
  * the two traces, or (downhole) the refracted-ray layer fit of the direct times.
  */
 export type IntervalMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing' | 'xcorr' | 'phase' | 'ray-fit';
-export const INTERVAL_METHODS: IntervalMethod[] = ['xcorr', 'onset', 'peak', 'trough', 'zero-crossing', 'phase', 'ray-fit'];
+export const INTERVAL_METHODS: IntervalMethod[] = [
+  'xcorr',
+  'onset',
+  'peak',
+  'trough',
+  'zero-crossing',
+  'phase',
+  'ray-fit',
+];
 
 export type Vs30RuleSetting = 'no-extrapolation' | 'extend-deepest';
 

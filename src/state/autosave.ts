@@ -45,7 +45,13 @@ export interface AutosaveState {
   offer: SavedSession | null;
 }
 
-export const useAutosave = create<AutosaveState>(() => ({ status: 'waiting', savedAt: null, savedRevision: null, error: null, offer: null }));
+export const useAutosave = create<AutosaveState>(() => ({
+  status: 'waiting',
+  savedAt: null,
+  savedRevision: null,
+  error: null,
+  offer: null,
+}));
 
 let db: UseStore | null = null;
 function store(): UseStore {
@@ -103,13 +109,23 @@ async function saveNow(): Promise<void> {
       fileRefs.push({ name: f.name, key });
     }
     // 2. The session, one key in one transaction, naming only bytes already written.
-    const session: SavedSession = { savedAt: doc.savedAt, doc, namePattern: s.namePattern, unitSystem: s.unitSystem, fileCount: files.length, fileRefs };
+    const session: SavedSession = {
+      savedAt: doc.savedAt,
+      doc,
+      namePattern: s.namePattern,
+      unitSystem: s.unitSystem,
+      fileCount: files.length,
+      fileRefs,
+    };
     await set(SESSION_KEY, session, store());
     useAutosave.setState({ status: 'saved', savedAt: doc.savedAt, savedRevision: revision, error: null });
     // 3. Bytes no session names any more.
     const used = new Set(fileRefs.map((r) => r.key));
     const all = await keys<IDBValidKey>(store());
-    const stale = all.filter((k): k is string => typeof k === 'string' && (k.startsWith(FILE_PREFIX) || k === LEGACY_FILES_KEY) && !used.has(k));
+    const stale = all.filter(
+      (k): k is string =>
+        typeof k === 'string' && (k.startsWith(FILE_PREFIX) || k === LEGACY_FILES_KEY) && !used.has(k),
+    );
     if (stale.length) {
       await delMany(stale, store());
       for (const k of stale) stored.delete(k);
@@ -140,7 +156,8 @@ export function enableAutosave(): void {
   enabled = true;
   let prev = useApp.getState();
   useApp.subscribe((s) => {
-    if (s.revision !== prev.revision || s.filesRevision !== prev.filesRevision || s.unitSystem !== prev.unitSystem) schedule();
+    if (s.revision !== prev.revision || s.filesRevision !== prev.filesRevision || s.unitSystem !== prev.unitSystem)
+      schedule();
     prev = s;
   });
   useAutosave.setState({ status: 'saved' });
@@ -153,10 +170,14 @@ export async function checkForSavedSession(): Promise<void> {
   try {
     session = await get<SavedSession>(SESSION_KEY, store());
   } catch (e) {
-    useAutosave.setState({ status: 'off', error: `Autosave is not available in this browser: ${(e as Error).message}` });
+    useAutosave.setState({
+      status: 'off',
+      error: `Autosave is not available in this browser: ${(e as Error).message}`,
+    });
     return;
   }
-  if (session && (session.fileCount > 0 || session.doc.survey.records.length > 0)) useAutosave.setState({ offer: session });
+  if (session && (session.fileCount > 0 || session.doc.survey.records.length > 0))
+    useAutosave.setState({ offer: session });
   else enableAutosave();
 }
 
@@ -167,7 +188,10 @@ export async function restoreSession(): Promise<ErrorInfo | null> {
   let files: NamedBytes[] = [];
   try {
     if (offer.fileRefs) {
-      const bytes = await getMany<Uint8Array>(offer.fileRefs.map((r) => r.key), store());
+      const bytes = await getMany<Uint8Array>(
+        offer.fileRefs.map((r) => r.key),
+        store(),
+      );
       offer.fileRefs.forEach((r, i) => {
         const b = bytes[i];
         if (!b) return;
@@ -196,10 +220,15 @@ export async function restoreSession(): Promise<ErrorInfo | null> {
     return e as ErrorInfo;
   }
   const present = new Set(files.map((f) => f.name));
-  applyProject(offer.doc, { files, parsed, missing: offer.doc.files.filter((n) => !present.has(n)) }, 'the saved session', {
-    namePattern: offer.namePattern,
-    unitSystem: offer.unitSystem,
-  });
+  applyProject(
+    offer.doc,
+    { files, parsed, missing: offer.doc.files.filter((n) => !present.has(n)) },
+    'the saved session',
+    {
+      namePattern: offer.namePattern,
+      unitSystem: offer.unitSystem,
+    },
+  );
   useAutosave.setState({ offer: null });
   enableAutosave();
   return null;
@@ -210,7 +239,10 @@ export async function discardSavedSession(): Promise<void> {
   try {
     await del(SESSION_KEY, store());
     const all = await keys<IDBValidKey>(store());
-    await delMany(all.filter((k) => typeof k === 'string' && (k.startsWith(FILE_PREFIX) || k === LEGACY_FILES_KEY)), store());
+    await delMany(
+      all.filter((k) => typeof k === 'string' && (k.startsWith(FILE_PREFIX) || k === LEGACY_FILES_KEY)),
+      store(),
+    );
   } catch {
     // Nothing saved or storage unavailable: either way there is nothing to restore.
   }

@@ -6,17 +6,32 @@
 import type { Wave } from '../core/model';
 import { toErrorInfo, type ErrorInfo } from '../core/errors';
 import { parseComparisonCsv, type ComparisonProfile } from '../core/stiffness/comparison';
-import { pickEditKey, stationWaveKey, type EditablePickMethod, type IntervalMethod, type Settings, type UserEdits } from '../core/settings';
+import {
+  pickEditKey,
+  stationWaveKey,
+  type EditablePickMethod,
+  type IntervalMethod,
+  type Settings,
+  type UserEdits,
+} from '../core/settings';
 import { amend, commit, useApp, useResults, type Snapshot } from './store';
 
 /** Interval keys that use the station (as either end). */
 export function intervalsOfStation(stationKey: string, wave: Wave): string[] {
   const prepared = useResults.getState().prepared;
   if (!prepared) return [];
-  return prepared.pairs.filter((p) => p.wave === wave && (p.a.key === stationKey || p.b.key === stationKey)).map((p) => p.key);
+  return prepared.pairs
+    .filter((p) => p.wave === wave && (p.a.key === stationKey || p.b.key === stationKey))
+    .map((p) => p.key);
 }
 
-function withPick(edits: UserEdits, stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): UserEdits {
+function withPick(
+  edits: UserEdits,
+  stationKey: string,
+  wave: Wave,
+  method: EditablePickMethod,
+  timeS: number,
+): UserEdits {
   const chosen = { ...edits.chosenMethod };
   for (const k of intervalsOfStation(stationKey, wave)) chosen[k] = method as IntervalMethod;
   return { ...edits, picks: { ...edits.picks, [pickEditKey(stationKey, wave, method)]: timeS }, chosenMethod: chosen };
@@ -77,7 +92,12 @@ export function setIntervalMethod(intervalKey: string, method: IntervalMethod | 
 export function toggleIntervalExcluded(intervalKey: string): void {
   commit((s) => {
     const ex = s.edits.excludedIntervals;
-    return { edits: { ...s.edits, excludedIntervals: ex.includes(intervalKey) ? ex.filter((x) => x !== intervalKey) : [...ex, intervalKey] } };
+    return {
+      edits: {
+        ...s.edits,
+        excludedIntervals: ex.includes(intervalKey) ? ex.filter((x) => x !== intervalKey) : [...ex, intervalKey],
+      },
+    };
   });
 }
 
@@ -94,7 +114,12 @@ export function updateSurvey(change: (s: Snapshot['survey']) => Snapshot['survey
  * core's Viktorov approximation) and overlays it (one undo step). On a problem nothing changes and the
  * error is returned in plain words.
  */
-export function loadComparison(text: string, fileName: string, kind: 'vs' | 'rayleigh', poissonRatio: number): ErrorInfo | null {
+export function loadComparison(
+  text: string,
+  fileName: string,
+  kind: 'vs' | 'rayleigh',
+  poissonRatio: number,
+): ErrorInfo | null {
   let profile: ComparisonProfile;
   try {
     profile = parseComparisonCsv(text, fileName, { kind, poissonRatio });

@@ -12,7 +12,16 @@ import { ioLane } from '../worker/client';
 import { newSurvey } from './defaults';
 import type { NamedBytes, OpenedArchive, ParsedFile } from '../worker/protocol';
 import { clearRaw, rawFiles, rawRecords } from './raw';
-import { initialView, pushMessage, replaceWithoutHistory, commit, useApp, useResults, type RecordMeta, type ViewState } from './store';
+import {
+  initialView,
+  pushMessage,
+  replaceWithoutHistory,
+  commit,
+  useApp,
+  useResults,
+  type RecordMeta,
+  type ViewState,
+} from './store';
 import { runProcessing } from './processing';
 
 const ZIP_NAME = /\.zip$/i;
@@ -101,7 +110,9 @@ export async function loadFiles(files: NamedBytes[]): Promise<void> {
 
 function failStillReading(err: ErrorInfo): void {
   useApp.setState((s) => ({
-    records: s.records.map((r) => (r.status === 'reading' ? { ...r, status: 'error', error: { ...err, file: r.fileName } } : r)),
+    records: s.records.map((r) =>
+      r.status === 'reading' ? { ...r, status: 'error', error: { ...err, file: r.fileName } } : r,
+    ),
   }));
 }
 
@@ -109,12 +120,23 @@ export function removeFile(fileName: string): void {
   const meta = useApp.getState().records.find((r) => r.fileName === fileName);
   rawFiles.delete(fileName);
   if (meta) rawRecords.delete(meta.id);
-  useApp.setState((s) => ({ records: s.records.filter((r) => r.fileName !== fileName), filesRevision: s.filesRevision + 1 }));
-  if (meta) replaceWithoutHistory((s) => ({ survey: { ...s.survey, records: s.survey.records.filter((r) => r.recordId !== meta.id) } }));
+  useApp.setState((s) => ({
+    records: s.records.filter((r) => r.fileName !== fileName),
+    filesRevision: s.filesRevision + 1,
+  }));
+  if (meta)
+    replaceWithoutHistory((s) => ({
+      survey: { ...s.survey, records: s.survey.records.filter((r) => r.recordId !== meta.id) },
+    }));
 }
 
 /** Replaces the whole session with a project document and its files (archive, demo, restore). */
-export function applyProject(doc: ProjectDocument, opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing'>, archiveName: string, extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {}): void {
+export function applyProject(
+  doc: ProjectDocument,
+  opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing'>,
+  archiveName: string,
+  extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {},
+): void {
   clearRaw();
   const metas: RecordMeta[] = [];
   const bytesByName = new Map(opened.files.map((f) => [f.name, f.bytes]));
@@ -124,14 +146,31 @@ export function applyProject(doc: ProjectDocument, opened: Pick<OpenedArchive, '
     metas.push(metaFor(p.name, bytesByName.get(p.name)?.length ?? 0, p));
   }
   for (const name of opened.missing) {
-    metas.push({ id: name, fileName: name, sizeBytes: 0, status: 'error', error: { code: 'ARCHIVE_FILE_MISSING', message: `${name} is listed in project.json but is not in ${archiveName}.`, file: name } });
+    metas.push({
+      id: name,
+      fileName: name,
+      sizeBytes: 0,
+      status: 'error',
+      error: {
+        code: 'ARCHIVE_FILE_MISSING',
+        message: `${name} is listed in project.json but is not in ${archiveName}.`,
+        file: name,
+      },
+    });
   }
   // Records in the survey keep their ids; any record the archive added with a new name is placed too.
   const placed = new Set(doc.survey.records.map((r) => r.recordId));
   const unplaced = [...rawRecords.values()].filter((r) => !placed.has(r.id));
   const s = useApp.getState();
-  const added: RecordAssignment[] = unplaced.length ? assignRecords(unplaced, doc.survey.kind, extra.namePattern ?? s.namePattern, doc.survey.receiverHoleIds) : [];
-  useResults.setState({ prepared: null, auto: null, key: null, status: { state: 'idle', stage: '', done: 0, total: 0 } });
+  const added: RecordAssignment[] = unplaced.length
+    ? assignRecords(unplaced, doc.survey.kind, extra.namePattern ?? s.namePattern, doc.survey.receiverHoleIds)
+    : [];
+  useResults.setState({
+    prepared: null,
+    auto: null,
+    key: null,
+    status: { state: 'idle', stage: '', done: 0, total: 0 },
+  });
   useApp.setState((st) => ({
     survey: { ...doc.survey, records: [...doc.survey.records, ...added] },
     settings: doc.settings,
@@ -226,7 +265,7 @@ export function projectArchiveBytes(): Uint8Array {
 
 /** Reads a deviation table (CSV text) for one borehole; on a problem nothing changes and the error is returned. */
 export function loadDeviation(holeId: string, fileName: string, text: string): ErrorInfo | null {
-  let stations;
+  let stations: ReturnType<typeof readDeviationTable>;
   try {
     stations = readDeviationTable(text, fileName);
   } catch (e) {
@@ -234,8 +273,16 @@ export function loadDeviation(holeId: string, fileName: string, text: string): E
     return err.toInfo ? err.toInfo() : { code: 'DEVIATION_BAD', message: err.message ?? String(e), file: fileName };
   }
   rawFiles.set(fileName, new TextEncoder().encode(text));
-  useApp.setState((s) => ({ deviationFiles: { ...s.deviationFiles, [holeId]: fileName }, filesRevision: s.filesRevision + 1 }));
-  commit((s) => ({ survey: { ...s.survey, boreholes: s.survey.boreholes.map((h) => (h.id === holeId ? { ...h, deviation: stations } : h)) } }));
+  useApp.setState((s) => ({
+    deviationFiles: { ...s.deviationFiles, [holeId]: fileName },
+    filesRevision: s.filesRevision + 1,
+  }));
+  commit((s) => ({
+    survey: {
+      ...s.survey,
+      boreholes: s.survey.boreholes.map((h) => (h.id === holeId ? { ...h, deviation: stations } : h)),
+    },
+  }));
   return null;
 }
 
@@ -244,13 +291,23 @@ export function reassignAll(): void {
   const s = useApp.getState();
   const recs = s.survey.records.map((r) => rawRecords.get(r.recordId)).filter((r): r is WaveRecord => !!r);
   const loose = [...rawRecords.values()].filter((r) => !s.survey.records.some((a) => a.recordId === r.id));
-  commit((snap) => ({ survey: { ...snap.survey, records: assignRecords([...recs, ...loose], snap.survey.kind, s.namePattern, snap.survey.receiverHoleIds) } }));
+  commit((snap) => ({
+    survey: {
+      ...snap.survey,
+      records: assignRecords([...recs, ...loose], snap.survey.kind, s.namePattern, snap.survey.receiverHoleIds),
+    },
+  }));
 }
 
 /** Everything loaded and entered is dropped: a fresh, empty session. */
 export function startFresh(): void {
   clearRaw();
-  useResults.setState({ prepared: null, auto: null, key: null, status: { state: 'idle', stage: '', done: 0, total: 0 } });
+  useResults.setState({
+    prepared: null,
+    auto: null,
+    key: null,
+    status: { state: 'idle', stage: '', done: 0, total: 0 },
+  });
   useApp.setState((st) => ({
     survey: newSurvey(st.survey.kind),
     settings: defaultSettings(),

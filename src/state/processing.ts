@@ -13,7 +13,20 @@ import { useApp, useResults } from './store';
 
 /** Settings that change the working traces or the automatic picks. */
 function processingSettings(s: Settings): unknown {
-  return [s.detrend, s.taperFraction, s.bandpassS, s.bandpassP, s.useReversedHits, s.onsetMethod, s.staS, s.ltaS, s.staLtaThreshold, s.phaseBandHz, s.vsRangeMps, s.vpRangeMps];
+  return [
+    s.detrend,
+    s.taperFraction,
+    s.bandpassS,
+    s.bandpassP,
+    s.useReversedHits,
+    s.onsetMethod,
+    s.staS,
+    s.ltaS,
+    s.staLtaThreshold,
+    s.phaseBandHz,
+    s.vsRangeMps,
+    s.vpRangeMps,
+  ];
 }
 
 export function processingKey(survey: Survey, settings: Settings, loadedIds: string[]): string {
@@ -45,7 +58,8 @@ export async function runProcessing(): Promise<void> {
   let result: { prepared: Prepared; auto: AutoPickResult } | null = null;
   try {
     await processLane.run({ type: 'process', survey, records, settings }, (m) => {
-      if (m.type === 'progress') useResults.setState({ status: { state: 'running', stage: m.stage, done: m.done, total: m.total } });
+      if (m.type === 'progress')
+        useResults.setState({ status: { state: 'running', stage: m.stage, done: m.done, total: m.total } });
       if (m.type === 'processed') {
         result = { prepared: m.prepared, auto: m.auto };
         return true;
@@ -56,13 +70,26 @@ export async function runProcessing(): Promise<void> {
     const err = e as { code?: string; message?: string };
     if (err.code === 'CANCELLED') return;
     runningKey = null;
-    useResults.setState({ status: { state: 'failed', stage: '', done: 0, total: 0, error: { code: err.code ?? 'INTERNAL', message: err.message ?? String(e) } } });
+    useResults.setState({
+      status: {
+        state: 'failed',
+        stage: '',
+        done: 0,
+        total: 0,
+        error: { code: err.code ?? 'INTERNAL', message: err.message ?? String(e) },
+      },
+    });
     return;
   }
   runningKey = null;
   if (result) {
     const r = result as { prepared: Prepared; auto: AutoPickResult };
-    useResults.setState({ prepared: r.prepared, auto: r.auto, key, status: { state: 'done', stage: '', done: 1, total: 1, elapsedMs: performance.now() - t0 } });
+    useResults.setState({
+      prepared: r.prepared,
+      auto: r.auto,
+      key,
+      status: { state: 'done', stage: '', done: 1, total: 1, elapsedMs: performance.now() - t0 },
+    });
   }
 }
 
@@ -88,7 +115,8 @@ export function scheduleProcessing(delayMs = 400): void {
 export function watchProcessing(): () => void {
   let prev = useApp.getState();
   return useApp.subscribe((s) => {
-    if (s.survey !== prev.survey || s.settings !== prev.settings || s.filesRevision !== prev.filesRevision) scheduleProcessing();
+    if (s.survey !== prev.survey || s.settings !== prev.settings || s.filesRevision !== prev.filesRevision)
+      scheduleProcessing();
     prev = s;
   });
 }

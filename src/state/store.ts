@@ -167,7 +167,13 @@ export function undo(): void {
   useApp.setState((s) => {
     const prev = s.past[s.past.length - 1];
     if (!prev) return {};
-    return { ...prev, past: s.past.slice(0, -1), future: [snapshot(s), ...s.future], revision: s.revision + 1, view: { ...s.view, notice: 'Undone.' } };
+    return {
+      ...prev,
+      past: s.past.slice(0, -1),
+      future: [snapshot(s), ...s.future],
+      revision: s.revision + 1,
+      view: { ...s.view, notice: 'Undone.' },
+    };
   });
 }
 
@@ -175,7 +181,13 @@ export function redo(): void {
   useApp.setState((s) => {
     const next = s.future[0];
     if (!next) return {};
-    return { ...next, past: [...s.past, snapshot(s)], future: s.future.slice(1), revision: s.revision + 1, view: { ...s.view, notice: 'Redone.' } };
+    return {
+      ...next,
+      past: [...s.past, snapshot(s)],
+      future: s.future.slice(1),
+      revision: s.revision + 1,
+      view: { ...s.view, notice: 'Redone.' },
+    };
   });
 }
 

@@ -167,10 +167,18 @@ function TopBar() {
       </span>
       <span className="kind">{TEST_KIND_NAMES[survey.kind]}</span>
       <span className="seg" role="group" aria-label="Units">
-        <button className={units === 'SI' ? 'on' : ''} aria-pressed={units === 'SI'} onClick={() => setUnitSystem('SI')}>
+        <button
+          className={units === 'SI' ? 'on' : ''}
+          aria-pressed={units === 'SI'}
+          onClick={() => setUnitSystem('SI')}
+        >
           SI
         </button>
-        <button className={units === 'US' ? 'on' : ''} aria-pressed={units === 'US'} onClick={() => setUnitSystem('US')}>
+        <button
+          className={units === 'US' ? 'on' : ''}
+          aria-pressed={units === 'US'}
+          onClick={() => setUnitSystem('US')}
+        >
           US
         </button>
       </span>
@@ -197,7 +205,8 @@ function TopBar() {
       <span className="proc" data-testid="process-status" data-state={status.state}>
         {status.state === 'running' ? (
           <>
-            {status.stage === 'auto-pick' ? 'auto-picking' : 'preparing'} <progress max={status.total || 1} value={status.done} />{' '}
+            {status.stage === 'auto-pick' ? 'auto-picking' : 'preparing'}{' '}
+            <progress max={status.total || 1} value={status.done} />{' '}
             <button className="link" onClick={cancelProcessing}>
               cancel
             </button>
@@ -210,7 +219,10 @@ function TopBar() {
           'auto-pick stopped'
         ) : null}
       </span>
-      <button onClick={() => void runProcessing()} title="Run the automatic picker again on every trace (your edits are kept)">
+      <button
+        onClick={() => void runProcessing()}
+        title="Run the automatic picker again on every trace (your edits are kept)"
+      >
         Auto-pick
       </button>
       <span className="spacer" />
@@ -239,7 +251,8 @@ function RestoreBanner() {
   if (!offer) return null;
   return (
     <div className="banner" role="alert" data-testid="restore-banner">
-      A session saved on this computer at {new Date(offer.savedAt).toLocaleString()} ({offer.doc.survey.name}, {offer.fileCount} files) can be restored.{' '}
+      A session saved on this computer at {new Date(offer.savedAt).toLocaleString()} ({offer.doc.survey.name},{' '}
+      {offer.fileCount} files) can be restored.{' '}
       <button
         onClick={async () => {
           const err = await restoreSession();
@@ -288,19 +301,32 @@ function PrintSummary() {
   return <PrintBody d={d} survey={survey} settings={settings} units={units} />;
 }
 
-const PrintBody = memo(function PrintBody({ d, survey, settings, units }: { d: Derived | null; survey: Survey; settings: Settings; units: UnitSystem }) {
+const PrintBody = memo(function PrintBody({
+  d,
+  survey,
+  settings,
+  units,
+}: {
+  d: Derived | null;
+  survey: Survey;
+  settings: Settings;
+  units: UnitSystem;
+}) {
   const v = label('velocity', units);
   const dep = label('depth', units);
   return (
     <div className="print-summary" aria-hidden="true">
       <h1>{survey.name}</h1>
       <p>
-        {TEST_KIND_NAMES[survey.kind]} · {survey.records.filter((r) => !r.excluded).length} records · printed {new Date().toLocaleString()}
+        {TEST_KIND_NAMES[survey.kind]} · {survey.records.filter((r) => !r.excluded).length} records · printed{' '}
+        {new Date().toLocaleString()}
       </p>
       <h2>Settings</h2>
       <p>
-        Profile method: {METHOD_WORDS[settings.profileMethod]} · onset picker: {settings.onsetMethod} · reversed hits: {settings.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
-        {settings.bandpassS ? `${settings.bandpassS.lowHz}-${settings.bandpassS.highHz} Hz` : 'none'} · source offset {fmt('depth', units, survey.sourceOffsetM)} {dep} · water table{' '}
+        Profile method: {METHOD_WORDS[settings.profileMethod]} · onset picker: {settings.onsetMethod} · reversed hits:{' '}
+        {settings.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
+        {settings.bandpassS ? `${settings.bandpassS.lowHz}-${settings.bandpassS.highHz} Hz` : 'none'} · source offset{' '}
+        {fmt('depth', units, survey.sourceOffsetM)} {dep} · water table{' '}
         {survey.soil.waterTableM === null ? 'none' : `${fmt('depth', units, survey.soil.waterTableM)} ${dep}`}
       </p>
       <h2>Profile</h2>
@@ -337,7 +363,9 @@ const PrintBody = memo(function PrintBody({ d, survey, settings, units }: { d: D
       <h2>Site</h2>
       <p>
         Vs30 = {fmt('velocity', units, d?.site.vs30?.vsMps)} {v}
-        {d?.site.uncertainty ? ` (P05 ${fmt('velocity', units, d.site.uncertainty.vs30P05Mps)}, P95 ${fmt('velocity', units, d.site.uncertainty.vs30P95Mps)})` : ''}
+        {d?.site.uncertainty
+          ? ` (P05 ${fmt('velocity', units, d.site.uncertainty.vs30P05Mps)}, P95 ${fmt('velocity', units, d.site.uncertainty.vs30P95Mps)})`
+          : ''}
       </p>
       <ul>
         {(d?.site.classes ?? []).map((c) => (
@@ -383,10 +411,20 @@ export function App() {
         <RecordsPane />
         <div className="centre">
           <nav className="tabs" role="tablist">
-            <button role="tab" aria-selected={view.centre === 'traces'} className={view.centre === 'traces' ? 'on' : ''} onClick={() => setView({ centre: 'traces' })}>
+            <button
+              role="tab"
+              aria-selected={view.centre === 'traces'}
+              className={view.centre === 'traces' ? 'on' : ''}
+              onClick={() => setView({ centre: 'traces' })}
+            >
               Trace board
             </button>
-            <button role="tab" aria-selected={view.centre === 'geometry'} className={view.centre === 'geometry' ? 'on' : ''} onClick={() => setView({ centre: 'geometry' })}>
+            <button
+              role="tab"
+              aria-selected={view.centre === 'geometry'}
+              className={view.centre === 'geometry' ? 'on' : ''}
+              onClick={() => setView({ centre: 'geometry' })}
+            >
               Geometry
             </button>
           </nav>

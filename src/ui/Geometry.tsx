@@ -4,7 +4,15 @@
  * processing settings. The records table takes a paste of tab-separated rows from a spreadsheet.
  */
 import { useEffect, useState } from 'react';
-import type { Borehole, ChannelAssignment, Component, HitDirection, RecordAssignment, SoilLayer, TestKind } from '../core/model';
+import type {
+  Borehole,
+  ChannelAssignment,
+  Component,
+  HitDirection,
+  RecordAssignment,
+  SoilLayer,
+  TestKind,
+} from '../core/model';
 import type { BandpassSetting, Settings } from '../core/settings';
 import { STRESS_EXPONENT_CHOICES } from '../core/stiffness/normalise';
 import { DEFAULT_NAME_PATTERN, defaultChannels } from '../core/survey/assign';
@@ -20,7 +28,19 @@ const HITS: HitDirection[] = ['left', 'right', 'up', 'down', 'none'];
 const COMPONENTS: Component[] = ['H1', 'H2', 'V'];
 
 /** Text field that commits on Enter or leaving the field (one undo step per entry, not per key). */
-function Field({ value, onCommit, width = 6, ariaLabel, placeholder }: { value: string; onCommit: (text: string) => void; width?: number; ariaLabel?: string; placeholder?: string }) {
+function Field({
+  value,
+  onCommit,
+  width = 6,
+  ariaLabel,
+  placeholder,
+}: {
+  value: string;
+  onCommit: (text: string) => void;
+  width?: number;
+  ariaLabel?: string;
+  placeholder?: string;
+}) {
   const [text, setText] = useState(value);
   useEffect(() => setText(value), [value]);
   return (
@@ -40,7 +60,23 @@ function Field({ value, onCommit, width = 6, ariaLabel, placeholder }: { value: 
   );
 }
 
-function QtyField({ kind, si, units, onCommit, allowEmpty = false, ariaLabel, decimals }: { kind: QuantityKind; si: number | null; units: UnitSystem; onCommit: (si: number | null) => void; allowEmpty?: boolean; ariaLabel?: string; decimals?: number }) {
+function QtyField({
+  kind,
+  si,
+  units,
+  onCommit,
+  allowEmpty = false,
+  ariaLabel,
+  decimals,
+}: {
+  kind: QuantityKind;
+  si: number | null;
+  units: UnitSystem;
+  onCommit: (si: number | null) => void;
+  allowEmpty?: boolean;
+  ariaLabel?: string;
+  decimals?: number;
+}) {
   return (
     <Field
       value={si === null ? '' : fmt(kind, units, si, decimals ?? (kind === 'depth' ? 3 : undefined))}
@@ -54,7 +90,15 @@ function QtyField({ kind, si, units, onCommit, allowEmpty = false, ariaLabel, de
   );
 }
 
-function NumField({ value, onCommit, ariaLabel }: { value: number; onCommit: (v: number) => void; ariaLabel?: string }) {
+function NumField({
+  value,
+  onCommit,
+  ariaLabel,
+}: {
+  value: number;
+  onCommit: (v: number) => void;
+  ariaLabel?: string;
+}) {
   return (
     <Field
       value={String(value)}
@@ -75,8 +119,18 @@ function NumField({ value, onCommit, ariaLabel }: { value: number; onCommit: (v:
 function changeKind(kind: TestKind): void {
   updateSurvey((s) => {
     const blank = newSurvey(kind);
-    const holesFit = kind === 'crosshole' ? s.boreholes.length >= 3 && s.receiverHoleIds.length >= 2 : s.boreholes.some((h) => h.id === s.mainHoleId);
-    const geometry = holesFit ? {} : { boreholes: blank.boreholes, mainHoleId: blank.mainHoleId, receiverHoleIds: blank.receiverHoleIds, sourceOffsetM: blank.sourceOffsetM };
+    const holesFit =
+      kind === 'crosshole'
+        ? s.boreholes.length >= 3 && s.receiverHoleIds.length >= 2
+        : s.boreholes.some((h) => h.id === s.mainHoleId);
+    const geometry = holesFit
+      ? {}
+      : {
+          boreholes: blank.boreholes,
+          mainHoleId: blank.mainHoleId,
+          receiverHoleIds: blank.receiverHoleIds,
+          sourceOffsetM: blank.sourceOffsetM,
+        };
     const receiverHoleIds = holesFit ? s.receiverHoleIds : blank.receiverHoleIds;
     const records = s.records.map((r) => {
       const rec = rawRecords.get(r.recordId);
@@ -87,24 +141,51 @@ function changeKind(kind: TestKind): void {
 }
 
 function setRecord(id: string, patch: Partial<RecordAssignment>): void {
-  updateSurvey((s) => ({ ...s, records: s.records.map((r) => (r.recordId === id ? { ...r, ...patch, assignedBy: 'manual' } : r)) }));
+  updateSurvey((s) => ({
+    ...s,
+    records: s.records.map((r) => (r.recordId === id ? { ...r, ...patch, assignedBy: 'manual' } : r)),
+  }));
 }
 
 function setChannel(id: string, channel: number, patch: Partial<ChannelAssignment>): void {
   updateSurvey((s) => ({
     ...s,
-    records: s.records.map((r) => (r.recordId === id ? { ...r, channels: r.channels.map((c) => (c.channel === channel ? { ...c, ...patch } : c)) } : r)),
+    records: s.records.map((r) =>
+      r.recordId === id
+        ? { ...r, channels: r.channels.map((c) => (c.channel === channel ? { ...c, ...patch } : c)) }
+        : r,
+    ),
   }));
 }
 
-const HIT_WORDS: Record<string, HitDirection> = { l: 'left', left: 'left', r: 'right', right: 'right', u: 'up', up: 'up', d: 'down', down: 'down', '': 'none', none: 'none', '-': 'none' };
+const HIT_WORDS: Record<string, HitDirection> = {
+  l: 'left',
+  left: 'left',
+  r: 'right',
+  right: 'right',
+  u: 'up',
+  up: 'up',
+  d: 'down',
+  down: 'down',
+  '': 'none',
+  none: 'none',
+  '-': 'none',
+};
 
 /**
  * Applies pasted spreadsheet rows: record name (or row order when no name matches), depth in display
  * units, hit, then optional component / receiver pairs per channel. Returns a summary for the user.
  */
-export function applyPaste(text: string, records: RecordAssignment[], units: UnitSystem): { records: RecordAssignment[]; changed: number; problems: string[] } {
-  const rows = text.replace(/\r/g, '').split('\n').filter((l) => l.trim() !== '').map((l) => l.split('\t'));
+export function applyPaste(
+  text: string,
+  records: RecordAssignment[],
+  units: UnitSystem,
+): { records: RecordAssignment[]; changed: number; problems: string[] } {
+  const rows = text
+    .replace(/\r/g, '')
+    .split('\n')
+    .filter((l) => l.trim() !== '')
+    .map((l) => l.split('\t'));
   const out = records.map((r) => ({ ...r, channels: r.channels.map((c) => ({ ...c })) }));
   const problems: string[] = [];
   const byName = new Map(out.map((r, i) => [r.recordId.toLowerCase(), i]));
@@ -117,7 +198,8 @@ export function applyPaste(text: string, records: RecordAssignment[], units: Uni
       idx = byName.get((cells[0] ?? '').trim().toLowerCase());
       c = cells.slice(1);
       if (idx === undefined) {
-        if (n > 0 || !/depth|record|file/i.test(cells.join(' '))) problems.push(`Row ${n + 1}: no record named "${cells[0]}".`);
+        if (n > 0 || !/depth|record|file/i.test(cells.join(' ')))
+          problems.push(`Row ${n + 1}: no record named "${cells[0]}".`);
         return;
       }
     } else {
@@ -154,7 +236,8 @@ export function applyPaste(text: string, records: RecordAssignment[], units: Uni
 function RecordsTable({ units }: { units: UnitSystem }) {
   const survey = useApp((s) => s.survey);
   const [pasteNote, setPasteNote] = useState<string | null>(null);
-  const receivers = survey.kind === 'downhole' ? ['R'] : survey.kind === 'downhole-pair' ? ['upper', 'lower'] : survey.receiverHoleIds;
+  const receivers =
+    survey.kind === 'downhole' ? ['R'] : survey.kind === 'downhole-pair' ? ['upper', 'lower'] : survey.receiverHoleIds;
   const maxCh = Math.max(0, ...survey.records.map((r) => r.channels.length));
   const dep = label('depth', units);
   return (
@@ -190,28 +273,52 @@ function RecordsTable({ units }: { units: UnitSystem }) {
             <tr key={r.recordId} className={r.excluded ? 'off' : ''}>
               <td className="text">{r.recordId}</td>
               <td>
-                <QtyField kind="depth" units={units} si={r.depthM} allowEmpty onCommit={(v) => setRecord(r.recordId, { depthM: v })} ariaLabel={`Depth of ${r.recordId}`} />
+                <QtyField
+                  kind="depth"
+                  units={units}
+                  si={r.depthM}
+                  allowEmpty
+                  onCommit={(v) => setRecord(r.recordId, { depthM: v })}
+                  ariaLabel={`Depth of ${r.recordId}`}
+                />
               </td>
               <td>
-                <select value={r.hit} onChange={(e) => setRecord(r.recordId, { hit: e.target.value as HitDirection })} aria-label={`Hit of ${r.recordId}`}>
+                <select
+                  value={r.hit}
+                  onChange={(e) => setRecord(r.recordId, { hit: e.target.value as HitDirection })}
+                  aria-label={`Hit of ${r.recordId}`}
+                >
                   {HITS.map((h) => (
                     <option key={h}>{h}</option>
                   ))}
                 </select>
               </td>
               <td>
-                <input type="checkbox" checked={!r.excluded} onChange={(e) => setRecord(r.recordId, { excluded: !e.target.checked })} aria-label={`Use ${r.recordId}`} />
+                <input
+                  type="checkbox"
+                  checked={!r.excluded}
+                  onChange={(e) => setRecord(r.recordId, { excluded: !e.target.checked })}
+                  aria-label={`Use ${r.recordId}`}
+                />
               </td>
               <td className="muted">{r.assignedBy === 'filename' ? 'file name' : r.assignedBy}</td>
               {r.channels.map((c) => (
                 <td key={c.channel} className="chan">
-                  <select value={c.component} onChange={(e) => setChannel(r.recordId, c.channel, { component: e.target.value as Component })} aria-label={`Component of channel ${c.channel}`}>
+                  <select
+                    value={c.component}
+                    onChange={(e) => setChannel(r.recordId, c.channel, { component: e.target.value as Component })}
+                    aria-label={`Component of channel ${c.channel}`}
+                  >
                     {COMPONENTS.map((k) => (
                       <option key={k}>{k}</option>
                     ))}
                   </select>
                   @
-                  <select value={c.receiver} onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value })} aria-label={`Receiver of channel ${c.channel}`}>
+                  <select
+                    value={c.receiver}
+                    onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value })}
+                    aria-label={`Receiver of channel ${c.channel}`}
+                  >
                     {[...new Set([...receivers, c.receiver])].map((k) => (
                       <option key={k}>{k}</option>
                     ))}
@@ -223,7 +330,8 @@ function RecordsTable({ units }: { units: UnitSystem }) {
         </tbody>
       </table>
       <p className="small muted">
-        Paste rows from a spreadsheet here (tab-separated): record, depth ({dep}), hit, then component and receiver for each channel. Without record names the rows apply in order.
+        Paste rows from a spreadsheet here (tab-separated): record, depth ({dep}), hit, then component and receiver for
+        each channel. Without record names the rows apply in order.
       </p>
     </div>
   );
@@ -234,19 +342,34 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
   const [paste, setPaste] = useState(false);
   const [text, setText] = useState('');
   const [err, setErr] = useState<string | null>(null);
-  const setHole = (patch: Partial<Borehole>) => updateSurvey((s) => ({ ...s, boreholes: s.boreholes.map((h) => (h.id === hole.id ? { ...h, ...patch } : h)) }));
+  const setHole = (patch: Partial<Borehole>) =>
+    updateSurvey((s) => ({ ...s, boreholes: s.boreholes.map((h) => (h.id === hole.id ? { ...h, ...patch } : h)) }));
   return (
     <>
       <tr>
         <td className="text">{hole.id}</td>
         <td>
-          <QtyField kind="depth" units={units} si={hole.collarEastM} onCommit={(v) => setHole({ collarEastM: v ?? 0 })} ariaLabel={`${hole.id} collar east`} />
+          <QtyField
+            kind="depth"
+            units={units}
+            si={hole.collarEastM}
+            onCommit={(v) => setHole({ collarEastM: v ?? 0 })}
+            ariaLabel={`${hole.id} collar east`}
+          />
         </td>
         <td>
-          <QtyField kind="depth" units={units} si={hole.collarNorthM} onCommit={(v) => setHole({ collarNorthM: v ?? 0 })} ariaLabel={`${hole.id} collar north`} />
+          <QtyField
+            kind="depth"
+            units={units}
+            si={hole.collarNorthM}
+            onCommit={(v) => setHole({ collarNorthM: v ?? 0 })}
+            ariaLabel={`${hole.id} collar north`}
+          />
         </td>
         <td>
-          {hole.deviation.length ? `${hole.deviation.length} stations to ${fmt('depth', units, hole.deviation[hole.deviation.length - 1].depthAlongM)} ${label('depth', units)}` : 'vertical'}
+          {hole.deviation.length
+            ? `${hole.deviation.length} stations to ${fmt('depth', units, hole.deviation[hole.deviation.length - 1].depthAlongM)} ${label('depth', units)}`
+            : 'vertical'}
           {devFile ? <span className="muted"> ({devFile})</span> : null}
         </td>
         <td>
@@ -274,7 +397,13 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
           <td colSpan={5}>
             {paste && (
               <div className="paste-box">
-                <textarea rows={5} cols={50} value={text} onChange={(e) => setText(e.target.value)} placeholder="depth_along_m, east_m, north_m (header with units, one station a line)" />
+                <textarea
+                  rows={5}
+                  cols={50}
+                  value={text}
+                  onChange={(e) => setText(e.target.value)}
+                  placeholder="depth_along_m, east_m, north_m (header with units, one station a line)"
+                />
                 <button
                   onClick={() => {
                     const problem = loadDeviation(hole.id, `${hole.id}-deviation.csv`, text);
@@ -297,7 +426,8 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
 function SoilTable({ units }: { units: UnitSystem }) {
   const soil = useApp((s) => s.survey.soil);
   const setLayers = (layers: SoilLayer[]) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, layers } }));
-  const setLayer = (i: number, patch: Partial<SoilLayer>) => setLayers(soil.layers.map((l, j) => (j === i ? { ...l, ...patch } : l)));
+  const setLayer = (i: number, patch: Partial<SoilLayer>) =>
+    setLayers(soil.layers.map((l, j) => (j === i ? { ...l, ...patch } : l)));
   const dep = label('depth', units);
   return (
     <>
@@ -320,18 +450,32 @@ function SoilTable({ units }: { units: UnitSystem }) {
                 <QtyField kind="depth" units={units} si={l.topM} onCommit={(v) => setLayer(i, { topM: v ?? 0 })} />
               </td>
               <td>
-                <QtyField kind="depth" units={units} si={l.bottomM} onCommit={(v) => setLayer(i, { bottomM: v ?? l.bottomM })} />
+                <QtyField
+                  kind="depth"
+                  units={units}
+                  si={l.bottomM}
+                  onCommit={(v) => setLayer(i, { bottomM: v ?? l.bottomM })}
+                />
               </td>
               <td>
                 <Field value={l.name} width={18} onCommit={(t) => setLayer(i, { name: t })} />
               </td>
               <td>
-                <QtyField kind="unitWeight" units={units} si={l.unitWeightKnM3} onCommit={(v) => v !== null && setLayer(i, { unitWeightKnM3: v })} />
+                <QtyField
+                  kind="unitWeight"
+                  units={units}
+                  si={l.unitWeightKnM3}
+                  onCommit={(v) => v !== null && setLayer(i, { unitWeightKnM3: v })}
+                />
               </td>
               <td>
                 <select
-                  value={STRESS_EXPONENT_CHOICES.some((c) => c.n === l.stressExponent) ? String(l.stressExponent) : 'other'}
-                  onChange={(e) => e.target.value !== 'other' && setLayer(i, { stressExponent: Number(e.target.value) })}
+                  value={
+                    STRESS_EXPONENT_CHOICES.some((c) => c.n === l.stressExponent) ? String(l.stressExponent) : 'other'
+                  }
+                  onChange={(e) =>
+                    e.target.value !== 'other' && setLayer(i, { stressExponent: Number(e.target.value) })
+                  }
                   title={STRESS_EXPONENT_CHOICES.find((c) => c.n === l.stressExponent)?.source}
                 >
                   {STRESS_EXPONENT_CHOICES.map((c) => (
@@ -344,7 +488,11 @@ function SoilTable({ units }: { units: UnitSystem }) {
                 <NumField value={l.stressExponent} onCommit={(v) => setLayer(i, { stressExponent: v })} ariaLabel="n" />
               </td>
               <td>
-                <NumField value={l.poissonRatio} onCommit={(v) => setLayer(i, { poissonRatio: v })} ariaLabel="Poisson's ratio" />
+                <NumField
+                  value={l.poissonRatio}
+                  onCommit={(v) => setLayer(i, { poissonRatio: v })}
+                  ariaLabel="Poisson's ratio"
+                />
               </td>
               <td>
                 <button className="link" onClick={() => setLayers(soil.layers.filter((_, j) => j !== i))}>
@@ -359,30 +507,69 @@ function SoilTable({ units }: { units: UnitSystem }) {
         onClick={() => {
           const last = soil.layers[soil.layers.length - 1];
           const top = last ? last.bottomM : 0;
-          setLayers([...soil.layers, { topM: top, bottomM: top + 5, name: `Layer ${soil.layers.length + 1}`, unitWeightKnM3: 19, stressExponent: 0.25, poissonRatio: 0.3 }]);
+          setLayers([
+            ...soil.layers,
+            {
+              topM: top,
+              bottomM: top + 5,
+              name: `Layer ${soil.layers.length + 1}`,
+              unitWeightKnM3: 19,
+              stressExponent: 0.25,
+              poissonRatio: 0.3,
+            },
+          ]);
         }}
       >
         Add layer
       </button>{' '}
       <label>
         Water table depth ({dep}){' '}
-        <QtyField kind="depth" units={units} si={soil.waterTableM} allowEmpty onCommit={(v) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, waterTableM: v } }))} ariaLabel="Water table depth" />
+        <QtyField
+          kind="depth"
+          units={units}
+          si={soil.waterTableM}
+          allowEmpty
+          onCommit={(v) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, waterTableM: v } }))}
+          ariaLabel="Water table depth"
+        />
       </label>{' '}
       <span className="small muted">(empty = none). Without layers a default column is used for stresses.</span>
     </>
   );
 }
 
-function BandField({ title, value, onChange }: { title: string; value: BandpassSetting | null; onChange: (v: BandpassSetting | null) => void }) {
+function BandField({
+  title,
+  value,
+  onChange,
+}: {
+  title: string;
+  value: BandpassSetting | null;
+  onChange: (v: BandpassSetting | null) => void;
+}) {
   return (
     <label>
       {title}{' '}
-      <input type="checkbox" checked={!!value} onChange={(e) => onChange(e.target.checked ? { lowHz: 10, highHz: 400, order: 2 } : null)} />
+      <input
+        type="checkbox"
+        checked={!!value}
+        onChange={(e) => onChange(e.target.checked ? { lowHz: 10, highHz: 400, order: 2 } : null)}
+      />
       {value && (
         <>
           {' '}
-          <NumField value={value.lowHz} onCommit={(v) => onChange({ ...value, lowHz: v })} ariaLabel={`${title} low Hz`} />–
-          <NumField value={value.highHz} onCommit={(v) => onChange({ ...value, highHz: v })} ariaLabel={`${title} high Hz`} /> Hz
+          <NumField
+            value={value.lowHz}
+            onCommit={(v) => onChange({ ...value, lowHz: v })}
+            ariaLabel={`${title} low Hz`}
+          />
+          –
+          <NumField
+            value={value.highHz}
+            onCommit={(v) => onChange({ ...value, highHz: v })}
+            ariaLabel={`${title} high Hz`}
+          />{' '}
+          Hz
         </>
       )}
     </label>
@@ -412,7 +599,12 @@ function LayerBoundariesField({ settings, units }: { settings: Settings; units: 
           updateSettings({ layerBoundariesM: [...new Set(parts as number[])].sort((a, b) => a - b) });
         }}
       />
-      {problem && <span className="field-error" role="alert"> {problem}</span>}
+      {problem && (
+        <span className="field-error" role="alert">
+          {' '}
+          {problem}
+        </span>
+      )}
     </label>
   );
 }
@@ -434,14 +626,30 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
   );
   return (
     <div className="form-grid">
-      <BandField title="Band-pass for S" value={settings.bandpassS} onChange={(b) => updateSettings({ bandpassS: b })} />
-      <BandField title="Band-pass for P" value={settings.bandpassP} onChange={(b) => updateSettings({ bandpassP: b })} />
+      <BandField
+        title="Band-pass for S"
+        value={settings.bandpassS}
+        onChange={(b) => updateSettings({ bandpassS: b })}
+      />
+      <BandField
+        title="Band-pass for P"
+        value={settings.bandpassP}
+        onChange={(b) => updateSettings({ bandpassP: b })}
+      />
       <label>
-        <input type="checkbox" checked={settings.useReversedHits} onChange={(e) => updateSettings({ useReversedHits: e.target.checked })} /> Use reversed hits (difference for S, sum for P)
+        <input
+          type="checkbox"
+          checked={settings.useReversedHits}
+          onChange={(e) => updateSettings({ useReversedHits: e.target.checked })}
+        />{' '}
+        Use reversed hits (difference for S, sum for P)
       </label>
       <label>
         Onset picker{' '}
-        <select value={settings.onsetMethod} onChange={(e) => updateSettings({ onsetMethod: e.target.value as Settings['onsetMethod'] })}>
+        <select
+          value={settings.onsetMethod}
+          onChange={(e) => updateSettings({ onsetMethod: e.target.value as Settings['onsetMethod'] })}
+        >
           <option value="aic">AIC (Maeda 1985)</option>
           <option value="stalta">STA/LTA (Allen 1978)</option>
         </select>
@@ -453,15 +661,29 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
         Plausible Vp ({v}) {range('vpRangeMps', 0)}–{range('vpRangeMps', 1)}
       </label>
       <label>
-        <input type="checkbox" checked={settings.rayFit} onChange={(e) => updateSettings({ rayFit: e.target.checked })} /> Refracted-ray layer fit (downhole)
+        <input
+          type="checkbox"
+          checked={settings.rayFit}
+          onChange={(e) => updateSettings({ rayFit: e.target.checked })}
+        />{' '}
+        Refracted-ray layer fit (downhole)
       </label>
       <label>
         Trigger delay t0 for crosshole direct velocities, V = D / (t − t0) (ms){' '}
-        <NumField value={settings.triggerDelayS * 1000} onCommit={(x) => updateSettings({ triggerDelayS: x / 1000 })} ariaLabel="Trigger delay" />
+        <NumField
+          value={settings.triggerDelayS * 1000}
+          onCommit={(x) => updateSettings({ triggerDelayS: x / 1000 })}
+          ariaLabel="Trigger delay"
+        />
       </label>
       <LayerBoundariesField settings={settings} units={units} />
       <label>
-        Flag when methods differ by more than <NumField value={Math.round(settings.methodDisagreementShare * 100)} onCommit={(x) => updateSettings({ methodDisagreementShare: x / 100 })} /> %
+        Flag when methods differ by more than{' '}
+        <NumField
+          value={Math.round(settings.methodDisagreementShare * 100)}
+          onCommit={(x) => updateSettings({ methodDisagreementShare: x / 100 })}
+        />{' '}
+        %
       </label>
     </div>
   );
@@ -478,7 +700,13 @@ export function GeometryPane() {
       <h2>Geometry</h2>
       <div className="form-grid">
         <label>
-          Survey name <Field value={survey.name} width={28} onCommit={(t) => updateSurvey((s) => ({ ...s, name: t }))} ariaLabel="Survey name" />
+          Survey name{' '}
+          <Field
+            value={survey.name}
+            width={28}
+            onCommit={(t) => updateSurvey((s) => ({ ...s, name: t }))}
+            ariaLabel="Survey name"
+          />
         </label>
         <label>
           Test{' '}
@@ -494,21 +722,45 @@ export function GeometryPane() {
           <>
             <label>
               Receiver hole{' '}
-              <select value={survey.mainHoleId} onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}>
+              <select
+                value={survey.mainHoleId}
+                onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}
+              >
                 {holeIds.map((h) => (
                   <option key={h}>{h}</option>
                 ))}
               </select>
             </label>
             <label>
-              Source offset ({label('depth', units)}) <QtyField kind="depth" units={units} si={survey.sourceOffsetM} onCommit={(v) => updateSurvey((s) => ({ ...s, sourceOffsetM: v ?? 0 }))} ariaLabel="Source offset" />
+              Source offset ({label('depth', units)}){' '}
+              <QtyField
+                kind="depth"
+                units={units}
+                si={survey.sourceOffsetM}
+                onCommit={(v) => updateSurvey((s) => ({ ...s, sourceOffsetM: v ?? 0 }))}
+                ariaLabel="Source offset"
+              />
             </label>
             <label>
-              Source depth ({label('depth', units)}) <QtyField kind="depth" units={units} si={survey.sourceDepthM} onCommit={(v) => updateSurvey((s) => ({ ...s, sourceDepthM: v ?? 0 }))} ariaLabel="Source depth" />
+              Source depth ({label('depth', units)}){' '}
+              <QtyField
+                kind="depth"
+                units={units}
+                si={survey.sourceDepthM}
+                onCommit={(v) => updateSurvey((s) => ({ ...s, sourceDepthM: v ?? 0 }))}
+                ariaLabel="Source depth"
+              />
             </label>
             {survey.kind === 'downhole-pair' && (
               <label>
-                Receiver spacing ({label('depth', units)}) <QtyField kind="depth" units={units} si={survey.receiverSpacingM} onCommit={(v) => v && updateSurvey((s) => ({ ...s, receiverSpacingM: v }))} ariaLabel="Receiver spacing" />
+                Receiver spacing ({label('depth', units)}){' '}
+                <QtyField
+                  kind="depth"
+                  units={units}
+                  si={survey.receiverSpacingM}
+                  onCommit={(v) => v && updateSurvey((s) => ({ ...s, receiverSpacingM: v }))}
+                  ariaLabel="Receiver spacing"
+                />
               </label>
             )}
           </>
@@ -516,7 +768,10 @@ export function GeometryPane() {
           <>
             <label>
               Source hole{' '}
-              <select value={survey.mainHoleId} onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}>
+              <select
+                value={survey.mainHoleId}
+                onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}
+              >
                 {holeIds.map((h) => (
                   <option key={h}>{h}</option>
                 ))}
@@ -548,7 +803,13 @@ export function GeometryPane() {
       <h3>Records</h3>
       <div className="form-grid">
         <label title="{depth} number in metres, {depth_ft} in feet, {hit} L R U D or left right up down, * anything">
-          File-name pattern <Field value={pattern} width={22} onCommit={(t) => setNamePattern(t || DEFAULT_NAME_PATTERN)} ariaLabel="File-name pattern" />
+          File-name pattern{' '}
+          <Field
+            value={pattern}
+            width={22}
+            onCommit={(t) => setNamePattern(t || DEFAULT_NAME_PATTERN)}
+            ariaLabel="File-name pattern"
+          />
         </label>
         <button onClick={() => reassignAll()}>Place all records again (headers, then pattern)</button>
         <span className="small muted">
@@ -578,7 +839,10 @@ export function GeometryPane() {
           updateSurvey((s) => {
             let n = s.boreholes.length + 1;
             while (s.boreholes.some((h) => h.id === `BH${n}`)) n++;
-            return { ...s, boreholes: [...s.boreholes, { id: `BH${n}`, collarEastM: 0, collarNorthM: 0, deviation: [] }] };
+            return {
+              ...s,
+              boreholes: [...s.boreholes, { id: `BH${n}`, collarEastM: 0, collarNorthM: 0, deviation: [] }],
+            };
           })
         }
       >

@@ -15,7 +15,19 @@ import { fmt, label, useUnits } from './units';
 
 const COLUMNS = 700;
 
-function normalisedLine(samples: ArrayLike<number>, delayS: number, dtS: number, shiftS: number, t0S: number, t1S: number, dash: string | undefined, colour: string, name: string, xaxis = 'x', yaxis = 'y'): PlotData {
+function normalisedLine(
+  samples: ArrayLike<number>,
+  delayS: number,
+  dtS: number,
+  shiftS: number,
+  t0S: number,
+  t1S: number,
+  dash: string | undefined,
+  colour: string,
+  name: string,
+  xaxis = 'x',
+  yaxis = 'y',
+): PlotData {
   const m = mean(samples);
   const c = new Float64Array(samples.length);
   for (let i = 0; i < c.length; i++) c[i] = samples[i] - m;
@@ -27,7 +39,17 @@ function normalisedLine(samples: ArrayLike<number>, delayS: number, dtS: number,
     x.push(d.t[i] * 1000);
     y.push(d.v[i] / peak);
   }
-  return { type: 'scatter', mode: 'lines', x, y, name, xaxis, yaxis, line: { width: 1.4, color: colour, dash }, hoverinfo: 'skip' };
+  return {
+    type: 'scatter',
+    mode: 'lines',
+    x,
+    y,
+    name,
+    xaxis,
+    yaxis,
+    line: { width: 1.4, color: colour, dash },
+    hoverinfo: 'skip',
+  };
 }
 
 export function PairCheck() {
@@ -51,8 +73,22 @@ export function PairCheck() {
       const t0 = Math.max(a.delayS, centre - 0.3 * (a.searchEndS - a.searchStartS) - 0.005);
       const t1 = Math.min(a.delayS + (a.samples.length - 1) * a.sampleIntervalS, a.searchEndS + 0.01);
       const colour = pair.wave === 'S' ? COLOURS.S : COLOURS.P;
-      out.push(normalisedLine(a.samples, a.delayS, a.sampleIntervalS, 0, t0, t1, undefined, COLOURS.ink, 'upper trace'));
-      out.push(normalisedLine(b.samples, b.delayS, b.sampleIntervalS, chosen.dtS, t0, t1, 'dash', colour, 'lower trace, shifted'));
+      out.push(
+        normalisedLine(a.samples, a.delayS, a.sampleIntervalS, 0, t0, t1, undefined, COLOURS.ink, 'upper trace'),
+      );
+      out.push(
+        normalisedLine(
+          b.samples,
+          b.delayS,
+          b.sampleIntervalS,
+          chosen.dtS,
+          t0,
+          t1,
+          'dash',
+          colour,
+          'lower trace, shifted',
+        ),
+      );
     }
     if (station && station.hits.length > 1) {
       const [first] = reversedDirections(kind);
@@ -62,7 +98,21 @@ export function PairCheck() {
       for (const h of station.hits) {
         const tr = rawRecords.get(h.recordId)?.traces.find((t) => t.channel === h.channel);
         if (!tr) continue;
-        out.push(normalisedLine(tr.samples, tr.delayS, tr.sampleIntervalS, 0, t0, t1, h.hit === first ? undefined : 'dash', h.hit === first ? COLOURS.ink : '#7b8794', `hit ${h.hit}`, 'x2', 'y2'));
+        out.push(
+          normalisedLine(
+            tr.samples,
+            tr.delayS,
+            tr.sampleIntervalS,
+            0,
+            t0,
+            t1,
+            h.hit === first ? undefined : 'dash',
+            h.hit === first ? COLOURS.ink : '#7b8794',
+            `hit ${h.hit}`,
+            'x2',
+            'y2',
+          ),
+        );
       }
     }
     return out;
@@ -78,8 +128,26 @@ export function PairCheck() {
       xaxis2: { title: { text: 'Time (ms)' }, zeroline: false, gridcolor: COLOURS.grid, domain: [0.54, 1] },
       yaxis2: { range: [-1.1, 1.1], zeroline: true, showticklabels: false, anchor: 'x2' },
       annotations: [
-        { text: 'Interval traces, lower shifted by Δt', xref: 'paper', yref: 'paper', x: 0, y: 1.08, showarrow: false, xanchor: 'left', font: { size: 11 } },
-        { text: 'Reversed hits at the station', xref: 'paper', yref: 'paper', x: 0.54, y: 1.08, showarrow: false, xanchor: 'left', font: { size: 11 } },
+        {
+          text: 'Interval traces, lower shifted by Δt',
+          xref: 'paper',
+          yref: 'paper',
+          x: 0,
+          y: 1.08,
+          showarrow: false,
+          xanchor: 'left',
+          font: { size: 11 },
+        },
+        {
+          text: 'Reversed hits at the station',
+          xref: 'paper',
+          yref: 'paper',
+          x: 0.54,
+          y: 1.08,
+          showarrow: false,
+          xanchor: 'left',
+          font: { size: 11 },
+        },
       ],
     }),
     [],
@@ -91,7 +159,8 @@ export function PairCheck() {
       <div className="pane-note" data-testid="pair-summary">
         {pair && chosen ? (
           <>
-            {fmt('depth', units, pair.topM)}–{fmt('depth', units, pair.bottomM)} {label('depth', units)} · {METHOD_WORDS[chosen.method]} Δt = {chosen.dtS !== null ? (chosen.dtS * 1000).toFixed(3) : '–'} ms ·
+            {fmt('depth', units, pair.topM)}–{fmt('depth', units, pair.bottomM)} {label('depth', units)} ·{' '}
+            {METHOD_WORDS[chosen.method]} Δt = {chosen.dtS !== null ? (chosen.dtS * 1000).toFixed(3) : '–'} ms ·
             cross-correlation r = {xcorr ? xcorr.coefficient.toFixed(3) : '–'}
           </>
         ) : (

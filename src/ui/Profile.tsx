@@ -10,7 +10,13 @@ import type { ComparisonProfile } from '../core/stiffness/comparison';
 import { DEFAULT_RAYLEIGH_POISSON } from '../core/stiffness/comparison';
 import type { ErrorInfo } from '../core/errors';
 import { useDerived } from '../state/derived';
-import { loadComparison, removeComparison, setIntervalMethod, toggleIntervalExcluded, updateSettings } from '../state/edits';
+import {
+  loadComparison,
+  removeComparison,
+  setIntervalMethod,
+  toggleIntervalExcluded,
+  updateSettings,
+} from '../state/edits';
 import { setView, useApp } from '../state/store';
 import { METHOD_SHORT, METHOD_WORDS } from './picks';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
@@ -18,7 +24,12 @@ import { fromDisplay } from '../core/units';
 import { disp, fmt, label, useUnits } from './units';
 import type { UnitSystem } from '../core/units';
 
-function stepLine(rows: readonly ProfileRow[], value: (r: ProfileRow) => number | null, units: UnitSystem, kind: 'velocity' | 'modulus'): { x: (number | null)[]; y: (number | null)[] } {
+function stepLine(
+  rows: readonly ProfileRow[],
+  value: (r: ProfileRow) => number | null,
+  units: UnitSystem,
+  kind: 'velocity' | 'modulus',
+): { x: (number | null)[]; y: (number | null)[] } {
   const x: (number | null)[] = [];
   const y: (number | null)[] = [];
   let lastBottom: number | null = null;
@@ -74,27 +85,105 @@ export function ProfilePlot() {
     // The one-sigma bars are drawn without a marker at their centre (mode 'none'): Plotly styles every
     // marker on each redraw, which made the markers most of the time a pick edit took to show here.
     const out: PlotData[] = [
-      { type: 'scatter', mode: 'lines', name: 'Vs', x: vs.x, y: vs.y, line: { color: COLOURS.S, width: 2 }, hoverinfo: 'skip' },
       {
-        type: 'scatter', mode: 'none', name: 'Vs ± 1 sd', x: rows.map((r) => disp('velocity', units, r.vsMps)), y: mid,
-        error_x: { type: 'data', array: rows.map((r) => disp('velocity', units, r.vsSdMps)), color: COLOURS.S, thickness: 1, width: 3 }, hoverinfo: 'skip',
+        type: 'scatter',
+        mode: 'lines',
+        name: 'Vs',
+        x: vs.x,
+        y: vs.y,
+        line: { color: COLOURS.S, width: 2 },
+        hoverinfo: 'skip',
       },
-      { type: 'scatter', mode: 'lines', name: 'Vp', x: vp.x, y: vp.y, line: { color: COLOURS.P, width: 1.6, dash: 'dash' }, hoverinfo: 'skip' },
       {
-        type: 'scatter', mode: 'none', name: 'Vp ± 1 sd', x: withVp.map((r) => disp('velocity', units, r.vpMps!)), y: withVp.map((r) => disp('depth', units, r.midM)),
-        error_x: { type: 'data', array: withVp.map((r) => (r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0)), color: COLOURS.P, thickness: 1, width: 3 }, hoverinfo: 'skip',
+        type: 'scatter',
+        mode: 'none',
+        name: 'Vs ± 1 sd',
+        x: rows.map((r) => disp('velocity', units, r.vsMps)),
+        y: mid,
+        error_x: {
+          type: 'data',
+          array: rows.map((r) => disp('velocity', units, r.vsSdMps)),
+          color: COLOURS.S,
+          thickness: 1,
+          width: 3,
+        },
+        hoverinfo: 'skip',
       },
-      { type: 'scatter', mode: 'lines', name: 'Gmax', x: g.x, y: g.y, xaxis: 'x2', line: { color: COLOURS.ink, width: 1.6 }, hoverinfo: 'skip' },
       {
-        type: 'scatter', mode: 'none', name: 'Gmax ± 1 sd', x: rows.map((r) => disp('modulus', units, r.gmaxKpa)), y: mid, xaxis: 'x2',
-        error_x: { type: 'data', array: rows.map((r) => disp('modulus', units, r.gmaxSdKpa)), color: COLOURS.ink, thickness: 1, width: 2 }, hoverinfo: 'skip',
+        type: 'scatter',
+        mode: 'lines',
+        name: 'Vp',
+        x: vp.x,
+        y: vp.y,
+        line: { color: COLOURS.P, width: 1.6, dash: 'dash' },
+        hoverinfo: 'skip',
       },
-      { type: 'scatter', mode: 'lines', name: 'Vs1', x: vs1.x, y: vs1.y, xaxis: 'x3', line: { color: '#52606d', width: 1.6 }, hoverinfo: 'skip' },
+      {
+        type: 'scatter',
+        mode: 'none',
+        name: 'Vp ± 1 sd',
+        x: withVp.map((r) => disp('velocity', units, r.vpMps!)),
+        y: withVp.map((r) => disp('depth', units, r.midM)),
+        error_x: {
+          type: 'data',
+          array: withVp.map((r) =>
+            r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0,
+          ),
+          color: COLOURS.P,
+          thickness: 1,
+          width: 3,
+        },
+        hoverinfo: 'skip',
+      },
+      {
+        type: 'scatter',
+        mode: 'lines',
+        name: 'Gmax',
+        x: g.x,
+        y: g.y,
+        xaxis: 'x2',
+        line: { color: COLOURS.ink, width: 1.6 },
+        hoverinfo: 'skip',
+      },
+      {
+        type: 'scatter',
+        mode: 'none',
+        name: 'Gmax ± 1 sd',
+        x: rows.map((r) => disp('modulus', units, r.gmaxKpa)),
+        y: mid,
+        xaxis: 'x2',
+        error_x: {
+          type: 'data',
+          array: rows.map((r) => disp('modulus', units, r.gmaxSdKpa)),
+          color: COLOURS.ink,
+          thickness: 1,
+          width: 2,
+        },
+        hoverinfo: 'skip',
+      },
+      {
+        type: 'scatter',
+        mode: 'lines',
+        name: 'Vs1',
+        x: vs1.x,
+        y: vs1.y,
+        xaxis: 'x3',
+        line: { color: '#52606d', width: 1.6 },
+        hoverinfo: 'skip',
+      },
     ];
     if (comparison) {
       const bottomM = rows.length ? rows[rows.length - 1].bottomM : 30;
       const c = comparisonSteps(comparison, bottomM, units);
-      out.push({ type: 'scatter', mode: 'lines', name: `compared: ${comparison.name}`, x: c.x, y: c.y, line: { color: COLOURS.compare, width: 1.6, dash: 'dash' }, hoverinfo: 'skip' });
+      out.push({
+        type: 'scatter',
+        mode: 'lines',
+        name: `compared: ${comparison.name}`,
+        x: c.x,
+        y: c.y,
+        line: { color: COLOURS.compare, width: 1.6, dash: 'dash' },
+        hoverinfo: 'skip',
+      });
     }
     return out;
   }, [rows, units, comparison]);
@@ -107,12 +196,36 @@ export function ProfilePlot() {
       uirevision: 'profile',
       margin: { l: 48, r: 10, t: 44, b: 8 },
       xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})`, standoff: 4 }, ...TOP_AXIS },
-      xaxis2: { domain: [0.56, 0.77], title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
+      xaxis2: {
+        domain: [0.56, 0.77],
+        title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 },
+        ...TOP_AXIS,
+        nticks: 3,
+        anchor: 'y',
+      },
       xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
-      yaxis: { title: { text: `Depth (${label('depth', units)})` }, autorange: 'reversed', gridcolor: COLOURS.grid, zeroline: false },
+      yaxis: {
+        title: { text: `Depth (${label('depth', units)})` },
+        autorange: 'reversed',
+        gridcolor: COLOURS.grid,
+        zeroline: false,
+      },
       shapes:
         bandTopM !== null && bandBottomM !== null
-          ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
+          ? [
+              {
+                type: 'rect',
+                xref: 'paper',
+                x0: 0,
+                x1: 1,
+                yref: 'y',
+                y0: disp('depth', units, bandTopM),
+                y1: disp('depth', units, bandBottomM),
+                fillcolor: COLOURS.band,
+                line: { width: 0 },
+                layer: 'below',
+              },
+            ]
           : [],
     };
   }, [bandTopM, bandBottomM, units]);
@@ -128,14 +241,26 @@ export function ProfilePlot() {
     if (key !== useApp.getState().view.hoveredInterval) setView({ hoveredInterval: key });
   };
   return (
-    <div className="profile-plot" onMouseMove={onMove} onMouseLeave={() => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null })}>
+    <div
+      className="profile-plot"
+      onMouseMove={onMove}
+      onMouseLeave={() => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null })}
+    >
       <Plot name="profile" data={data} layout={layout} className="plot" />
     </div>
   );
 }
 
 /** Value axes on top (depth plots read downward), never below zero even when an error bar is wide. */
-const TOP_AXIS = { gridcolor: COLOURS.grid, zeroline: false, side: 'top', nticks: 4, tickangle: 0, autorangeoptions: { minallowed: 0 }, tickfont: { size: 10 } };
+const TOP_AXIS = {
+  gridcolor: COLOURS.grid,
+  zeroline: false,
+  side: 'top',
+  nticks: 4,
+  tickangle: 0,
+  autorangeoptions: { minallowed: 0 },
+  tickfont: { size: 10 },
+};
 
 interface IntervalGroup {
   key: string;
@@ -188,8 +313,16 @@ const IntervalRow = memo(
       >
         <td>{p.top}</td>
         <td>{p.bottom}</td>
-        {p.showCompare && <td data-col="compare" className="cmp">{p.compare?.other ?? '–'}</td>}
-        {p.showCompare && <td data-col="difference" className="cmp">{p.compare?.diff ?? '–'}</td>}
+        {p.showCompare && (
+          <td data-col="compare" className="cmp">
+            {p.compare?.other ?? '–'}
+          </td>
+        )}
+        {p.showCompare && (
+          <td data-col="difference" className="cmp">
+            {p.compare?.diff ?? '–'}
+          </td>
+        )}
         <td className="flags">{p.flags}</td>
         {p.cells.map((c) => (
           <td key={c.method} className={c.chosen ? 'chosen' : ''} data-method={c.method}>
@@ -229,7 +362,11 @@ const IntervalRow = memo(
 );
 
 /** Comparison difference of the interval (matched by its mid-depth, as the core reports it). */
-function differenceAt(cmp: ComparisonResult | null | undefined, topM: number, bottomM: number): ComparisonResult['differences'][number] | undefined {
+function differenceAt(
+  cmp: ComparisonResult | null | undefined,
+  topM: number,
+  bottomM: number,
+): ComparisonResult['differences'][number] | undefined {
   if (!cmp) return undefined;
   const mid = 0.5 * (topM + bottomM);
   return cmp.differences.find((x) => Math.abs(x.depthM - mid) < 1e-6);
@@ -255,15 +392,52 @@ export function IntervalsTable() {
       list.map((g) => {
         const own = edits.chosenMethod[g.key];
         const excluded = edits.excludedIntervals.includes(g.key);
-        const cells = methods.map((m) => ({ method: m, chosen: !!g.byMethod[m]?.chosen, text: fmt('velocity', units, g.byMethod[m]?.velocityMps) }));
+        const cells = methods.map((m) => ({
+          method: m,
+          chosen: !!g.byMethod[m]?.chosen,
+          text: fmt('velocity', units, g.byMethod[m]?.velocityMps),
+        }));
         const diff = showCompare ? differenceAt(cmp, g.topM, g.bottomM) : undefined;
-        const compare = diff ? { other: fmt('velocity', units, diff.comparisonVsMps), diff: `${diff.differencePct > 0 ? '+' : ''}${diff.differencePct.toFixed(1)}` } : null;
+        const compare = diff
+          ? {
+              other: fmt('velocity', units, diff.comparisonVsMps),
+              diff: `${diff.differencePct > 0 ? '+' : ''}${diff.differencePct.toFixed(1)}`,
+            }
+          : null;
         const flags = [...new Set([...(g.chosen?.flags ?? []), ...(excluded ? ['omitted'] : [])])].join(', ');
         const top = fmt('depth', units, g.topM);
         const bottom = fmt('depth', units, g.bottomM);
         const stationB = g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null;
-        const sig = JSON.stringify([top, bottom, cells, own, excluded, methods, profileMethod, dep, stationB, compare, showCompare, flags]);
-        return { sig, groupKey: g.key, top, bottom, cells, own, excluded, methods, profileMethod, depLabel: dep, stationB, compare, showCompare, flags };
+        const sig = JSON.stringify([
+          top,
+          bottom,
+          cells,
+          own,
+          excluded,
+          methods,
+          profileMethod,
+          dep,
+          stationB,
+          compare,
+          showCompare,
+          flags,
+        ]);
+        return {
+          sig,
+          groupKey: g.key,
+          top,
+          bottom,
+          cells,
+          own,
+          excluded,
+          methods,
+          profileMethod,
+          depLabel: dep,
+          stationB,
+          compare,
+          showCompare,
+          flags,
+        };
       }),
     [list, methods, edits.chosenMethod, edits.excludedIntervals, units, cmp, showCompare, profileMethod, dep],
   );
@@ -272,7 +446,11 @@ export function IntervalsTable() {
       <div className="row-controls">
         <label>
           Profile method{' '}
-          <select value={profileMethod} onChange={(e) => updateSettings({ profileMethod: e.target.value as IntervalMethod })} aria-label="Profile method">
+          <select
+            value={profileMethod}
+            onChange={(e) => updateSettings({ profileMethod: e.target.value as IntervalMethod })}
+            aria-label="Profile method"
+          >
             {INTERVAL_METHODS.map((m) => (
               <option key={m} value={m}>
                 {METHOD_WORDS[m]}
@@ -283,13 +461,25 @@ export function IntervalsTable() {
         <span className="muted">{wave} intervals · ● = value in the profile</span>
       </div>
       <div className="table-wrap">
-        <table className="num" data-testid="intervals-table" onMouseLeave={() => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null })}>
+        <table
+          className="num"
+          data-testid="intervals-table"
+          onMouseLeave={() => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null })}
+        >
           <thead>
             <tr>
               <th>Top ({dep})</th>
               <th>Bottom ({dep})</th>
-              {showCompare && <th className="cmp" title="Travel-time average of the compared profile over the interval">Compared ({v})</th>}
-              {showCompare && <th className="cmp" title="(compared - used) / used Vs of the interval">Diff. (%)</th>}
+              {showCompare && (
+                <th className="cmp" title="Travel-time average of the compared profile over the interval">
+                  Compared ({v})
+                </th>
+              )}
+              {showCompare && (
+                <th className="cmp" title="(compared - used) / used Vs of the interval">
+                  Diff. (%)
+                </th>
+              )}
               {/* Flags before the method columns so they stay in view in the narrow Profile pane. */}
               <th className="text">Flags</th>
               {methods.map((m) => (
@@ -302,7 +492,12 @@ export function IntervalsTable() {
           </thead>
           <tbody>
             {rows.map((r) => (
-              <IntervalRow key={r.groupKey} {...r} selected={r.groupKey === selected} hovered={r.groupKey === hovered} />
+              <IntervalRow
+                key={r.groupKey}
+                {...r}
+                selected={r.groupKey === selected}
+                hovered={r.groupKey === hovered}
+              />
             ))}
           </tbody>
         </table>
@@ -336,8 +531,10 @@ export function ComparisonControl() {
       {comparison ? (
         <div className="compare-line">
           <span className="swatch-dash" aria-hidden="true" /> Compared with <b>{comparison.name}</b>
-          {comparison.source === 'rayleigh' ? ` (Rayleigh velocity → Vs, Viktorov, ν = ${comparison.poissonRatio ?? DEFAULT_RAYLEIGH_POISSON})` : ' (Vs)'}: its Vs30 ={' '}
-          <span data-testid="comparison-vs30">{fmt('velocity', units, result?.vs30?.vsMps)}</span> {v}
+          {comparison.source === 'rayleigh'
+            ? ` (Rayleigh velocity → Vs, Viktorov, ν = ${comparison.poissonRatio ?? DEFAULT_RAYLEIGH_POISSON})`
+            : ' (Vs)'}
+          : its Vs30 = <span data-testid="comparison-vs30">{fmt('velocity', units, result?.vs30?.vsMps)}</span> {v}
           {d?.site.vs30 ? ` · ours ${fmt('velocity', units, d.site.vs30.vsMps)} ${v}` : ''}{' '}
           <button className="link" onClick={removeComparison}>
             remove
@@ -353,14 +550,25 @@ export function ComparisonControl() {
         <div className="compare-form">
           <label>
             Column holds{' '}
-            <select value={kind} onChange={(e) => setKind(e.target.value as 'vs' | 'rayleigh')} aria-label="Comparison velocity kind">
+            <select
+              value={kind}
+              onChange={(e) => setKind(e.target.value as 'vs' | 'rayleigh')}
+              aria-label="Comparison velocity kind"
+            >
               <option value="vs">Vs (shear-wave velocity)</option>
               <option value="rayleigh">Rayleigh-wave velocity</option>
             </select>
           </label>
           {kind === 'rayleigh' && (
             <label title="Vs = VR (1 + ν) / (0.87 + 1.12 ν), Viktorov's approximation">
-              Poisson's ratio ν <input className="field" size={4} value={nuText} onChange={(e) => setNuText(e.target.value)} aria-label="Poisson's ratio" />
+              Poisson's ratio ν{' '}
+              <input
+                className="field"
+                size={4}
+                value={nuText}
+                onChange={(e) => setNuText(e.target.value)}
+                aria-label="Poisson's ratio"
+              />
             </label>
           )}
           <button onClick={() => fileRef.current?.click()}>Choose CSV…</button>
@@ -377,8 +585,11 @@ export function ComparisonControl() {
             }}
           />
           <div className="small muted">
-            Depth and velocity columns (e.g. depth_m, vs_mps; m or ft, m/s or ft/s in the header); each row is the top of a layer.
-            {kind === 'rayleigh' ? " Converted to Vs with Viktorov's approximation VR/Vs = (0.87 + 1.12 ν)/(1 + ν)." : ''}
+            Depth and velocity columns (e.g. depth_m, vs_mps; m or ft, m/s or ft/s in the header); each row is the top
+            of a layer.
+            {kind === 'rayleigh'
+              ? " Converted to Vs with Viktorov's approximation VR/Vs = (0.87 + 1.12 ν)/(1 + ν)."
+              : ''}
           </div>
         </div>
       )}
@@ -409,7 +620,13 @@ export function ProfilePane() {
       <ComparisonControl />
       <div className="pane-note" aria-label="Profile legend">
         <span style={{ color: COLOURS.S }}>━ Vs</span> · <span style={{ color: COLOURS.P }}>╍ Vp</span>
-        {d?.comparison ? <> · <span style={{ color: COLOURS.compare }}>╍ compared profile</span></> : null} · bars ±1 sd
+        {d?.comparison ? (
+          <>
+            {' '}
+            · <span style={{ color: COLOURS.compare }}>╍ compared profile</span>
+          </>
+        ) : null}{' '}
+        · bars ±1 sd
       </div>
       <ProfilePlot />
       <IntervalsTable />

@@ -14,7 +14,12 @@ export async function filesFromList(list: FileList | File[]): Promise<{ name: st
   return Promise.all(arr.map(async (f) => ({ name: f.name, bytes: new Uint8Array(await f.arrayBuffer()) })));
 }
 
-function placeText(m: RecordMeta, depthM: number | null | undefined, hit: string | undefined, units: 'SI' | 'US'): string {
+function placeText(
+  m: RecordMeta,
+  depthM: number | null | undefined,
+  hit: string | undefined,
+  units: 'SI' | 'US',
+): string {
   if (m.status !== 'ok') return '';
   if (depthM === undefined) return 'not placed';
   if (depthM === null) return 'no depth: set it in Geometry';
@@ -104,17 +109,26 @@ export function RecordsPane() {
           return (
             <li key={m.fileName} className={`file ${m.status}`} data-status={m.status} data-file={m.fileName}>
               <div className="file-row">
-                <span className="status-word">{m.status === 'ok' ? 'ok' : m.status === 'reading' ? 'reading…' : 'error'}</span>
+                <span className="status-word">
+                  {m.status === 'ok' ? 'ok' : m.status === 'reading' ? 'reading…' : 'error'}
+                </span>
                 <span className="fname" title={m.fileName}>
                   {m.fileName}
                 </span>
-                <button className="link" onClick={() => removeFile(m.fileName)} title="Remove this file" aria-label={`Remove ${m.fileName}`}>
+                <button
+                  className="link"
+                  onClick={() => removeFile(m.fileName)}
+                  title="Remove this file"
+                  aria-label={`Remove ${m.fileName}`}
+                >
                   ✕
                 </button>
               </div>
               {m.status === 'ok' && (
                 <div className="file-detail">
-                  {m.format} · {m.traces} ch · {m.samples} samples · {m.sampleIntervalS ? (m.sampleIntervalS * 1000).toFixed(3) : '–'} ms · {placeText(m, a ? a.depthM : undefined, a?.hit, units)}
+                  {m.format} · {m.traces} ch · {m.samples} samples ·{' '}
+                  {m.sampleIntervalS ? (m.sampleIntervalS * 1000).toFixed(3) : '–'} ms ·{' '}
+                  {placeText(m, a ? a.depthM : undefined, a?.hit, units)}
                   {a?.excluded ? ' · left out' : ''}
                 </div>
               )}

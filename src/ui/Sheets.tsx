@@ -4,7 +4,16 @@
  * images, the project archive, a printable summary).
  */
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
-import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv, EXPORT_CAUTIONS } from '../core/report/tables';
+import {
+  directTable,
+  intervalsTable,
+  layersTable,
+  picksTable,
+  profileTable,
+  siteJson,
+  toCsv,
+  EXPORT_CAUTIONS,
+} from '../core/report/tables';
 import type { Vs30RuleSetting } from '../core/settings';
 import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
@@ -55,14 +64,14 @@ export function SiteSheet() {
           <p className="caution-top">{CAUTIONS_PLAIN[0]} Full cautions at the end of this sheet.</p>
           {d?.comparison && (
             <p data-testid="site-comparison">
-              Compared profile {d.comparison.name}: Vs30 = {fmt('velocity', units, d.comparison.vs30?.vsMps)} {v}
-{' '}
-              (this profile {fmt('velocity', units, vs30.vsMps)} {v}; per interval in the Profile table)
+              Compared profile {d.comparison.name}: Vs30 = {fmt('velocity', units, d.comparison.vs30?.vsMps)} {v} (this
+              profile {fmt('velocity', units, vs30.vsMps)} {v}; per interval in the Profile table)
             </p>
           )}
           <p className="muted">
             averaged over {fmt('depth', units, vs30.toDepthM)} {label('depth', units)}
-            {vs30.extended ? ' (deepest velocity extended to 30 m)' : ''}; profile to {fmt('depth', units, vs30.profileDepthM)} {label('depth', units)}
+            {vs30.extended ? ' (deepest velocity extended to 30 m)' : ''}; profile to{' '}
+            {fmt('depth', units, vs30.profileDepthM)} {label('depth', units)}
             {vs30.flags.length ? ` · ${vs30.flags.join(', ')}` : ''}
           </p>
           {spreadPending && !u && (
@@ -72,13 +81,17 @@ export function SiteSheet() {
           )}
           {u && (
             <p data-testid="site-spread">
-              Spread from the interval uncertainties ({settings.monteCarloDraws} draws): P05 {fmt('velocity', units, u.vs30P05Mps)} · P50 {fmt('velocity', units, u.vs30P50Mps)} · P95{' '}
+              Spread from the interval uncertainties ({settings.monteCarloDraws} draws): P05{' '}
+              {fmt('velocity', units, u.vs30P05Mps)} · P50 {fmt('velocity', units, u.vs30P50Mps)} · P95{' '}
               {fmt('velocity', units, u.vs30P95Mps)} {v}
             </p>
           )}
           <label>
             Profile shorter than 30 m{' '}
-            <select value={settings.vs30Rule} onChange={(e) => updateSettings({ vs30Rule: e.target.value as Vs30RuleSetting })}>
+            <select
+              value={settings.vs30Rule}
+              onChange={(e) => updateSettings({ vs30Rule: e.target.value as Vs30RuleSetting })}
+            >
               <option value="no-extrapolation">average over the measured depth only</option>
               <option value="extend-deepest">extend the deepest velocity to 30 m</option>
             </select>
@@ -100,12 +113,12 @@ export function SiteSheet() {
                     {spreadPending && !u
                       ? 'updating…'
                       : u
-                      ? Object.entries(u.classProbabilities[c.standard] ?? {})
-                          .filter(([, p]) => p > 0)
-                          .sort((a, b) => b[1] - a[1])
-                          .map(([k, p]) => `${k} ${(p * 100).toFixed(0)} %`)
-                          .join(' · ')
-                      : '–'}
+                        ? Object.entries(u.classProbabilities[c.standard] ?? {})
+                            .filter(([, p]) => p > 0)
+                            .sort((a, b) => b[1] - a[1])
+                            .map(([k, p]) => `${k} ${(p * 100).toFixed(0)} %`)
+                            .join(' · ')
+                        : '–'}
                   </td>
                 </tr>
               ))}
@@ -119,7 +132,9 @@ export function SiteSheet() {
         </>
       )}
       <h3>Questions beyond Vs30</h3>
-      <p className="small muted">Vs cannot show these; answer from the borehole logs and laboratory tests. Unanswered counts as no.</p>
+      <p className="small muted">
+        Vs cannot show these; answer from the borehole logs and laboratory tests. Unanswered counts as no.
+      </p>
       {questions.map((q) => (
         <label key={q.id} className="question">
           <input
@@ -128,7 +143,16 @@ export function SiteSheet() {
             onChange={(e) => updateSettings({ siteAnswers: { ...settings.siteAnswers, [q.id]: e.target.checked } })}
           />{' '}
           <span>
-            {q.text} <span className="muted">({q.appliesTo.map((s: SiteStandard) => (standards.includes(s) ? STANDARD_NAMES[s].split(' (')[0] : STANDARD_NAMES[s])).join(', ')}: yes gives {q.yesClass})</span>
+            {q.text}{' '}
+            <span className="muted">
+              (
+              {q.appliesTo
+                .map((s: SiteStandard) =>
+                  standards.includes(s) ? STANDARD_NAMES[s].split(' (')[0] : STANDARD_NAMES[s],
+                )
+                .join(', ')}
+              : yes gives {q.yesClass})
+            </span>
           </span>
         </label>
       ))}
@@ -155,7 +179,12 @@ function download(name: string, content: string | Uint8Array, type: string): voi
 }
 
 export function safeBaseName(name: string): string {
-  return name.replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'survey';
+  return (
+    name
+      .replace(/[^A-Za-z0-9_-]+/g, '-')
+      .replace(/^-+|-+$/g, '')
+      .slice(0, 60) || 'survey'
+  );
 }
 
 export function ExportSheet() {
@@ -173,11 +202,15 @@ export function ExportSheet() {
     if (!full || !prepared) return;
     // Columns carry the unit of the system the user works in (vs_mps or vs_ftps ...).
     const table =
-      kind === 'picks' ? picksTable(prepared.stations, full, units)
-      : kind === 'intervals' ? intervalsTable(full, units)
-      : kind === 'layers' ? layersTable(full, units)
-      : kind === 'direct' ? directTable(full, units)
-      : profileTable(full, units);
+      kind === 'picks'
+        ? picksTable(prepared.stations, full, units)
+        : kind === 'intervals'
+          ? intervalsTable(full, units)
+          : kind === 'layers'
+            ? layersTable(full, units)
+            : kind === 'direct'
+              ? directTable(full, units)
+              : profileTable(full, units);
     download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
   };
   const plot = (p: string, f: 'png' | 'svg') => {
@@ -205,10 +238,14 @@ export function ExportSheet() {
             Direct velocities, source to each receiver (CSV)
           </button>
         )}
-        <button disabled={!ready} onClick={() => {
+        <button
+          disabled={!ready}
+          onClick={() => {
             const full = settledDerived();
-            if (full) download(`${base}-site.json`, JSON.stringify(siteJson(full, settings), null, 2), 'application/json');
-          }}>
+            if (full)
+              download(`${base}-site.json`, JSON.stringify(siteJson(full, settings), null, 2), 'application/json');
+          }}
+        >
           Site summary (JSON)
         </button>
       </div>

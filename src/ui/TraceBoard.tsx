@@ -71,7 +71,8 @@ function wiggles(inp: WiggleInput): PlotData[] {
   const halfAmp = 0.5 * stepDisp * gain;
   const clip = 0.95 * stepDisp;
   const type = inp.gl ? 'scattergl' : 'scatter';
-  const commonPeak = inp.normalise === 'common' ? Math.max(1e-30, ...stations.map((s) => peakAbs(s.working.samples))) : 0;
+  const commonPeak =
+    inp.normalise === 'common' ? Math.max(1e-30, ...stations.map((s) => peakAbs(s.working.samples))) : 0;
   const parts = { solid: [] as number[][], dashed: [] as number[][], lobes: [] as number[][], hatch: [] as number[][] };
   const push = (arr: number[][], t: Float64Array, y: Float64Array, n: number) => {
     const xs: number[] = new Array(n + 1);
@@ -141,7 +142,14 @@ function wiggles(inp: WiggleInput): PlotData[] {
         for (let i = 0; i < d.length; i++) {
           const yi = Math.min(base, y[i]);
           const onBase = yi === base;
-          if (onBase && i > 0 && i + 1 < d.length && Math.min(base, y[i - 1]) === base && Math.min(base, y[i + 1]) === base) continue;
+          if (
+            onBase &&
+            i > 0 &&
+            i + 1 < d.length &&
+            Math.min(base, y[i - 1]) === base &&
+            Math.min(base, y[i + 1]) === base
+          )
+            continue;
           lt[k] = d.t[i];
           ly[k++] = yi;
         }
@@ -158,14 +166,51 @@ function wiggles(inp: WiggleInput): PlotData[] {
   };
   const out: PlotData[] = [];
   if (parts.lobes.length) {
-    out.push({ type, mode: 'lines', x: flat(parts.lobes, 0), y: flat(parts.lobes, 1), fill: 'toself', fillcolor: inp.colour + '55', line: { width: 0, color: inp.colour }, hoverinfo: 'skip', name: 'lobes' });
+    out.push({
+      type,
+      mode: 'lines',
+      x: flat(parts.lobes, 0),
+      y: flat(parts.lobes, 1),
+      fill: 'toself',
+      fillcolor: inp.colour + '55',
+      line: { width: 0, color: inp.colour },
+      hoverinfo: 'skip',
+      name: 'lobes',
+    });
   }
   if (parts.hatch.length) {
-    out.push({ type, mode: 'lines', x: flat(parts.hatch, 0), y: flat(parts.hatch, 1), line: { width: 1, color: inp.colour + '77' }, hoverinfo: 'skip', name: 'lobes', connectgaps: false });
+    out.push({
+      type,
+      mode: 'lines',
+      x: flat(parts.hatch, 0),
+      y: flat(parts.hatch, 1),
+      line: { width: 1, color: inp.colour + '77' },
+      hoverinfo: 'skip',
+      name: 'lobes',
+      connectgaps: false,
+    });
   }
-  out.push({ type, mode: 'lines', x: flat(parts.solid, 0), y: flat(parts.solid, 1), line: { width: 1, color: COLOURS.ink }, hoverinfo: 'skip', name: 'wiggles', connectgaps: false });
+  out.push({
+    type,
+    mode: 'lines',
+    x: flat(parts.solid, 0),
+    y: flat(parts.solid, 1),
+    line: { width: 1, color: COLOURS.ink },
+    hoverinfo: 'skip',
+    name: 'wiggles',
+    connectgaps: false,
+  });
   if (parts.dashed.length) {
-    out.push({ type, mode: 'lines', x: flat(parts.dashed, 0), y: flat(parts.dashed, 1), line: { width: 1, color: '#52606d', dash: 'dash' }, hoverinfo: 'skip', name: 'second direction', connectgaps: false });
+    out.push({
+      type,
+      mode: 'lines',
+      x: flat(parts.dashed, 0),
+      y: flat(parts.dashed, 1),
+      line: { width: 1, color: '#52606d', dash: 'dash' },
+      hoverinfo: 'skip',
+      name: 'second direction',
+      connectgaps: false,
+    });
   }
   return out;
 }
@@ -183,7 +228,13 @@ function flatTolerance(depths: number[], stepDisp: number, plotHeightPx: number)
 }
 
 /** The chosen interval whose two stations are both on the board and bracket the pointer's depth. */
-function intervalAtDepth(intervals: readonly IntervalValue[], wave: Wave, stations: readonly Station[], depthOf: (s: Station) => number, y: number): string | null {
+function intervalAtDepth(
+  intervals: readonly IntervalValue[],
+  wave: Wave,
+  stations: readonly Station[],
+  depthOf: (s: Station) => number,
+  y: number,
+): string | null {
   const onBoard = new Map(stations.map((s) => [s.key, depthOf(s)]));
   for (const r of intervals) {
     if (r.wave !== wave || !r.chosen) continue;
@@ -223,7 +274,9 @@ export function TraceBoard() {
   const shown = range ?? full;
   const depthOf = useMemo(() => (s: Station) => disp('depth', units, s.depthM), [units]);
   const stepDisp = useMemo(() => medianStep(stations.map(depthOf), 1), [stations, depthOf]);
-  const gl = view.renderer === 'webgl' || (view.renderer === 'auto' && stations.length > WEBGL_TRACE_THRESHOLD && hardwareWebgl());
+  const gl =
+    view.renderer === 'webgl' ||
+    (view.renderer === 'auto' && stations.length > WEBGL_TRACE_THRESHOLD && hardwareWebgl());
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
 
   useEffect(() => setRange(null), [wave, receiver, prepared]);
@@ -239,7 +292,10 @@ export function TraceBoard() {
     return () => ro.disconnect();
   }, []);
 
-  const flatTolY = useMemo(() => flatTolerance(stations.map(depthOf), stepDisp, height - 48), [stations, depthOf, stepDisp, height]);
+  const flatTolY = useMemo(
+    () => flatTolerance(stations.map(depthOf), stepDisp, height - 48),
+    [stations, depthOf, stepDisp, height],
+  );
   const wiggleData = useMemo(() => {
     if (!shown || !stations.length) return [];
     const t0 = performance.now();
@@ -260,11 +316,29 @@ export function TraceBoard() {
     });
     wiggleMs.current = performance.now() - t0;
     return out;
-  }, [stations, shown, width, flatTolY, stepDisp, depthOf, view.normalise, view.gain, view.fill, view.hitView, survey.kind, gl, colour]);
+  }, [
+    stations,
+    shown,
+    width,
+    flatTolY,
+    stepDisp,
+    depthOf,
+    view.normalise,
+    view.gain,
+    view.fill,
+    view.hitView,
+    survey.kind,
+    gl,
+    colour,
+  ]);
 
   const pickData = useMemo(() => {
     if (!picks) return [];
-    const groups = { auto: { x: [] as number[], y: [] as number[], text: [] as string[] }, edited: { x: [] as number[], y: [] as number[], text: [] as string[] }, excluded: { x: [] as number[], y: [] as number[], text: [] as string[] } };
+    const groups = {
+      auto: { x: [] as number[], y: [] as number[], text: [] as string[] },
+      edited: { x: [] as number[], y: [] as number[], text: [] as string[] },
+      excluded: { x: [] as number[], y: [] as number[], text: [] as string[] },
+    };
     const excludedSet = new Set(edits.excludedStations);
     for (const s of stations) {
       const p = pickFor(picks, s.key, wave, view.editMethod);
@@ -275,9 +349,36 @@ export function TraceBoard() {
       groups[origin].text.push(s.key);
     }
     return [
-      { type: 'scatter', mode: 'markers', name: 'auto picks', x: groups.auto.x, y: groups.auto.y, customdata: groups.auto.text, marker: { symbol: 'circle-open', size: 10, color: colour, line: { width: 2, color: colour } }, hoverinfo: 'skip' },
-      { type: 'scatter', mode: 'markers', name: 'edited picks', x: groups.edited.x, y: groups.edited.y, customdata: groups.edited.text, marker: { symbol: 'circle', size: 10, color: colour, line: { width: 2, color: COLOURS.rim } }, hoverinfo: 'skip' },
-      { type: 'scatter', mode: 'markers', name: 'excluded picks', x: groups.excluded.x, y: groups.excluded.y, customdata: groups.excluded.text, marker: { symbol: 'x-thin-open', size: 9, color: EXCLUDED_GREY, line: { width: 2, color: EXCLUDED_GREY } }, hoverinfo: 'skip' },
+      {
+        type: 'scatter',
+        mode: 'markers',
+        name: 'auto picks',
+        x: groups.auto.x,
+        y: groups.auto.y,
+        customdata: groups.auto.text,
+        marker: { symbol: 'circle-open', size: 10, color: colour, line: { width: 2, color: colour } },
+        hoverinfo: 'skip',
+      },
+      {
+        type: 'scatter',
+        mode: 'markers',
+        name: 'edited picks',
+        x: groups.edited.x,
+        y: groups.edited.y,
+        customdata: groups.edited.text,
+        marker: { symbol: 'circle', size: 10, color: colour, line: { width: 2, color: COLOURS.rim } },
+        hoverinfo: 'skip',
+      },
+      {
+        type: 'scatter',
+        mode: 'markers',
+        name: 'excluded picks',
+        x: groups.excluded.x,
+        y: groups.excluded.y,
+        customdata: groups.excluded.text,
+        marker: { symbol: 'x-thin-open', size: 9, color: EXCLUDED_GREY, line: { width: 2, color: EXCLUDED_GREY } },
+        hoverinfo: 'skip',
+      },
     ] as PlotData[];
   }, [picks, stations, wave, view.editMethod, depthOf, colour, edits.excludedStations]);
 
@@ -285,12 +386,34 @@ export function TraceBoard() {
   const layout = useMemo(() => {
     const shapes: Record<string, unknown>[] = [];
     if (bandTopM !== null && bandBottomM !== null) {
-      shapes.push({ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' });
+      shapes.push({
+        type: 'rect',
+        xref: 'paper',
+        x0: 0,
+        x1: 1,
+        yref: 'y',
+        y0: disp('depth', units, bandTopM),
+        y1: disp('depth', units, bandBottomM),
+        fillcolor: COLOURS.band,
+        line: { width: 0 },
+        layer: 'below',
+      });
     }
     const sel = stations.find((s) => s.key === view.selectedStation);
     if (sel) {
       const y = depthOf(sel);
-      shapes.push({ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: y - stepDisp / 2, y1: y + stepDisp / 2, fillcolor: COLOURS.select, line: { width: 1, color: colour, dash: 'dot' }, layer: 'below' });
+      shapes.push({
+        type: 'rect',
+        xref: 'paper',
+        x0: 0,
+        x1: 1,
+        yref: 'y',
+        y0: y - stepDisp / 2,
+        y1: y + stepDisp / 2,
+        fillcolor: COLOURS.select,
+        line: { width: 1, color: colour, dash: 'dot' },
+        layer: 'below',
+      });
     }
     const depths = stations.map(depthOf);
     const yMin = depths.length ? Math.min(...depths) - stepDisp : 0;
@@ -300,20 +423,47 @@ export function TraceBoard() {
       uirevision: `${wave}|${receiver}|${stations.length}`,
       margin: { l: 56, r: 12, t: 8, b: 40 },
       dragmode: view.tool === 'pick' ? false : view.tool,
-      xaxis: { title: { text: 'Time after trigger (ms)' }, range: shown ? [shown.t0S * 1000, shown.t1S * 1000] : undefined, zeroline: false, gridcolor: COLOURS.grid },
-      yaxis: { title: { text: `Depth (${label('depth', units)})` }, range: [yMax, yMin], zeroline: false, gridcolor: COLOURS.grid },
+      xaxis: {
+        title: { text: 'Time after trigger (ms)' },
+        range: shown ? [shown.t0S * 1000, shown.t1S * 1000] : undefined,
+        zeroline: false,
+        gridcolor: COLOURS.grid,
+      },
+      yaxis: {
+        title: { text: `Depth (${label('depth', units)})` },
+        range: [yMax, yMin],
+        zeroline: false,
+        gridcolor: COLOURS.grid,
+      },
       shapes,
     };
-  }, [bandTopM, bandBottomM, view.selectedStation, view.tool, stations, depthOf, stepDisp, units, shown, wave, receiver, colour]);
+  }, [
+    bandTopM,
+    bandBottomM,
+    view.selectedStation,
+    view.tool,
+    stations,
+    depthOf,
+    stepDisp,
+    units,
+    shown,
+    wave,
+    receiver,
+    colour,
+  ]);
 
   // The pick markers sit on an overlay plot with the same axes: a pick edit redraws only the markers,
   // never the wiggles (Plotly recomputes every trace of a plot when any trace's data changes).
   const [axes, setAxes] = useState<{ x: number[]; y: number[] } | null>(null);
   const syncAxes = () => {
-    const fl = (divRef.current as unknown as { _fullLayout?: { xaxis: { range: number[] }; yaxis: { range: number[] } } } | null)?._fullLayout;
+    const fl = (
+      divRef.current as unknown as { _fullLayout?: { xaxis: { range: number[] }; yaxis: { range: number[] } } } | null
+    )?._fullLayout;
     if (!fl) return;
     const next = { x: [...fl.xaxis.range], y: [...fl.yaxis.range] };
-    setAxes((a) => (a && a.x[0] === next.x[0] && a.x[1] === next.x[1] && a.y[0] === next.y[0] && a.y[1] === next.y[1] ? a : next));
+    setAxes((a) =>
+      a && a.x[0] === next.x[0] && a.x[1] === next.x[1] && a.y[0] === next.y[0] && a.y[1] === next.y[1] ? a : next,
+    );
   };
   const overlayLayout = useMemo(() => {
     const x = axes?.x ?? (layout.xaxis as { range?: number[] }).range;
@@ -413,7 +563,11 @@ export function TraceBoard() {
       <div className="toolbar" role="toolbar" aria-label="Trace board tools">
         <label>
           Wave{' '}
-          <select value={wave} onChange={(e) => setView({ wave: e.target.value as Wave, selectedStation: null })} aria-label="Wave">
+          <select
+            value={wave}
+            onChange={(e) => setView({ wave: e.target.value as Wave, selectedStation: null })}
+            aria-label="Wave"
+          >
             <option value="S">S (shear)</option>
             <option value="P">P (compression)</option>
           </select>
@@ -433,7 +587,11 @@ export function TraceBoard() {
         )}
         <label>
           Editing{' '}
-          <select value={view.editMethod} onChange={(e) => setView({ editMethod: e.target.value as EditablePickMethod })} aria-label="Pick method being edited">
+          <select
+            value={view.editMethod}
+            onChange={(e) => setView({ editMethod: e.target.value as EditablePickMethod })}
+            aria-label="Pick method being edited"
+          >
             {EDIT_METHODS.map((m, i) => (
               <option key={m} value={m}>
                 {i + 1} {METHOD_WORDS[m]}
@@ -442,13 +600,28 @@ export function TraceBoard() {
           </select>
         </label>
         <span className="seg" role="group" aria-label="Mouse tool">
-          <button className={view.tool === 'pick' ? 'on' : ''} onClick={() => setView({ tool: 'pick' })} aria-pressed={view.tool === 'pick'} title="Click to place a pick, drag to move it (p)">
+          <button
+            className={view.tool === 'pick' ? 'on' : ''}
+            onClick={() => setView({ tool: 'pick' })}
+            aria-pressed={view.tool === 'pick'}
+            title="Click to place a pick, drag to move it (p)"
+          >
             Pick
           </button>
-          <button className={view.tool === 'zoom' ? 'on' : ''} onClick={() => setView({ tool: 'zoom' })} aria-pressed={view.tool === 'zoom'} title="Drag a box to zoom, double-click to see all (m)">
+          <button
+            className={view.tool === 'zoom' ? 'on' : ''}
+            onClick={() => setView({ tool: 'zoom' })}
+            aria-pressed={view.tool === 'zoom'}
+            title="Drag a box to zoom, double-click to see all (m)"
+          >
             Zoom
           </button>
-          <button className={view.tool === 'pan' ? 'on' : ''} onClick={() => setView({ tool: 'pan' })} aria-pressed={view.tool === 'pan'} title="Drag to move the view; the wheel zooms (n)">
+          <button
+            className={view.tool === 'pan' ? 'on' : ''}
+            onClick={() => setView({ tool: 'pan' })}
+            aria-pressed={view.tool === 'pan'}
+            title="Drag to move the view; the wheel zooms (n)"
+          >
             Pan
           </button>
         </span>
@@ -456,21 +629,44 @@ export function TraceBoard() {
           <input type="checkbox" checked={view.snap} onChange={(e) => setView({ snap: e.target.checked })} /> Snap
         </label>
         <label>
-          <input type="checkbox" checked={view.fill} disabled={gl} onChange={(e) => setView({ fill: e.target.checked })} /> Fill lobes{gl ? ' (not with WebGL)' : ''}
+          <input
+            type="checkbox"
+            checked={view.fill}
+            disabled={gl}
+            onChange={(e) => setView({ fill: e.target.checked })}
+          />{' '}
+          Fill lobes{gl ? ' (not with WebGL)' : ''}
         </label>
         <label>
           Scale{' '}
-          <select value={view.normalise} onChange={(e) => setView({ normalise: e.target.value as 'trace' | 'common' })} aria-label="Amplitude scaling">
+          <select
+            value={view.normalise}
+            onChange={(e) => setView({ normalise: e.target.value as 'trace' | 'common' })}
+            aria-label="Amplitude scaling"
+          >
             <option value="trace">each trace</option>
             <option value="common">common</option>
           </select>
         </label>
         <label>
-          Gain <input type="range" min={0.25} max={6} step={0.25} value={view.gain} onChange={(e) => setView({ gain: Number(e.target.value) })} aria-label="Gain" />
+          Gain{' '}
+          <input
+            type="range"
+            min={0.25}
+            max={6}
+            step={0.25}
+            value={view.gain}
+            onChange={(e) => setView({ gain: Number(e.target.value) })}
+            aria-label="Gain"
+          />
         </label>
         <label title="How the traces are drawn: auto = WebGL above 40 traces when the graphics processor draws it, else SVG">
           Draw{' '}
-          <select value={view.renderer} onChange={(e) => setView({ renderer: e.target.value as 'auto' | 'svg' | 'webgl' })} aria-label="Renderer">
+          <select
+            value={view.renderer}
+            onChange={(e) => setView({ renderer: e.target.value as 'auto' | 'svg' | 'webgl' })}
+            aria-label="Renderer"
+          >
             <option value="auto">auto</option>
             <option value="svg">SVG</option>
             <option value="webgl">WebGL</option>
@@ -478,7 +674,11 @@ export function TraceBoard() {
         </label>
         <label title="Reversed hits: the working (difference) trace alone, or both directions (first solid, second dashed)">
           Hits{' '}
-          <select value={view.hitView} onChange={(e) => setView({ hitView: e.target.value as 'working' | 'both' })} aria-label="Reversed hits">
+          <select
+            value={view.hitView}
+            onChange={(e) => setView({ hitView: e.target.value as 'working' | 'both' })}
+            aria-label="Reversed hits"
+          >
             <option value="working">difference trace</option>
             <option value="both">both directions</option>
           </select>
@@ -500,22 +700,36 @@ export function TraceBoard() {
               onRelayout={(e) => {
                 if (e['xaxis.autorange']) setRange(null);
                 else if (typeof e['xaxis.range[0]'] === 'number' && typeof e['xaxis.range[1]'] === 'number') {
-                  setRange({ t0S: (e['xaxis.range[0]'] as number) / 1000, t1S: (e['xaxis.range[1]'] as number) / 1000 });
+                  setRange({
+                    t0S: (e['xaxis.range[0]'] as number) / 1000,
+                    t1S: (e['xaxis.range[1]'] as number) / 1000,
+                  });
                 }
                 syncAxes();
               }}
             />
-            <Plot name="trace-board-picks" data={pickData} layout={overlayLayout} config={OVERLAY_CONFIG} className="plot overlay" defer="data" />
+            <Plot
+              name="trace-board-picks"
+              data={pickData}
+              layout={overlayLayout}
+              config={OVERLAY_CONFIG}
+              className="plot overlay"
+              defer="data"
+            />
           </>
         ) : (
           <div className="empty">
-            {running ? 'Preparing the working traces…' : 'No traces yet: load waveform files or open the demo survey, then give each record a depth in Geometry.'}
+            {running
+              ? 'Preparing the working traces…'
+              : 'No traces yet: load waveform files or open the demo survey, then give each record a depth in Geometry.'}
           </div>
         )}
       </div>
       <div className="board-foot" aria-live="polite">
         <span className="legend">
-          <span className="mk auto" style={{ borderColor: colour }} /> automatic <span className="mk edited" style={{ background: colour }} /> edited <span className="mk excluded">×</span> excluded
+          <span className="mk auto" style={{ borderColor: colour }} /> automatic{' '}
+          <span className="mk edited" style={{ background: colour }} /> edited <span className="mk excluded">×</span>{' '}
+          excluded
         </span>
         {view.notice && <span className="notice">{view.notice}</span>}
         <span className="muted">

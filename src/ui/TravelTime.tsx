@@ -24,13 +24,35 @@ export function TravelTime() {
   const layerFits = d?.layerFits;
   const layerModel = d?.layerModel;
   const intervals = d?.intervals;
-  const rows = useMemo(() => (travelTimes ? travelTimes.filter((r) => r.wave === wave && r.times[method] && (receiver === '*' || r.receiver === receiver)) : []), [travelTimes, wave, method, receiver]);
+  const rows = useMemo(
+    () =>
+      travelTimes
+        ? travelTimes.filter((r) => r.wave === wave && r.times[method] && (receiver === '*' || r.receiver === receiver))
+        : [],
+    [travelTimes, wave, method, receiver],
+  );
 
   const data = useMemo(() => {
     const out: PlotData[] = [];
     const y = rows.map((r) => disp('depth', units, r.depthM));
-    out.push({ type: 'scatter', mode: 'markers', name: 'time', x: rows.map((r) => r.times[method]!.timeS * 1000), y, marker: { symbol: 'circle-open', size: 7, color: colour, line: { width: 1.5 } }, hoverinfo: 'skip' });
-    out.push({ type: 'scatter', mode: 'markers', name: 'slant-corrected time', x: rows.map((r) => r.times[method]!.correctedS * 1000), y, marker: { symbol: 'circle', size: 6, color: colour, line: { width: 1, color: COLOURS.rim } }, hoverinfo: 'skip' });
+    out.push({
+      type: 'scatter',
+      mode: 'markers',
+      name: 'time',
+      x: rows.map((r) => r.times[method]!.timeS * 1000),
+      y,
+      marker: { symbol: 'circle-open', size: 7, color: colour, line: { width: 1.5 } },
+      hoverinfo: 'skip',
+    });
+    out.push({
+      type: 'scatter',
+      mode: 'markers',
+      name: 'slant-corrected time',
+      x: rows.map((r) => r.times[method]!.correctedS * 1000),
+      y,
+      marker: { symbol: 'circle', size: 6, color: colour, line: { width: 1, color: COLOURS.rim } },
+      hoverinfo: 'skip',
+    });
     for (const f of layerFits ?? []) {
       if (f.wave !== wave || f.method !== method) continue;
       const inLayer = rows.filter((r) => r.depthM >= f.topM - 1e-9 && r.depthM <= f.bottomM + 1e-9);
@@ -57,30 +79,51 @@ export function TravelTime() {
       uirevision: 'travel-time',
       margin: { l: 48, r: 8, t: 8, b: 34 },
       xaxis: { title: { text: 'Time (ms)' }, zeroline: false, gridcolor: COLOURS.grid, side: 'bottom' },
-      yaxis: { title: { text: `Depth (${label('depth', units)})` }, autorange: 'reversed', zeroline: false, gridcolor: COLOURS.grid },
+      yaxis: {
+        title: { text: `Depth (${label('depth', units)})` },
+        autorange: 'reversed',
+        zeroline: false,
+        gridcolor: COLOURS.grid,
+      },
       shapes:
         bandTopM !== null && bandBottomM !== null
-          ? [{ type: 'rect', xref: 'paper', x0: 0, x1: 1, yref: 'y', y0: disp('depth', units, bandTopM), y1: disp('depth', units, bandBottomM), fillcolor: COLOURS.band, line: { width: 0 }, layer: 'below' }]
+          ? [
+              {
+                type: 'rect',
+                xref: 'paper',
+                x0: 0,
+                x1: 1,
+                yref: 'y',
+                y0: disp('depth', units, bandTopM),
+                y1: disp('depth', units, bandBottomM),
+                fillcolor: COLOURS.band,
+                line: { width: 0 },
+                layer: 'below',
+              },
+            ]
           : [],
       annotations: fits.map((f) => {
         // Label on the side the times leave empty: a time-depth curve runs from top left to bottom
         // right, so shallow layers are labelled at the right edge and deep (late) layers at the left.
         const late = midTimeS(f) > 0.5 * Math.max(...fits.map((g) => midTimeS(g)));
         // The refracted-ray layer model (onset times, S) beside the straight-line fit, when it has this layer.
-        const ray = wave === 'S' && method === 'onset' ? layerModel?.layers.find((l) => Math.abs(l.topM - f.topM) < 1e-6 && Math.abs(l.bottomM - f.bottomM) < 1e-6) : undefined;
+        const ray =
+          wave === 'S' && method === 'onset'
+            ? layerModel?.layers.find((l) => Math.abs(l.topM - f.topM) < 1e-6 && Math.abs(l.bottomM - f.bottomM) < 1e-6)
+            : undefined;
         const text = ray
           ? `line ${fmt('velocity', units, f.velocityMps)} · ray ${fmt('velocity', units, ray.velocityMps)} ${label('velocity', units)}`
           : `${fmt('velocity', units, f.velocityMps)} ${label('velocity', units)}`;
         return {
-        xref: 'paper',
-        x: late ? 0.01 : 0.99,
-        xanchor: late ? 'left' : 'right',
-        yref: 'y',
-        y: disp('depth', units, (f.topM + f.bottomM) / 2),
-        text,
-        showarrow: false,
-        font: { size: 10, color: COLOURS.rim },
-        bgcolor: 'rgba(255,255,255,0.8)',
+          xref: 'paper',
+          x: late ? 0.01 : 0.99,
+          xanchor: late ? 'left' : 'right',
+          yref: 'y',
+          y: disp('depth', units, (f.topM + f.bottomM) / 2),
+          text,
+          showarrow: false,
+          font: { size: 10, color: COLOURS.rim },
+          bgcolor: 'rgba(255,255,255,0.8)',
         };
       }),
     };
@@ -90,8 +133,11 @@ export function TravelTime() {
     <section className="strip-pane" aria-label="Travel time">
       <h2>Travel time</h2>
       <div className="pane-note">
-        {METHOD_WORDS[method]} picks, {wave} wave{receiver !== '*' && receiver !== 'R' ? `, receiver ${receiver}` : ''}: ○ time after trigger · ● slant-corrected · lines: layer fits
-        {layerModel && wave === 'S' && method === 'onset' ? ` (line = straight slant paths; ray = refracted rays, RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)` : ''}
+        {METHOD_WORDS[method]} picks, {wave} wave{receiver !== '*' && receiver !== 'R' ? `, receiver ${receiver}` : ''}:
+        ○ time after trigger · ● slant-corrected · lines: layer fits
+        {layerModel && wave === 'S' && method === 'onset'
+          ? ` (line = straight slant paths; ray = refracted rays, RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)`
+          : ''}
       </div>
       <Plot name="travel-time" data={data} layout={layout} className="plot small" defer />
     </section>

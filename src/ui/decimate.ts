@@ -12,7 +12,14 @@ export interface Decimated {
 }
 
 /** Min/max per pixel column over [t0S, t1S]; when a column holds fewer than 3 samples the samples are kept. */
-export function decimateMinMax(samples: ArrayLike<number>, delayS: number, dtS: number, t0S: number, t1S: number, columns: number): Decimated {
+export function decimateMinMax(
+  samples: ArrayLike<number>,
+  delayS: number,
+  dtS: number,
+  t0S: number,
+  t1S: number,
+  columns: number,
+): Decimated {
   const n = samples.length;
   const i0 = Math.max(0, Math.floor((t0S - delayS) / dtS));
   const i1 = Math.min(n - 1, Math.ceil((t1S - delayS) / dtS));

@@ -10,13 +10,20 @@ export function isMethod(p: Pick, m: EditablePickMethod): boolean {
   return m === 'onset' ? ONSET.has(p.method) : p.method === m;
 }
 
-export function pickFor(picks: readonly Pick[], stationKey: string, wave: Wave, m: EditablePickMethod): Pick | undefined {
+export function pickFor(
+  picks: readonly Pick[],
+  stationKey: string,
+  wave: Wave,
+  m: EditablePickMethod,
+): Pick | undefined {
   return picks.find((p) => p.stationKey === stationKey && p.wave === wave && isMethod(p, m));
 }
 
 /** Stations on the board: one wave, one receiver ('*' = all), sorted by depth. */
 export function boardStations(stations: readonly Station[], wave: Wave, receiver: string): Station[] {
-  return stations.filter((s) => s.wave === wave && (receiver === '*' || s.receiver === receiver)).sort((a, b) => a.depthM - b.depthM || a.receiver.localeCompare(b.receiver));
+  return stations
+    .filter((s) => s.wave === wave && (receiver === '*' || s.receiver === receiver))
+    .sort((a, b) => a.depthM - b.depthM || a.receiver.localeCompare(b.receiver));
 }
 
 /** Receivers with stations of the wave, in survey order: upper before lower, near hole before far. */
@@ -35,11 +42,18 @@ export function effectiveReceiver(stations: readonly Station[], wave: Wave, chos
 }
 
 /** The interval a view should show for the current selection: the chosen one, else the one ending at the selected station. */
-export function focusInterval(d: Derived | null, selectedInterval: string | null, selectedStation: string | null, wave: Wave): string | null {
+export function focusInterval(
+  d: Derived | null,
+  selectedInterval: string | null,
+  selectedStation: string | null,
+  wave: Wave,
+): string | null {
   if (!d) return null;
   if (selectedInterval && d.intervals.some((r) => r.key === selectedInterval)) return selectedInterval;
   if (selectedStation) {
-    const r = d.intervals.find((x) => x.wave === wave && x.stationB === selectedStation) ?? d.intervals.find((x) => x.wave === wave && x.stationA === selectedStation);
+    const r =
+      d.intervals.find((x) => x.wave === wave && x.stationB === selectedStation) ??
+      d.intervals.find((x) => x.wave === wave && x.stationA === selectedStation);
     if (r) return r.key;
   }
   return d.intervals.find((x) => x.wave === wave && x.chosen)?.key ?? null;

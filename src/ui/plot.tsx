@@ -103,7 +103,10 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
         div.dataset.drawn = String(Number(div.dataset.drawn ?? '0') + 1);
         if (!alive) return;
         onDrawn?.(ms);
-        const d = div as unknown as { on?: (ev: string, f: (e: Record<string, unknown>) => void) => void; __bwRelayout?: boolean };
+        const d = div as unknown as {
+          on?: (ev: string, f: (e: Record<string, unknown>) => void) => void;
+          __bwRelayout?: boolean;
+        };
         if (!d.__bwRelayout && d.on) {
           d.__bwRelayout = true;
           d.on('plotly_relayout', (e) => relayoutRef.current?.(e));
@@ -138,13 +141,20 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
  * Top and bottom (m) of the hovered interval, as plain numbers so a layout that draws the band changes
  * only when the band moves (not on every new result).
  */
-export function hoveredBand(intervals: readonly { key: string; topM: number; bottomM: number }[] | undefined, key: string | null): [number | null, number | null] {
+export function hoveredBand(
+  intervals: readonly { key: string; topM: number; bottomM: number }[] | undefined,
+  key: string | null,
+): [number | null, number | null] {
   const r = key ? intervals?.find((x) => x.key === key) : undefined;
   return r ? [r.topM, r.bottomM] : [null, null];
 }
 
 /** Pixel -> data conversion from Plotly's laid-out axes (x, y of the main subplot). */
-export function pointerToData(div: HTMLDivElement, clientX: number, clientY: number): { x: number; y: number; inside: boolean } | null {
+export function pointerToData(
+  div: HTMLDivElement,
+  clientX: number,
+  clientY: number,
+): { x: number; y: number; inside: boolean } | null {
   const fl = (div as unknown as { _fullLayout?: { xaxis: Axis; yaxis: Axis } })._fullLayout;
   if (!fl) return null;
   const box = div.getBoundingClientRect();
@@ -175,9 +185,17 @@ export function downloadPlot(name: string, format: 'png' | 'svg', fileName: stri
   const over = OVERLAYS[name] ? plotRegistry.get(OVERLAYS[name]) : undefined;
   if (over) {
     // Base and overlay as one figure, with the axes as the user sees them.
-    const base = div as unknown as { data: PlotData[]; layout: PlotLayout; _fullLayout: { xaxis: { range: number[] }; yaxis: { range: number[] } } };
+    const base = div as unknown as {
+      data: PlotData[];
+      layout: PlotLayout;
+      _fullLayout: { xaxis: { range: number[] }; yaxis: { range: number[] } };
+    };
     const top = over as unknown as { data: PlotData[] };
-    const layout = { ...base.layout, xaxis: { ...(base.layout.xaxis as object), range: [...base._fullLayout.xaxis.range] }, yaxis: { ...(base.layout.yaxis as object), range: [...base._fullLayout.yaxis.range] } };
+    const layout = {
+      ...base.layout,
+      xaxis: { ...(base.layout.xaxis as object), range: [...base._fullLayout.xaxis.range] },
+      yaxis: { ...(base.layout.yaxis as object), range: [...base._fullLayout.yaxis.range] },
+    };
     return Plotly.downloadImage({ data: [...base.data, ...top.data], layout } as never, size as never);
   }
   return Plotly.downloadImage(div as never, size as never);

@@ -49,7 +49,10 @@ export class WorkerLane {
       if (p && p.onMessage(ev.data)) this.pending.delete(ev.data.jobId);
     };
     w.onerror = (ev) => {
-      const err: ErrorInfo = { code: 'WORKER_FAILED', message: `The background worker stopped: ${ev.message || 'unknown reason'}.` };
+      const err: ErrorInfo = {
+        code: 'WORKER_FAILED',
+        message: `The background worker stopped: ${ev.message || 'unknown reason'}.`,
+      };
       for (const p of this.pending.values()) p.reject(err);
       this.pending.clear();
       this.worker?.terminate();

@@ -11,8 +11,16 @@ import { newProjectDocument, readProjectArchive, writeProjectArchive } from '../
 import type { Survey } from '../../src/core/model';
 
 const survey: Survey = {
-  name: 'f', kind: 'crosshole', boreholes: [], mainHoleId: 'A', sourceOffsetM: 0, sourceDepthM: 0, receiverSpacingM: 0, receiverHoleIds: ['B', 'C'],
-  records: [], soil: { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },
+  name: 'f',
+  kind: 'crosshole',
+  boreholes: [],
+  mainHoleId: 'A',
+  sourceOffsetM: 0,
+  sourceDepthM: 0,
+  receiverSpacingM: 0,
+  receiverHoleIds: ['B', 'C'],
+  records: [],
+  soil: { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },
 };
 const valid = writeProjectArchive(newProjectDocument(survey), [{ name: 'x.sg2', bytes: new Uint8Array(64).fill(7) }]);
 
@@ -31,22 +39,33 @@ function outcome(bytes: Uint8Array): 'ok' | string {
 
 describe('project archive survives hostile input', () => {
   it('random bytes (with and without a zip signature)', () => {
-    fc.assert(fc.property(fc.uint8Array({ maxLength: 2000 }), fc.boolean(), (b, sig) => {
-      if (sig && b.length > 4) b.set([0x50, 0x4b, 3, 4]);
-      outcome(b);
-    }), { numRuns: 500, seed: 11 });
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 2000 }), fc.boolean(), (b, sig) => {
+        if (sig && b.length > 4) b.set([0x50, 0x4b, 3, 4]);
+        outcome(b);
+      }),
+      { numRuns: 500, seed: 11 },
+    );
   });
   it('mutated and truncated valid archives', () => {
-    fc.assert(fc.property(fc.array(fc.tuple(fc.nat(valid.length - 1), fc.integer({ min: 0, max: 255 })), { maxLength: 8 }), fc.nat(valid.length), (muts, cut) => {
-      const b = valid.slice(0, Math.max(cut, 1));
-      for (const [i, v] of muts) if (i < b.length) b[i] = v;
-      outcome(b);
-    }), { numRuns: 800, seed: 12 });
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.nat(valid.length - 1), fc.integer({ min: 0, max: 255 })), { maxLength: 8 }),
+        fc.nat(valid.length),
+        (muts, cut) => {
+          const b = valid.slice(0, Math.max(cut, 1));
+          for (const [i, v] of muts) if (i < b.length) b[i] = v;
+          outcome(b);
+        },
+      ),
+      { numRuns: 800, seed: 12 },
+    );
   });
   it('a central directory that declares a 4 GiB entry is refused before unpacking', () => {
     const b = valid.slice();
     const v = new DataView(b.buffer);
-    for (let i = 0; i + 28 < b.length; i++) if (v.getUint32(i, true) === 0x02014b50) v.setUint32(i + 24, 0xffffffff, true);
+    for (let i = 0; i + 28 < b.length; i++)
+      if (v.getUint32(i, true) === 0x02014b50) v.setUint32(i + 24, 0xffffffff, true);
     expect(outcome(b)).toBe('ARCHIVE_ENTRY_TOO_LARGE');
   });
   it('deep folders inside the zip are tolerated (files matched by their base name)', () => {

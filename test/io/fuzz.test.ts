@@ -20,7 +20,14 @@ function checkOne(bytes: Uint8Array, name: string): void {
 function seed(order: 'little' | 'big', code: 1 | 2 | 4 | 5): Uint8Array {
   const s = Float64Array.from({ length: 16 }, (_, i) => Math.sin(i));
   return writeSeg2(
-    { fileStrings: { UNITS: 'METERS' }, notes: ['n'], traces: [{ channel: 1, samples: s, sampleIntervalS: 1e-4, delayS: 0, receiverLocation: [0, 0, 3] }, { channel: 2, samples: s, sampleIntervalS: 1e-4, delayS: 0 }] },
+    {
+      fileStrings: { UNITS: 'METERS' },
+      notes: ['n'],
+      traces: [
+        { channel: 1, samples: s, sampleIntervalS: 1e-4, delayS: 0, receiverLocation: [0, 0, 3] },
+        { channel: 2, samples: s, sampleIntervalS: 1e-4, delayS: 0 },
+      ],
+    },
     { byteOrder: order, formatCode: code },
   );
 }
@@ -29,23 +36,31 @@ const SEEDS = [seed('little', 1), seed('big', 2), seed('little', 4), seed('big',
 describe('readWaveFile fuzz (about 2,000 cases)', () => {
   it('random bytes, some starting with a SEG-2 block id', () => {
     fc.assert(
-      fc.property(fc.uint8Array({ maxLength: 400 }), fc.constantFrom<number[]>([], [0x55, 0x3a], [0x3a, 0x55]), (body, head) => {
-        const b = new Uint8Array(head.length + body.length);
-        b.set(head);
-        b.set(body, head.length);
-        checkOne(b, 'r.sg2');
-      }),
+      fc.property(
+        fc.uint8Array({ maxLength: 400 }),
+        fc.constantFrom<number[]>([], [0x55, 0x3a], [0x3a, 0x55]),
+        (body, head) => {
+          const b = new Uint8Array(head.length + body.length);
+          b.set(head);
+          b.set(body, head.length);
+          checkOne(b, 'r.sg2');
+        },
+      ),
       { numRuns: 500 },
     );
   });
 
   it('mutated valid files', () => {
     fc.assert(
-      fc.property(fc.nat(SEEDS.length - 1), fc.array(fc.tuple(fc.nat(), fc.nat(255)), { minLength: 1, maxLength: 8 }), (k, edits) => {
-        const b = SEEDS[k].slice();
-        for (const [pos, val] of edits) b[pos % b.length] = val;
-        checkOne(b, 'm.sg2');
-      }),
+      fc.property(
+        fc.nat(SEEDS.length - 1),
+        fc.array(fc.tuple(fc.nat(), fc.nat(255)), { minLength: 1, maxLength: 8 }),
+        (k, edits) => {
+          const b = SEEDS[k].slice();
+          for (const [pos, val] of edits) b[pos % b.length] = val;
+          checkOne(b, 'm.sg2');
+        },
+      ),
       { numRuns: 800 },
     );
   });
@@ -63,7 +78,9 @@ describe('readWaveFile fuzz (about 2,000 cases)', () => {
   it('random text from a delimiter-heavy alphabet', () => {
     const ch = fc.constantFrom(...'0123456789.,;\t -+eE#/\n\r"abtms()_'.split(''));
     fc.assert(
-      fc.property(fc.array(ch, { maxLength: 300 }), (chars) => checkOne(new TextEncoder().encode(chars.join('')), 'x.csv')),
+      fc.property(fc.array(ch, { maxLength: 300 }), (chars) =>
+        checkOne(new TextEncoder().encode(chars.join('')), 'x.csv'),
+      ),
       { numRuns: 400 },
     );
   });

@@ -12,7 +12,10 @@ import { buildSeg2, sampleBytes } from './seg2-fixtures';
 
 function capture() {
   const out = { stdout: '', stderr: '' };
-  return { out, io: { stdout: { write: (s: string) => (out.stdout += s) }, stderr: { write: (s: string) => (out.stderr += s) } } };
+  return {
+    out,
+    io: { stdout: { write: (s: string) => (out.stdout += s) }, stderr: { write: (s: string) => (out.stderr += s) } },
+  };
 }
 
 let dir = '';
@@ -24,7 +27,13 @@ beforeAll(async () => {
     traces: [
       {
         // float32 1.5, -0.25, 1024, -3 (struct.pack('<f'))
-        strings: ['SAMPLE_INTERVAL 0.00005', 'DELAY 0', 'CHANNEL_NUMBER 1', 'RECEIVER_LOCATION 0 0 5', 'SOURCE_LOCATION 2 0 0'],
+        strings: [
+          'SAMPLE_INTERVAL 0.00005',
+          'DELAY 0',
+          'CHANNEL_NUMBER 1',
+          'RECEIVER_LOCATION 0 0 5',
+          'SOURCE_LOCATION 2 0 0',
+        ],
         formatCode: 4,
         sampleCount: 4,
         data: sampleBytes(['00 00 c0 3f', '00 00 80 be', '00 00 80 44', '00 00 40 c0'], 'little'),
@@ -50,11 +59,24 @@ describe('runInspect', () => {
     expect(doc.files).toHaveLength(3);
     const [a, bad, c] = doc.files;
     expect(a).toMatchObject({ file: join(dir, 'a.sg2'), ok: true, format: 'seg2', byteOrder: 'little', formatCode: 4 });
-    expect(a.traces[0]).toMatchObject({ channel: 1, samples: 4, sampleIntervalS: 5e-5, delayS: 0, min: -3, max: 1024, receiverLocation: [0, 0, 5], sourceLocation: [2, 0, 0] });
+    expect(a.traces[0]).toMatchObject({
+      channel: 1,
+      samples: 4,
+      sampleIntervalS: 5e-5,
+      delayS: 0,
+      min: -3,
+      max: 1024,
+      receiverLocation: [0, 0, 5],
+      sourceLocation: [2, 0, 0],
+    });
     // RMS = sqrt((1.5^2 + 0.25^2 + 1024^2 + 3^2) / 4) = sqrt(1048587.3125 / 4)
     expect(a.traces[0].rms).toBeCloseTo(Math.sqrt(1048587.3125 / 4), 9);
     expect(bad).toMatchObject({ ok: false, error: { code: 'SEG2_POINTER_PAST_END' } });
-    expect(c).toMatchObject({ ok: true, format: 'text', traces: [{ channel: 1, samples: 2, sampleIntervalS: 2.5e-4 }] });
+    expect(c).toMatchObject({
+      ok: true,
+      format: 'text',
+      traces: [{ channel: 1, samples: 2, sampleIntervalS: 2.5e-4 }],
+    });
   });
 
   it('exits 0 when every file reads; plain output is a table naming each file', async () => {

@@ -15,7 +15,14 @@ function seg2File(order: 'little' | 'big') {
     fileStrings: ['UNITS METERS'],
     traces: [
       {
-        strings: ['SAMPLE_INTERVAL 0.00005', 'DELAY 0', 'CHANNEL_NUMBER 1', 'RECEIVER_LOCATION 0 0 5', 'SOURCE_LOCATION 2 0 0', 'DESCALING_FACTOR 0.5'],
+        strings: [
+          'SAMPLE_INTERVAL 0.00005',
+          'DELAY 0',
+          'CHANNEL_NUMBER 1',
+          'RECEIVER_LOCATION 0 0 5',
+          'SOURCE_LOCATION 2 0 0',
+          'DESCALING_FACTOR 0.5',
+        ],
         formatCode: 1,
         sampleCount: 4,
         data: sampleBytes(['64 00', '38 ff', '00 00', 'c8 00'], order), // 100, -200, 0, 200
@@ -56,7 +63,11 @@ describe('readWaveFile', () => {
   it('a batch with one bad file still returns the good ones', () => {
     const good = seg2File('little');
     const bad = good.slice(0, good.length - 3); // truncated data
-    const files: [Uint8Array, string][] = [[good, '1.sg2'], [bad, '2.sg2'], [enc('t_s,a\n0,1\n0.001,2\n'), '3.csv']];
+    const files: [Uint8Array, string][] = [
+      [good, '1.sg2'],
+      [bad, '2.sg2'],
+      [enc('t_s,a\n0,1\n0.001,2\n'), '3.csv'],
+    ];
     const out = files.map(([b, n]) => readWaveFile(b, n));
     expect(out.map((o) => o.ok)).toEqual([true, false, true]);
     expect(out[1].ok ? '' : out[1].error.code).toBe('SEG2_TRUNCATED');
@@ -72,7 +83,16 @@ describe('summarizeRecord', () => {
     expect(s).toMatchObject({ file: 's.sg2', format: 'seg2', byteOrder: 'big', formatCode: 1 });
     const t = s.traces[0];
     // samples 100, -200, 0, 200 x 0.5 = 50, -100, 0, 100; RMS = sqrt((2500 + 10000 + 0 + 10000) / 4) = 75
-    expect(t).toMatchObject({ channel: 1, samples: 4, sampleIntervalS: 5e-5, delayS: 0, min: -100, max: 100, receiverLocation: [0, 0, 5], sourceLocation: [2, 0, 0] });
+    expect(t).toMatchObject({
+      channel: 1,
+      samples: 4,
+      sampleIntervalS: 5e-5,
+      delayS: 0,
+      min: -100,
+      max: 100,
+      receiverLocation: [0, 0, 5],
+      sourceLocation: [2, 0, 0],
+    });
     expect(t.rms).toBeCloseTo(75, 12);
   });
 

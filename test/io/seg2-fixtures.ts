@@ -73,8 +73,12 @@ export function buildSeg2(spec: FixtureSpec): Uint8Array {
     ...uint(1, 2, o), // 2-3: revision number 1
     ...uint(M, 2, o), // 4-5: M, size of trace pointer sub-block
     ...uint(spec.traces.length, 2, o), // 6-7: N, number of traces
-    st.length, st[0], st[1] ?? 0, // 8: string terminator size, 9-10: its characters
-    lt.length, lt[0], lt[1] ?? 0, // 11: line terminator size, 12-13: its characters
+    st.length,
+    st[0],
+    st[1] ?? 0, // 8: string terminator size, 9-10: its characters
+    lt.length,
+    lt[0],
+    lt[1] ?? 0, // 11: line terminator size, 12-13: its characters
     ...new Array(18).fill(0), // 14-31: reserved
   ];
   let offset = 32 + M + fileStrings.length;

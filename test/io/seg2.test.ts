@@ -20,7 +20,11 @@ function codeOf(f: () => unknown): string {
   throw new Error('expected a BorewaveError');
 }
 
-const hex = (s: string) => s.split(/\s+/).filter(Boolean).map((x) => parseInt(x, 16));
+const hex = (s: string) =>
+  s
+    .split(/\s+/)
+    .filter(Boolean)
+    .map((x) => parseInt(x, 16));
 
 // ------------------------------------------------------------ golden 20-bit vector, literal bytes
 // Whole file written out byte by byte (little-endian) from the standard's layout.
@@ -52,7 +56,14 @@ describe('SEG-2 format 3 (20-bit floating point)', () => {
     const built = buildSeg2({
       order: 'little',
       fileStrings: [],
-      traces: [{ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 3, sampleCount: 4, data: hex('01 21 64 00 fa ff 03 00 07 00') }],
+      traces: [
+        {
+          strings: ['SAMPLE_INTERVAL 0.001'],
+          formatCode: 3,
+          sampleCount: 4,
+          data: hex('01 21 64 00 fa ff 03 00 07 00'),
+        },
+      ],
     });
     expect(Array.from(built)).toEqual(Array.from(GOLDEN_LE));
   });
@@ -61,7 +72,14 @@ describe('SEG-2 format 3 (20-bit floating point)', () => {
     const f = buildSeg2({
       order: 'big',
       fileStrings: [],
-      traces: [{ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 3, sampleCount: 4, data: hex('21 01 00 64 ff fa 00 03 00 07') }],
+      traces: [
+        {
+          strings: ['SAMPLE_INTERVAL 0.001'],
+          formatCode: 3,
+          sampleCount: 4,
+          data: hex('21 01 00 64 ff fa 00 03 00 07'),
+        },
+      ],
     });
     const r = readSeg2(f, 'golden-be.sg2');
     expect(r.byteOrder).toBe('big');
@@ -69,7 +87,18 @@ describe('SEG-2 format 3 (20-bit floating point)', () => {
   });
 
   it('rejects a sample count that is not a multiple of 4', () => {
-    const f = buildSeg2({ order: 'little', fileStrings: [], traces: [{ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 3, sampleCount: 3, data: hex('01 21 64 00 fa ff 03 00 07 00') }] });
+    const f = buildSeg2({
+      order: 'little',
+      fileStrings: [],
+      traces: [
+        {
+          strings: ['SAMPLE_INTERVAL 0.001'],
+          formatCode: 3,
+          sampleCount: 3,
+          data: hex('01 21 64 00 fa ff 03 00 07 00'),
+        },
+      ],
+    });
     expect(codeOf(() => readSeg2(f, 'x.sg2'))).toBe('SEG2_BAD_SAMPLE_COUNT');
   });
 });
@@ -80,11 +109,26 @@ const FORMAT_CASES: { code: number; le: string[]; descaling: string; expected: n
   // int16 100, -200, 32767, -32768, times DESCALING_FACTOR 0.25
   { code: 1, le: ['64 00', '38 ff', 'ff 7f', '00 80'], descaling: '0.25', expected: [25, -50, 8191.75, -8192] },
   // int32 100000, -1, 2147483647, -2147483648; 2147483647 rounds to 2^31 in 32-bit float (IEEE 754)
-  { code: 2, le: ['a0 86 01 00', 'ff ff ff ff', 'ff ff ff 7f', '00 00 00 80'], descaling: '1', expected: [100000, -1, 2147483648, -2147483648] },
+  {
+    code: 2,
+    le: ['a0 86 01 00', 'ff ff ff ff', 'ff ff ff 7f', '00 00 00 80'],
+    descaling: '1',
+    expected: [100000, -1, 2147483648, -2147483648],
+  },
   // float32 1.5, -0.25, 1024, -3 times 2
-  { code: 4, le: ['00 00 c0 3f', '00 00 80 be', '00 00 80 44', '00 00 40 c0'], descaling: '2', expected: [3, -0.5, 2048, -6] },
+  {
+    code: 4,
+    le: ['00 00 c0 3f', '00 00 80 be', '00 00 80 44', '00 00 40 c0'],
+    descaling: '2',
+    expected: [3, -0.5, 2048, -6],
+  },
   // float64 0.1, -2.5, 1e10, 0; 0.1 stored as float32 0.10000000149011612 (numpy.float32(0.1))
-  { code: 5, le: ['9a 99 99 99 99 99 b9 3f', '00 00 00 00 00 00 04 c0', '00 00 00 20 5f a0 02 42', '00 00 00 00 00 00 00 00'], descaling: '1', expected: [0.10000000149011612, -2.5, 1e10, 0] },
+  {
+    code: 5,
+    le: ['9a 99 99 99 99 99 b9 3f', '00 00 00 00 00 00 04 c0', '00 00 00 20 5f a0 02 42', '00 00 00 00 00 00 00 00'],
+    descaling: '1',
+    expected: [0.10000000149011612, -2.5, 1e10, 0],
+  },
 ];
 
 describe.each(['little', 'big'] as Order[])('SEG-2 data formats, %s-endian', (order) => {
@@ -92,7 +136,14 @@ describe.each(['little', 'big'] as Order[])('SEG-2 data formats, %s-endian', (or
     const f = buildSeg2({
       order,
       fileStrings: [],
-      traces: [{ strings: ['SAMPLE_INTERVAL 0.0005', `DESCALING_FACTOR ${descaling}`], formatCode: code, sampleCount: 4, data: sampleBytes(le, order) }],
+      traces: [
+        {
+          strings: ['SAMPLE_INTERVAL 0.0005', `DESCALING_FACTOR ${descaling}`],
+          formatCode: code,
+          sampleCount: 4,
+          data: sampleBytes(le, order),
+        },
+      ],
     });
     const r = readSeg2(f, 'f.sg2');
     expect(r.byteOrder).toBe(order);
@@ -119,25 +170,34 @@ describe('SEG-2 strings', () => {
       pointerSlots: 4, // M = 16: three spare pointer slots after the one trace
       stringTerminator: [0x00],
       lineTerminator: [0x0d, 0x0a], // two-byte line terminator CR LF
-      fileStrings: ['ACQUISITION_DATE 01/12/2026', 'UNITS METERS', 'NOTE\r\nfirst line\r\nsecond  line', 'DELAY 0.5', 'VENDOR_THING  a   b '],
+      fileStrings: [
+        'ACQUISITION_DATE 01/12/2026',
+        'UNITS METERS',
+        'NOTE\r\nfirst line\r\nsecond  line',
+        'DELAY 0.5',
+        'VENDOR_THING  a   b ',
+      ],
       traces: [{ strings: traceStrings, formatCode: 1, sampleCount: 2, data: sampleBytes(['64 00', '38 ff'], order) }],
     });
 
-  it.each(['little', 'big'] as Order[])('reads keywords, unknown keywords, notes and locations (%s-endian)', (order) => {
-    const r = readSeg2(fixture(order), 'strings.sg2');
-    expect(r.fileStrings.UNITS).toBe('METERS');
-    expect(r.fileStrings.VENDOR_THING).toBe('a   b'); // value trimmed, inner spaces kept
-    expect(r.notes).toEqual(['first line', 'second  line']);
-    const t = r.traces[0];
-    expect(t.channel).toBe(7);
-    expect(t.sampleIntervalS).toBe(0.00025);
-    expect(t.delayS).toBe(-0.002); // trace DELAY overrides file DELAY 0.5
-    expect(t.receiverLocation).toEqual([0, 0, 5.5]);
-    expect(t.sourceLocation).toEqual([2, 0, 0]);
-    expect(t.strings.STACK).toBe('4');
-    expect(t.strings.MY_PRIVATE_KEY).toBe('value with   inner   spaces');
-    expect(Array.from(t.samples)).toEqual([50, -100]); // int16 100, -200 x 0.5
-  });
+  it.each(['little', 'big'] as Order[])(
+    'reads keywords, unknown keywords, notes and locations (%s-endian)',
+    (order) => {
+      const r = readSeg2(fixture(order), 'strings.sg2');
+      expect(r.fileStrings.UNITS).toBe('METERS');
+      expect(r.fileStrings.VENDOR_THING).toBe('a   b'); // value trimmed, inner spaces kept
+      expect(r.notes).toEqual(['first line', 'second  line']);
+      const t = r.traces[0];
+      expect(t.channel).toBe(7);
+      expect(t.sampleIntervalS).toBe(0.00025);
+      expect(t.delayS).toBe(-0.002); // trace DELAY overrides file DELAY 0.5
+      expect(t.receiverLocation).toEqual([0, 0, 5.5]);
+      expect(t.sourceLocation).toEqual([2, 0, 0]);
+      expect(t.strings.STACK).toBe('4');
+      expect(t.strings.MY_PRIVATE_KEY).toBe('value with   inner   spaces');
+      expect(Array.from(t.samples)).toEqual([50, -100]); // int16 100, -200 x 0.5
+    },
+  );
 
   it('uses file-level values when the trace has none (trace values override file values)', () => {
     const f = buildSeg2({
@@ -168,7 +228,12 @@ describe('SEG-2 strings', () => {
 });
 
 // ------------------------------------------------------------ bad input
-const goodTrace = (): FixtureTrace => ({ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 4, sampleCount: 4, data: sampleBytes(['00 00 c0 3f', '00 00 80 be', '00 00 80 44', '00 00 40 c0'], 'little') });
+const goodTrace = (): FixtureTrace => ({
+  strings: ['SAMPLE_INTERVAL 0.001'],
+  formatCode: 4,
+  sampleCount: 4,
+  data: sampleBytes(['00 00 c0 3f', '00 00 80 be', '00 00 80 44', '00 00 40 c0'], 'little'),
+});
 const good = () => buildSeg2({ order: 'little', fileStrings: ['UNITS METERS'], traces: [goodTrace(), goodTrace()] });
 
 describe('SEG-2 bad input gives typed errors', () => {
@@ -251,7 +316,14 @@ describe('SEG-2 bad input gives typed errors', () => {
 
   it('NaN float32 sample -> SEG2_NONFINITE_SAMPLE naming trace and sample index', () => {
     // 00 00 c0 7f is a quiet NaN in IEEE 754 binary32
-    const f = buildSeg2({ order: 'little', fileStrings: [], traces: [goodTrace(), { ...goodTrace(), data: sampleBytes(['00 00 c0 3f', '00 00 80 be', '00 00 c0 7f', '00 00 40 c0'], 'little') }] });
+    const f = buildSeg2({
+      order: 'little',
+      fileStrings: [],
+      traces: [
+        goodTrace(),
+        { ...goodTrace(), data: sampleBytes(['00 00 c0 3f', '00 00 80 be', '00 00 c0 7f', '00 00 40 c0'], 'little') },
+      ],
+    });
     const e = errorOf(() => readSeg2(f, 'nan.sg2'));
     expect(e.code).toBe('SEG2_NONFINITE_SAMPLE');
     expect(e.field).toBe('trace 2 sample 2');
@@ -259,21 +331,42 @@ describe('SEG-2 bad input gives typed errors', () => {
 
   it('+Inf float64 sample and a float64 beyond the float32 range -> SEG2_NONFINITE_SAMPLE', () => {
     // 00 .. f0 7f = +Infinity (binary64); 1e300 overflows binary32
-    const inf = buildSeg2({ order: 'big', fileStrings: [], traces: [{ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 5, sampleCount: 1, data: sampleBytes(['00 00 00 00 00 00 f0 7f'], 'big') }] });
+    const inf = buildSeg2({
+      order: 'big',
+      fileStrings: [],
+      traces: [
+        {
+          strings: ['SAMPLE_INTERVAL 0.001'],
+          formatCode: 5,
+          sampleCount: 1,
+          data: sampleBytes(['00 00 00 00 00 00 f0 7f'], 'big'),
+        },
+      ],
+    });
     expect(codeOf(() => readSeg2(inf, 'inf.sg2'))).toBe('SEG2_NONFINITE_SAMPLE');
     const huge = new Uint8Array(8);
     new DataView(huge.buffer).setFloat64(0, 1e300, true);
-    const f2 = buildSeg2({ order: 'little', fileStrings: [], traces: [{ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 5, sampleCount: 1, data: Array.from(huge) }] });
+    const f2 = buildSeg2({
+      order: 'little',
+      fileStrings: [],
+      traces: [{ strings: ['SAMPLE_INTERVAL 0.001'], formatCode: 5, sampleCount: 1, data: Array.from(huge) }],
+    });
     expect(codeOf(() => readSeg2(f2, 'huge.sg2'))).toBe('SEG2_NONFINITE_SAMPLE');
   });
 
-  it.each([['missing', []], ['zero', ['SAMPLE_INTERVAL 0']], ['negative', ['SAMPLE_INTERVAL -0.001']], ['text', ['SAMPLE_INTERVAL fast']]])(
-    '%s SAMPLE_INTERVAL -> SEG2_BAD_SAMPLE_INTERVAL',
-    (_label, strings) => {
-      const f = buildSeg2({ order: 'little', fileStrings: [], traces: [{ ...goodTrace(), strings: strings as string[] }] });
-      expect(codeOf(() => readSeg2(f, 'si.sg2'))).toBe('SEG2_BAD_SAMPLE_INTERVAL');
-    },
-  );
+  it.each([
+    ['missing', []],
+    ['zero', ['SAMPLE_INTERVAL 0']],
+    ['negative', ['SAMPLE_INTERVAL -0.001']],
+    ['text', ['SAMPLE_INTERVAL fast']],
+  ])('%s SAMPLE_INTERVAL -> SEG2_BAD_SAMPLE_INTERVAL', (_label, strings) => {
+    const f = buildSeg2({
+      order: 'little',
+      fileStrings: [],
+      traces: [{ ...goodTrace(), strings: strings as string[] }],
+    });
+    expect(codeOf(() => readSeg2(f, 'si.sg2'))).toBe('SEG2_BAD_SAMPLE_INTERVAL');
+  });
 
   it('declared data block smaller than the samples need -> SEG2_BAD_DATA_SIZE', () => {
     const f = buildSeg2({ order: 'little', fileStrings: [], traces: [{ ...goodTrace(), dataBytesDeclared: 8 }] });
@@ -297,7 +390,15 @@ function testTraces(): Seg2TraceInput[] {
     b[i] = Math.fround(-3.2e-3 * Math.cos(i / 3) + 1e-4);
   }
   return [
-    { channel: 1, samples: a, sampleIntervalS: 5e-5, delayS: 0, receiverLocation: [0, 0, 5], sourceLocation: [2, 0, 0], strings: { STACK: '3', RECEIVER: 'H1 up' } },
+    {
+      channel: 1,
+      samples: a,
+      sampleIntervalS: 5e-5,
+      delayS: 0,
+      receiverLocation: [0, 0, 5],
+      sourceLocation: [2, 0, 0],
+      strings: { STACK: '3', RECEIVER: 'H1 up' },
+    },
     { channel: 2, samples: b, sampleIntervalS: 5e-5, delayS: -0.001, receiverLocation: [0, 0, 5.5] },
   ];
 }
@@ -305,7 +406,10 @@ function testTraces(): Seg2TraceInput[] {
 describe.each(['little', 'big'] as Order[])('writeSeg2 -> readSeg2 round trip, %s-endian', (order) => {
   it.each([1, 2, 4, 5] as const)('format %i', (formatCode) => {
     const input = testTraces();
-    const bytes = writeSeg2({ fileStrings: { UNITS: 'METERS' }, notes: ['line one', 'line two'], traces: input }, { byteOrder: order, formatCode });
+    const bytes = writeSeg2(
+      { fileStrings: { UNITS: 'METERS' }, notes: ['line one', 'line two'], traces: input },
+      { byteOrder: order, formatCode },
+    );
     expect(Array.from(bytes.subarray(0, 2))).toEqual(order === 'little' ? [0x55, 0x3a] : [0x3a, 0x55]);
     expect(Array.from(bytes.subarray(4, 8))).toEqual([...uint(8, 2, order), ...uint(2, 2, order)]); // M = 8, N = 2
     const r = readSeg2(bytes, 'rt.sg2');
@@ -344,24 +448,27 @@ describe('writeSeg2 layout (field positions from Pullan 1990)', () => {
     ['big', 2, 4],
     ['little', 4, 4],
     ['big', 5, 8],
-  ] as const)('%s-endian format %i: pointers, trace block id, X, Y = NS x %i bytes, format code', (order, formatCode, bytesPerSample) => {
-    const bytes = writeSeg2({ traces: testTraces() }, { byteOrder: order, formatCode });
-    const v = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-    const le = order === 'little';
-    expect(v.getUint16(0, le)).toBe(0x3a55);
-    expect(v.getUint16(2, le)).toBe(1); // revision
-    expect([bytes[8], bytes[9], bytes[11], bytes[12]]).toEqual([1, 0x00, 1, 0x0a]); // NUL string, LF line terminators
-    let end = 0;
-    for (let k = 0; k < 2; k++) {
-      const p = v.getUint32(32 + 4 * k, le);
-      expect(v.getUint16(p, le)).toBe(0x4422);
-      const X = v.getUint16(p + 2, le);
-      expect(X % 4).toBe(0); // descriptor size a multiple of 4 bytes
-      expect(v.getUint32(p + 8, le)).toBe(500); // NS
-      expect(v.getUint32(p + 4, le)).toBe(500 * bytesPerSample); // Y
-      expect(bytes[p + 12]).toBe(formatCode);
-      end = p + X + 500 * bytesPerSample;
-    }
-    expect(end).toBe(bytes.length);
-  });
+  ] as const)(
+    '%s-endian format %i: pointers, trace block id, X, Y = NS x %i bytes, format code',
+    (order, formatCode, bytesPerSample) => {
+      const bytes = writeSeg2({ traces: testTraces() }, { byteOrder: order, formatCode });
+      const v = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+      const le = order === 'little';
+      expect(v.getUint16(0, le)).toBe(0x3a55);
+      expect(v.getUint16(2, le)).toBe(1); // revision
+      expect([bytes[8], bytes[9], bytes[11], bytes[12]]).toEqual([1, 0x00, 1, 0x0a]); // NUL string, LF line terminators
+      let end = 0;
+      for (let k = 0; k < 2; k++) {
+        const p = v.getUint32(32 + 4 * k, le);
+        expect(v.getUint16(p, le)).toBe(0x4422);
+        const X = v.getUint16(p + 2, le);
+        expect(X % 4).toBe(0); // descriptor size a multiple of 4 bytes
+        expect(v.getUint32(p + 8, le)).toBe(500); // NS
+        expect(v.getUint32(p + 4, le)).toBe(500 * bytesPerSample); // Y
+        expect(bytes[p + 12]).toBe(formatCode);
+        end = p + X + 500 * bytesPerSample;
+      }
+      expect(end).toBe(bytes.length);
+    },
+  );
 });

@@ -40,7 +40,8 @@ describe('readDelimitedText: separators and units', () => {
   });
 
   it('whitespace separated (runs of spaces), no header, # and // comments and blank lines skipped', () => {
-    const text = '# exported by a logger\n// second comment\n\n  0.00002   1.0  -1.0\n  0.00004   2.0  -2.0\n\n  0.00006   3.0  -3.0\n';
+    const text =
+      '# exported by a logger\n// second comment\n\n  0.00002   1.0  -1.0\n  0.00004   2.0  -2.0\n\n  0.00006   3.0  -3.0\n';
     const r = readDelimitedText(text, 'd.dat');
     expect(r.fileStrings.SEPARATOR).toBe('whitespace');
     expect(r.traces).toHaveLength(2);

@@ -50,7 +50,14 @@ function pairsFor(zs: number[]): DelayRequest[] {
   const out: DelayRequest[] = [];
   for (let i = 0; i + 1 < zs.length; i++) {
     const dr = Math.hypot(offsetM, zs[i + 1]) - Math.hypot(offsetM, zs[i]);
-    out.push({ pairKey: `${zs[i]}-${zs[i + 1]}`, wave: 'S', a: `R@${zs[i]}`, b: `R@${zs[i + 1]}`, minDelayS: dr / 1500, maxDelayS: dr / 50 });
+    out.push({
+      pairKey: `${zs[i]}-${zs[i + 1]}`,
+      wave: 'S',
+      a: `R@${zs[i]}`,
+      b: `R@${zs[i + 1]}`,
+      minDelayS: dr / 1500,
+      maxDelayS: dr / 50,
+    });
   }
   return out;
 }
@@ -88,7 +95,13 @@ describe('autoPickStation', () => {
 
   it('STA/LTA mode labels the onset pick stalta and finds it within 8 T/(2 pi SNR) + 2 samples', () => {
     const z = 10;
-    const picks = autoPickStation(station(z, 20, 7), { ...aic, onsetMethod: 'stalta', staS: 0.003, ltaS: 0.03, staLtaThreshold: 3 });
+    const picks = autoPickStation(station(z, 20, 7), {
+      ...aic,
+      onsetMethod: 'stalta',
+      staS: 0.003,
+      ltaS: 0.03,
+      staLtaThreshold: 3,
+    });
     const onset = picks.find((p) => p.method === 'stalta')!;
     const errSamples = (onset.timeS - onsetS(z)) / dt;
     expect(errSamples).toBeGreaterThan(-3);

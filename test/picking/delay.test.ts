@@ -35,7 +35,8 @@ describe('crossCorrelate', () => {
     expect(lags[0]).toBe(-36);
     expect(lags[lags.length - 1]).toBe(89);
     const scale = Math.max(...r.map(Math.abs));
-    for (let j = 0; j < r.length; j++) expect(Math.abs(r[j] - directCorrelation(a, b, lags[j]))).toBeLessThan(1e-12 * scale);
+    for (let j = 0; j < r.length; j++)
+      expect(Math.abs(r[j] - directCorrelation(a, b, lags[j]))).toBeLessThan(1e-12 * scale);
   });
 
   it('equals the direct sum for random lengths 1-40 and values (property, 200 cases)', () => {
@@ -43,7 +44,8 @@ describe('crossCorrelate', () => {
     fc.assert(
       fc.property(arr, arr, (a, b) => {
         const { lags, r } = crossCorrelate(a, b);
-        const scale = Math.max(1e-300, ...a.map(Math.abs)) * Math.max(1e-300, ...b.map(Math.abs)) * Math.min(a.length, b.length);
+        const scale =
+          Math.max(1e-300, ...a.map(Math.abs)) * Math.max(1e-300, ...b.map(Math.abs)) * Math.min(a.length, b.length);
         for (let j = 0; j < r.length; j++) {
           if (Math.abs(r[j] - directCorrelation(a, b, lags[j])) > 1e-12 * scale) return false;
         }
@@ -84,7 +86,10 @@ describe('correlationDelay', () => {
   it('at 10 samples a period (parabolic bias largest) still within 0.05 sample RMS', () => {
     const dtCoarse = 2.5e-4;
     const c = rickerTrace(512, dtCoarse, 400, 150 * dtCoarse);
-    const errors = shifts.map((sh) => correlationDelay(c, dftShift(c, sh), dtCoarse, { minDelayS: -0.01, maxDelayS: 0.01 }).delayS / dtCoarse - sh);
+    const errors = shifts.map(
+      (sh) =>
+        correlationDelay(c, dftShift(c, sh), dtCoarse, { minDelayS: -0.01, maxDelayS: 0.01 }).delayS / dtCoarse - sh,
+    );
     expect(rms(errors)).toBeLessThan(0.05);
   });
 

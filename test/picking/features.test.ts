@@ -47,7 +47,9 @@ describe('characteristicPoints on a Ricker wavelet (closed form)', () => {
   it('at 10 samples a period the zero crossing is still within 0.05 sample (linear interpolation near an inflection)', () => {
     const dtCoarse = 1 / (10 * f);
     const coarse = rickerTrace(400, dtCoarse, f, centreS);
-    const cp = characteristicPoints(coarse, Math.round((centreS - 1.5 / f) / dtCoarse), dtCoarse, 0, { searchS: 3 / f });
+    const cp = characteristicPoints(coarse, Math.round((centreS - 1.5 / f) / dtCoarse), dtCoarse, 0, {
+      searchS: 3 / f,
+    });
     expect(Math.abs(cp.zeroCrossingS! - (centreS + zeroOffsetS))).toBeLessThan(0.05 * dtCoarse);
   });
 

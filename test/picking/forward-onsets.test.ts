@@ -14,15 +14,29 @@ import { demoEarthModel, pulseAt, synthesizeSurvey } from '../../src/core/synth'
 const depthsM = [3, 5, 8, 11, 14, 17, 20, 23, 26, 29];
 
 function onsetErrorsS(snr: number, method: 'aic' | 'stalta'): number[] {
-  const res = synthesizeSurvey(demoEarthModel(), { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM: 2 }, {
-    seed: 100 + snr, sampleIntervalS: 5e-5, samplesPerTrace: 3584, sFrequencyHz: 100, pFrequencyHz: 400, attenuation: false, snr, maxTriggerDelayS: 0,
-  });
+  const res = synthesizeSurvey(
+    demoEarthModel(),
+    { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM: 2 },
+    {
+      seed: 100 + snr,
+      sampleIntervalS: 5e-5,
+      samplesPerTrace: 3584,
+      sFrequencyHz: 100,
+      pFrequencyHz: 400,
+      attenuation: false,
+      snr,
+      maxTriggerDelayS: 0,
+    },
+  );
   const settings = { ...defaultSettings(), onsetMethod: method, staLtaThreshold: snr >= 10 ? 3 : 2 };
   const prep = prepare(res.survey, new Map(res.records.map((r) => [r.id, r])), settings);
   const auto = autoPick(prep, settings);
   const errs: number[] = [];
   for (const st of prep.stations.filter((s) => s.wave === 'S')) {
-    const truth = res.truth.records.filter((r) => r.depthM === st.depthM).flatMap((r) => r.channels.filter((c) => c.component === 'H1')).map((c) => c.sArrivalS);
+    const truth = res.truth.records
+      .filter((r) => r.depthM === st.depthM)
+      .flatMap((r) => r.channels.filter((c) => c.component === 'H1'))
+      .map((c) => c.sArrivalS);
     const pick = auto.picks.find((p) => p.stationKey === st.key && p.method === method);
     if (pick) errs.push(pick.timeS - truth[0]);
   }

@@ -106,7 +106,9 @@ describe('staLtaOnsetIndex (Allen 1978)', () => {
   });
 
   it('rejects STA not shorter than LTA', () => {
-    expect(() => staLtaOnsetIndex(new Float64Array(100), 10, 90, { staSamples: 20, ltaSamples: 20, threshold: 3 })).toThrow(BorewaveError);
+    expect(() =>
+      staLtaOnsetIndex(new Float64Array(100), 10, 90, { staSamples: 20, ltaSamples: 20, threshold: 3 }),
+    ).toThrow(BorewaveError);
   });
 });
 
@@ -143,7 +145,11 @@ describe('onset pickers on a noisy pulse of known onset (SNR = peak amplitude / 
       // Threshold 2 at SNR 5: with white noise Allen's derivative term doubles the noise level of E,
       // so a one-cycle pulse at SNR 5 lifts the ratio only to about 2.5-3.
       for (let seed = 1; seed <= 40; seed++) {
-        const r = staLtaOnsetIndex(trial(snr, seed), 400, 1300, { staSamples: 30, ltaSamples: 300, threshold: snr >= 10 ? 3 : 2 });
+        const r = staLtaOnsetIndex(trial(snr, seed), 400, 1300, {
+          staSamples: 30,
+          ltaSamples: 300,
+          threshold: snr >= 10 ? 3 : 2,
+        });
         expect(r).not.toBeNull();
         const err = r!.index - onset;
         expect(err).toBeGreaterThanOrEqual(-3);

@@ -37,7 +37,10 @@ describe('pickUncertaintyS', () => {
     for (let trial = 0; trial < 300; trial++) {
       const phase = (trial * 0.377) % 1; // sub-sample offset of the crossing
       const noise = gaussianNoise(200, 1 / snr, 500 + trial);
-      const x = Array.from({ length: 200 }, (_, i) => Math.sin((2 * Math.PI * (i - 50 - phase)) / periodSamples) + noise[i]);
+      const x = Array.from(
+        { length: 200 },
+        (_, i) => Math.sin((2 * Math.PI * (i - 50 - phase)) / periodSamples) + noise[i],
+      );
       const cp = characteristicPoints(x, 50, 1, 0, { searchS: periodSamples });
       times.push(cp.zeroCrossingS! - (75 + phase)); // crossing after the first peak: half a period after the start
     }
@@ -53,7 +56,7 @@ describe('delayUncertaintyS', () => {
   it('worked value: rho 0.99, dt 0.1 ms, T 5 ms, B 200 Hz, window 12.5 ms -> 0.04898 ms (the stated bound)', () => {
     // beta^2 = (2 pi)^2 (200^2 + 200^2/12); n = 2 * 200 * 0.0125 = 5; snr = 0.9801/0.0199.
     const beta2 = (2 * Math.PI) ** 2 * (200 ** 2 + 200 ** 2 / 12);
-    const want = Math.sqrt(1 / (beta2 * 5 * (0.9801 / 0.0199)) + (0.05e-4) ** 2);
+    const want = Math.sqrt(1 / (beta2 * 5 * (0.9801 / 0.0199)) + 0.05e-4 ** 2);
     expect(delayUncertaintyS(0.99, 1e-4, 0.005, 200, 0.0125)).toBeCloseTo(want, 12);
     expect(want).toBeCloseTo(4.898e-5, 8);
   });
@@ -87,8 +90,14 @@ describe('delayUncertaintyS', () => {
         const rmsB = Math.sqrt(nb.reduce((acc, v) => acc + v * v, 0) / n);
         const a0 = rickerTrace(n, dt, f, 400 * dt);
         const b0 = rickerTrace(n, dt, f, (400 + shift) * dt);
-        const a = cosineTaper(Float64Array.from({ length: len }, (_, i) => a0[start + i] + (sigma * na[start + i]) / rmsA), 0.2);
-        const b = cosineTaper(Float64Array.from({ length: len }, (_, i) => b0[start + i] + (sigma * nb[start + i]) / rmsB), 0.2);
+        const a = cosineTaper(
+          Float64Array.from({ length: len }, (_, i) => a0[start + i] + (sigma * na[start + i]) / rmsA),
+          0.2,
+        );
+        const b = cosineTaper(
+          Float64Array.from({ length: len }, (_, i) => b0[start + i] + (sigma * nb[start + i]) / rmsB),
+          0.2,
+        );
         const r = correlationDelay(a, b, dt, { minDelayS: -0.002, maxDelayS: 0.002 });
         delays.push(r.delayS - shift * dt);
         rhos.push(r.coefficient);

@@ -11,7 +11,15 @@ const samples = Float64Array.from({ length: 4000 }, (_, i) => {
   const a = (Math.PI * f * (i * dt - t0)) ** 2;
   return (1 - 2 * a) * Math.exp(-a);
 });
-const trace: WorkingTrace = { stationKey: 'R@1.000:H1', wave: 'S', samples, sampleIntervalS: dt, delayS: 0, searchStartS: 0, searchEndS: 0.08 };
+const trace: WorkingTrace = {
+  stationKey: 'R@1.000:H1',
+  wave: 'S',
+  samples,
+  sampleIntervalS: dt,
+  delayS: 0,
+  searchStartS: 0,
+  searchEndS: 0.08,
+};
 
 describe('snap to the nearest characteristic point (Ricker wavelet, closed-form feature times)', () => {
   it('peak: a pointer 0.4 ms off lands on t0 within 0.01 ms', () => {

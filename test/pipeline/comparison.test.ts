@@ -9,21 +9,35 @@ describe('comparison profile from another test', () => {
     // 1.6/165 + 5.4/115 + 6.5/215 + 7.5/330 + 4/440 + 5/680 = 0.126057 s -> 30 / 0.126057 = 237.99 m/s
     // (EN 1998-1:2004 eq. 3.1; ASCE 7 ch. 20).
     const model = demoEarthModel();
-    const cmp: ComparisonProfile = { name: 'model', source: 'vs', points: model.layers.map((l) => ({ depthM: l.topM, vsMps: l.vsMps })) };
+    const cmp: ComparisonProfile = {
+      name: 'model',
+      source: 'vs',
+      points: model.layers.map((l) => ({ depthM: l.topM, vsMps: l.vsMps })),
+    };
     const res = synthesizeSurvey(model, demoCrossholeGeometry(), demoCrossholeOptions());
-    const out = runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: defaultSettings(), edits: emptyEdits(), comparison: cmp });
+    const out = runPipeline({
+      survey: res.survey,
+      records: new Map(res.records.map((r) => [r.id, r])),
+      settings: defaultSettings(),
+      edits: emptyEdits(),
+      comparison: cmp,
+    });
     expect(out.derived.comparison!.vs30!.vsMps).toBeCloseTo(237.99, 2);
     const diffs = out.derived.comparison!.differences.map((d) => Math.abs(d.differencePct)).sort((a, b) => a - b);
     expect(diffs[Math.floor(diffs.length / 2)]).toBeLessThan(3);
   });
 });
 
-
 describe('site spread computed later equals the one derive() computes at once', () => {
   it('siteSpread(derive(..., {monteCarlo:false})) === derive(...).site.uncertainty (same seed, same draws)', () => {
     const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), demoCrossholeOptions());
     const s = defaultSettings();
-    const first = runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: s, edits: emptyEdits() });
+    const first = runPipeline({
+      survey: res.survey,
+      records: new Map(res.records.map((r) => [r.id, r])),
+      settings: s,
+      edits: emptyEdits(),
+    });
     const fast = derive(res.survey, first.prepared, first.auto, emptyEdits(), s, { monteCarlo: false });
     expect(fast.site.uncertainty).toBeNull();
     expect(siteSpread(fast, s)).toEqual(first.derived.site.uncertainty);
@@ -33,12 +47,36 @@ describe('site spread computed later equals the one derive() computes at once', 
 describe('user layer boundaries are closed by the surface and the deepest station', () => {
   it('"5, 10" gives straight-line fits 0-5, 5-10 and 10-bottom, and a refracted-ray model of the same three layers', () => {
     const model = demoEarthModel();
-    const res = synthesizeSurvey(model, { kind: 'downhole', holeId: 'DH1', depthsM: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14], sourceOffsetM: 2 }, {
-      seed: 4, sampleIntervalS: 5e-5, samplesPerTrace: 3000, sFrequencyHz: 100, pFrequencyHz: 400, attenuation: false, snr: null, maxTriggerDelayS: 0,
+    const res = synthesizeSurvey(
+      model,
+      { kind: 'downhole', holeId: 'DH1', depthsM: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14], sourceOffsetM: 2 },
+      {
+        seed: 4,
+        sampleIntervalS: 5e-5,
+        samplesPerTrace: 3000,
+        sFrequencyHz: 100,
+        pFrequencyHz: 400,
+        attenuation: false,
+        snr: null,
+        maxTriggerDelayS: 0,
+      },
+    );
+    const out = runPipeline({
+      survey: res.survey,
+      records: new Map(res.records.map((r) => [r.id, r])),
+      settings: { ...defaultSettings(), layerBoundariesM: [5, 10] },
+      edits: emptyEdits(),
     });
-    const out = runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: { ...defaultSettings(), layerBoundariesM: [5, 10] }, edits: emptyEdits() });
     const s = out.derived.layerFits.filter((f) => f.wave === 'S').map((f) => [f.topM, f.bottomM]);
-    expect(s).toEqual([[0, 5], [5, 10], [10, 14]]);
-    expect(out.derived.layerModel!.layers.map((l) => [l.topM, l.bottomM])).toEqual([[0, 5], [5, 10], [10, 14]]);
+    expect(s).toEqual([
+      [0, 5],
+      [5, 10],
+      [10, 14],
+    ]);
+    expect(out.derived.layerModel!.layers.map((l) => [l.topM, l.bottomM])).toEqual([
+      [0, 5],
+      [5, 10],
+      [10, 14],
+    ]);
   });
 });

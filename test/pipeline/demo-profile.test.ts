@@ -13,23 +13,41 @@ import { runProfile } from '../../src/cli/profile';
 import { newProjectDocument, writeProjectArchive } from '../../src/core/io/archive';
 import { writeSeg2 } from '../../src/core/io/seg2';
 import {
-  demoCrossholeGeometry, demoCrossholeOptions, demoDownholeGeometry, demoDownholeOptions, demoEarthModel, demoPairGeometry, demoPairOptions,
-  synthesizeSurvey, toSeg2Input, trueVsAt, type SynthResult,
+  demoCrossholeGeometry,
+  demoCrossholeOptions,
+  demoDownholeGeometry,
+  demoDownholeOptions,
+  demoEarthModel,
+  demoPairGeometry,
+  demoPairOptions,
+  synthesizeSurvey,
+  toSeg2Input,
+  trueVsAt,
+  type SynthResult,
 } from '../../src/core/synth';
 
 const model = demoEarthModel();
 const boundaries = model.layers.map((l) => l.topM);
 
 function archiveOf(res: SynthResult): Uint8Array {
-  const files = res.records.map((r) => ({ name: r.fileName, bytes: writeSeg2(toSeg2Input(r), { byteOrder: 'little', formatCode: 4 }) }));
+  const files = res.records.map((r) => ({
+    name: r.fileName,
+    bytes: writeSeg2(toSeg2Input(r), { byteOrder: 'little', formatCode: 4 }),
+  }));
   return writeProjectArchive(newProjectDocument(res.survey), files);
 }
 
-async function profileRows(zip: Uint8Array, extra: string[] = []): Promise<{ rows: Record<string, string>[]; stderr: string; code: number; dir: string }> {
+async function profileRows(
+  zip: Uint8Array,
+  extra: string[] = [],
+): Promise<{ rows: Record<string, string>[]; stderr: string; code: number; dir: string }> {
   const dir = mkdtempSync(join(tmpdir(), 'bw-'));
   writeFileSync(join(dir, 'p.zip'), zip);
   let stderr = '';
-  const code = await runProfile([join(dir, 'p.zip'), '--out', join(dir, 'out'), ...extra], { stdout: { write: () => true }, stderr: { write: (s: string) => (stderr += s) } });
+  const code = await runProfile([join(dir, 'p.zip'), '--out', join(dir, 'out'), ...extra], {
+    stdout: { write: () => true },
+    stderr: { write: (s: string) => (stderr += s) },
+  });
   const csv = readFileSync(join(dir, 'out', 'profile.csv'), 'utf8');
   const rows = Papa.parse<Record<string, string>>(csv, { header: true, comments: '#', skipEmptyLines: true }).data;
   return { rows, stderr, code, dir };
@@ -67,9 +85,14 @@ describe('cli profile on the demo surveys recovers the forward model (within 3% 
 
 describe('refracted-ray layer model of the downhole demo (layers.csv) recovers every layer within 3%', () => {
   it('downhole', async () => {
-    const { dir } = await profileRows(archiveOf(synthesizeSurvey(model, demoDownholeGeometry(), demoDownholeOptions())));
-    const rows = Papa.parse<Record<string, string>>(readFileSync(join(dir, 'out', 'layers.csv'), 'utf8'), { header: true, comments: '#', skipEmptyLines: true }).data
-      .filter((r) => r.method.startsWith('refracted'));
+    const { dir } = await profileRows(
+      archiveOf(synthesizeSurvey(model, demoDownholeGeometry(), demoDownholeOptions())),
+    );
+    const rows = Papa.parse<Record<string, string>>(readFileSync(join(dir, 'out', 'layers.csv'), 'utf8'), {
+      header: true,
+      comments: '#',
+      skipEmptyLines: true,
+    }).data.filter((r) => r.method.startsWith('refracted'));
     expect(rows.length).toBe(model.layers.length);
     for (const r of rows) {
       const truth = trueVsAt(model, (Number(r.depth_top_m) + Number(r.depth_bottom_m)) / 2);
@@ -82,7 +105,9 @@ describe('bad input is named and the rest still computes', () => {
   it('a missing file and a record with no depth are reported; the profile is still written', async () => {
     const res = synthesizeSurvey(model, demoDownholeGeometry(), demoDownholeOptions());
     res.survey.records[4] = { ...res.survey.records[4], depthM: null };
-    const files = res.records.slice(1).map((r) => ({ name: r.fileName, bytes: writeSeg2(toSeg2Input(r), { byteOrder: 'big', formatCode: 2 }) }));
+    const files = res.records
+      .slice(1)
+      .map((r) => ({ name: r.fileName, bytes: writeSeg2(toSeg2Input(r), { byteOrder: 'big', formatCode: 2 }) }));
     const doc = newProjectDocument(res.survey, []);
     const zip = writeProjectArchive({ ...doc }, files);
     // project.json lists only the files it stores, so name the first file as missing by hand:
@@ -103,7 +128,10 @@ describe('bad input is named and the rest still computes', () => {
     const dir = mkdtempSync(join(tmpdir(), 'bw-'));
     writeFileSync(join(dir, 'bad.zip'), 'not a zip at all');
     let err = '';
-    const code = await runProfile([join(dir, 'bad.zip'), '--out', join(dir, 'o')], { stdout: { write: () => true }, stderr: { write: (s: string) => (err += s) } });
+    const code = await runProfile([join(dir, 'bad.zip'), '--out', join(dir, 'o')], {
+      stdout: { write: () => true },
+      stderr: { write: (s: string) => (err += s) },
+    });
     expect(code).toBe(2);
     expect(err.trim().split('\n')).toHaveLength(1);
     expect(err).toContain('not a zip');

@@ -9,18 +9,37 @@ import { intervalsTable, picksTable, profileTable, siteJson, toCsv } from '../..
 import { defaultSettings, emptyEdits, pickEditKey } from '../../src/core/settings';
 import { demoCrossholeGeometry, demoEarthModel, synthesizeSurvey, type SynthResult } from '../../src/core/synth';
 
-const opts = { seed: 9, sampleIntervalS: 5e-5, samplesPerTrace: 3000, sFrequencyHz: 100, pFrequencyHz: 400, attenuation: false, snr: 30, maxTriggerDelayS: 0 };
+const opts = {
+  seed: 9,
+  sampleIntervalS: 5e-5,
+  samplesPerTrace: 3000,
+  sFrequencyHz: 100,
+  pFrequencyHz: 400,
+  attenuation: false,
+  snr: 30,
+  maxTriggerDelayS: 0,
+};
 
 function downhole(depthsM: number[], sourceOffsetM = 2): SynthResult {
   return synthesizeSurvey(demoEarthModel(), { kind: 'downhole', holeId: 'DH1', depthsM, sourceOffsetM }, opts);
 }
 
 function run(res: SynthResult, edits = emptyEdits()) {
-  return runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings: defaultSettings(), edits });
+  return runPipeline({
+    survey: res.survey,
+    records: new Map(res.records.map((r) => [r.id, r])),
+    settings: defaultSettings(),
+    edits,
+  });
 }
 
-function exportsText(res: SynthResult, out: ReturnType<typeof run>): string {
-  return [toCsv(picksTable(out.prepared.stations, out.derived)), toCsv(intervalsTable(out.derived)), toCsv(profileTable(out.derived)), JSON.stringify(siteJson(out.derived, defaultSettings()))].join('\n');
+function exportsText(_res: SynthResult, out: ReturnType<typeof run>): string {
+  return [
+    toCsv(picksTable(out.prepared.stations, out.derived)),
+    toCsv(intervalsTable(out.derived)),
+    toCsv(profileTable(out.derived)),
+    JSON.stringify(siteJson(out.derived, defaultSettings())),
+  ].join('\n');
 }
 
 describe('numeric guards: flagged in the results, never a silent NaN in an export', () => {
@@ -71,7 +90,14 @@ describe('bad geometry is named; the rest of the survey still computes', () => {
     expect(out.derived.intervals.some((r) => r.wave === 'S' && r.chosen && r.velocityMps! > 0)).toBe(true);
   });
   it('a deviation table that is not monotonic is reported for its hole, which is taken as vertical', () => {
-    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), { ...opts, sampleIntervalS: 2.5e-5, samplesPerTrace: 3072, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500 });
+    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), {
+      ...opts,
+      sampleIntervalS: 2.5e-5,
+      samplesPerTrace: 3072,
+      firstSampleS: -0.001,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1500,
+    });
     const far = res.survey.boreholes[2];
     far.deviation = [far.deviation[0], far.deviation[2], far.deviation[1], ...far.deviation.slice(3)];
     const out = run(res);
@@ -108,7 +134,15 @@ describe('crosshole direct velocities V = D / (t - t0) (ASTM D4428/D4428M)', () 
   // Clean records still leave the onset pick a few samples late (the model pulse rises from zero as t^2),
   // so the tolerance is the share of the travel time that 4 samples make, plus 0.5%.
   it('on clean forward-model records they match the model layer Vs within 4 samples of pick lateness, away from boundaries', () => {
-    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), { ...opts, sampleIntervalS: 2.5e-5, samplesPerTrace: 3072, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500, snr: null });
+    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), {
+      ...opts,
+      sampleIntervalS: 2.5e-5,
+      samplesPerTrace: 3072,
+      firstSampleS: -0.001,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1500,
+      snr: null,
+    });
     const out = run(res);
     const model = demoEarthModel();
     const tops = model.layers.map((l) => l.topM);
@@ -121,9 +155,20 @@ describe('crosshole direct velocities V = D / (t - t0) (ASTM D4428/D4428M)', () 
     }
   });
   it('a trigger delay t0 is taken off the picks: V = D / (t - t0) with t0 = 1 ms', () => {
-    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), { ...opts, sampleIntervalS: 2.5e-5, samplesPerTrace: 3072, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500, snr: null });
+    const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), {
+      ...opts,
+      sampleIntervalS: 2.5e-5,
+      samplesPerTrace: 3072,
+      firstSampleS: -0.001,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1500,
+      snr: null,
+    });
     const base = run(res);
-    const d = derive(res.survey, base.prepared, base.auto, emptyEdits(), { ...defaultSettings(), triggerDelayS: 0.001 });
+    const d = derive(res.survey, base.prepared, base.auto, emptyEdits(), {
+      ...defaultSettings(),
+      triggerDelayS: 0.001,
+    });
     const a = base.derived.direct.find((r) => r.wave === 'S')!;
     const b = d.direct.find((r) => r.stationKey === a.stationKey && r.wave === 'S')!;
     expect(b.velocityMps!).toBeCloseTo(a.pathM / (a.timeS - 0.001), 6);
@@ -140,13 +185,20 @@ describe('excluding a depth in a one-receiver downhole survey bridges it', () =>
     const d = derive(res.survey, first.prepared, first.auto, edits, defaultSettings());
     const note = d.issues.find((i) => i.code === 'STATION_EXCLUDED')!;
     expect(note.message).toContain('3-4 m, 4-5 m are replaced by 3-5 m');
-    expect(d.profile.map((r) => [r.topM, r.bottomM])).toEqual([[3, 5], [5, 6]]);
+    expect(d.profile.map((r) => [r.topM, r.bottomM])).toEqual([
+      [3, 5],
+      [5, 6],
+    ]);
     const bridge = d.intervals.filter((r) => r.wave === 'S' && r.topM === 3 && r.bottomM === 5);
     const xc = bridge.find((r) => r.method === 'xcorr')!;
     expect(xc.flags).toContain('bridges excluded station');
     // The bridged xcorr delay equals the sum of the two original delays within a sample (same traces, linear delays).
-    const d34 = first.auto.delays.find((x) => x.method === 'xcorr' && x.pairKey.includes('R@3.000') && x.pairKey.includes('R@4.000'))!.delayS;
-    const d45 = first.auto.delays.find((x) => x.method === 'xcorr' && x.pairKey.includes('R@4.000') && x.pairKey.includes('R@5.000'))!.delayS;
+    const d34 = first.auto.delays.find(
+      (x) => x.method === 'xcorr' && x.pairKey.includes('R@3.000') && x.pairKey.includes('R@4.000'),
+    )!.delayS;
+    const d45 = first.auto.delays.find(
+      (x) => x.method === 'xcorr' && x.pairKey.includes('R@4.000') && x.pairKey.includes('R@5.000'),
+    )!.delayS;
     expect(Math.abs(xc.dtS! - (d34 + d45))).toBeLessThan(5e-5);
   });
 });

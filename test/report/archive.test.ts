@@ -5,8 +5,14 @@ import { BorewaveError } from '../../src/core/errors';
 import type { Survey } from '../../src/core/model';
 
 const survey: Survey = {
-  name: 'Test', kind: 'downhole', boreholes: [{ id: 'BH1', collarEastM: 0, collarNorthM: 0, deviation: [] }], mainHoleId: 'BH1',
-  sourceOffsetM: 2, sourceDepthM: 0, receiverSpacingM: 1, receiverHoleIds: [],
+  name: 'Test',
+  kind: 'downhole',
+  boreholes: [{ id: 'BH1', collarEastM: 0, collarNorthM: 0, deviation: [] }],
+  mainHoleId: 'BH1',
+  sourceOffsetM: 2,
+  sourceDepthM: 0,
+  receiverSpacingM: 1,
+  receiverHoleIds: [],
   records: [{ recordId: 'a.sg2', depthM: 1, hit: 'left', channels: [], excluded: false, assignedBy: 'manual' }],
   soil: { layers: [], waterTableM: 2, waterUnitWeightKnM3: 9.81 },
 };
@@ -32,13 +38,26 @@ describe('project archive (design.md contract: project.json + original files in 
     expect(readProjectArchive(zip, 'p.zip').missing).toEqual(['gone.sg2']);
   });
   it('rejects a non-zip, a zip without project.json and a wrong format name with typed errors', () => {
-    const codeOf = (f: () => unknown) => { try { f(); return 'none'; } catch (e) { return (e as BorewaveError).code; } };
+    const codeOf = (f: () => unknown) => {
+      try {
+        f();
+        return 'none';
+      } catch (e) {
+        return (e as BorewaveError).code;
+      }
+    };
     expect(codeOf(() => readProjectArchive(new Uint8Array(100), 'x.zip'))).toBe('ARCHIVE_NOT_ZIP');
     expect(codeOf(() => readProjectArchive(zipSync({ 'a.txt': strToU8('x') }), 'x.zip'))).toBe('ARCHIVE_NO_PROJECT');
-    expect(codeOf(() => readProjectArchive(zipSync({ 'project.json': strToU8('{"format":"other"}') }), 'x.zip'))).toBe('PROJECT_BAD_FIELD');
-    expect(codeOf(() => readProjectArchive(zipSync({ 'project.json': strToU8('{not json') }), 'x.zip'))).toBe('PROJECT_BAD_JSON');
+    expect(codeOf(() => readProjectArchive(zipSync({ 'project.json': strToU8('{"format":"other"}') }), 'x.zip'))).toBe(
+      'PROJECT_BAD_FIELD',
+    );
+    expect(codeOf(() => readProjectArchive(zipSync({ 'project.json': strToU8('{not json') }), 'x.zip'))).toBe(
+      'PROJECT_BAD_JSON',
+    );
   });
   it('refuses parent-folder names when writing', () => {
-    expect(() => writeProjectArchive(newProjectDocument(survey), [{ name: '../', bytes: new Uint8Array(1) }])).toThrow(BorewaveError);
+    expect(() => writeProjectArchive(newProjectDocument(survey), [{ name: '../', bytes: new Uint8Array(1) }])).toThrow(
+      BorewaveError,
+    );
   });
 });

@@ -12,13 +12,25 @@ import { demoCrossholeGeometry, demoCrossholeOptions, demoEarthModel, synthesize
 describe('hostile names from geometry and files are neutralised in every CSV', () => {
   it('borehole ids "=HYPERLINK(..)", "+SUM(1)" and "-2+3" never start a cell', () => {
     const res = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), { ...demoCrossholeOptions(), snr: null });
-    const rename: Record<string, string> = { B1: '-2+3', B2: '=HYPERLINK("http://example.invalid","x")', B3: '+SUM(1)' };
+    const rename: Record<string, string> = {
+      B1: '-2+3',
+      B2: '=HYPERLINK("http://example.invalid","x")',
+      B3: '+SUM(1)',
+    };
     const s = res.survey;
     s.boreholes = s.boreholes.map((b) => ({ ...b, id: rename[b.id] }));
     s.mainHoleId = rename[s.mainHoleId];
     s.receiverHoleIds = s.receiverHoleIds.map((h) => rename[h]);
-    s.records = s.records.map((r) => ({ ...r, channels: r.channels.map((c) => ({ ...c, receiver: rename[c.receiver] ?? c.receiver })) }));
-    const out = runPipeline({ survey: s, records: new Map(res.records.map((r) => [r.id, r])), settings: defaultSettings(), edits: emptyEdits() });
+    s.records = s.records.map((r) => ({
+      ...r,
+      channels: r.channels.map((c) => ({ ...c, receiver: rename[c.receiver] ?? c.receiver })),
+    }));
+    const out = runPipeline({
+      survey: s,
+      records: new Map(res.records.map((r) => [r.id, r])),
+      settings: defaultSettings(),
+      edits: emptyEdits(),
+    });
     expect(out.derived.profile.length).toBeGreaterThan(10);
     const withNames = [toCsv(picksTable(out.prepared.stations, out.derived)), toCsv(intervalsTable(out.derived))];
     for (const csv of [...withNames, toCsv(profileTable(out.derived))]) {

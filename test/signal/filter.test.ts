@@ -36,7 +36,8 @@ describe(`butterworthBandpassSos against ${SCIPY} signal.butter(..., output='sos
       const sos = butterworthBandpassSos(c.order, c.lowHz, c.highHz, c.fsHz);
       expect(sos.length).toBe(c.sos.length);
       // Rows of SciPy's output, each compared to the matching row (scaled by the row's largest value).
-      const rows = (a: ArrayLike<number>) => Array.from({ length: a.length / 6 }, (_, r) => Array.from({ length: 6 }, (_, j) => a[6 * r + j]));
+      const rows = (a: ArrayLike<number>) =>
+        Array.from({ length: a.length / 6 }, (_, r) => Array.from({ length: 6 }, (_, j) => a[6 * r + j]));
       const mine = rows(sos);
       const ref = rows(c.sos);
       // Band centred on fs/4 (200+1800 = fs/2): mirror-image poles are equally close to the unit circle,

@@ -5,11 +5,7 @@ import { gaussianNoise, onsetPulse } from '../picking/helpers';
 
 describe('stackTraces', () => {
   it('is the sample-by-sample mean (definition of a vertical stack)', () => {
-    const s = stackTraces([
-      [1, 2, 3],
-      [3, 2, 1],
-      Float32Array.from([2, 5, 8]),
-    ]);
+    const s = stackTraces([[1, 2, 3], [3, 2, 1], Float32Array.from([2, 5, 8])]);
     expect(Array.from(s)).toEqual([2, 3, 4]);
   });
 
@@ -22,8 +18,18 @@ describe('stackTraces', () => {
   });
 
   it('throws BorewaveError on unequal lengths or nothing to stack', () => {
-    expect(() => stackTraces([[1, 2], [1, 2, 3]])).toThrow(BorewaveError);
-    expect(() => stackTraces([[1, 2], [1, 2, 3]])).toThrow(/trace 2 holds 3 samples/);
+    expect(() =>
+      stackTraces([
+        [1, 2],
+        [1, 2, 3],
+      ]),
+    ).toThrow(BorewaveError);
+    expect(() =>
+      stackTraces([
+        [1, 2],
+        [1, 2, 3],
+      ]),
+    ).toThrow(/trace 2 holds 3 samples/);
     expect(() => stackTraces([])).toThrow(BorewaveError);
   });
 });

@@ -76,13 +76,24 @@ describe('reproducibility and special cases', () => {
   it('generators: uniform mean 1/2 and variance 1/12; normal mean 0 and variance 1 (within 4 SE over 100,000 draws)', () => {
     const n = 100000;
     const uni = mulberry32(1).uniform;
-    let s = 0, s2 = 0;
-    for (let i = 0; i < n; i++) { const x = uni(); expect(x >= 0 && x < 1).toBe(true); s += x; s2 += x * x; }
+    let s = 0,
+      s2 = 0;
+    for (let i = 0; i < n; i++) {
+      const x = uni();
+      expect(x >= 0 && x < 1).toBe(true);
+      s += x;
+      s2 += x * x;
+    }
     expect(Math.abs(s / n - 0.5)).toBeLessThan(4 * Math.sqrt(1 / 12 / n));
     expect(Math.abs(s2 / n - (s / n) ** 2 - 1 / 12)).toBeLessThan(4 * Math.sqrt(1 / 180 / n));
     const g = mulberry32(2).normal;
-    let m = 0, m2 = 0;
-    for (let i = 0; i < n; i++) { const z = g(); m += z; m2 += z * z; }
+    let m = 0,
+      m2 = 0;
+    for (let i = 0; i < n; i++) {
+      const z = g();
+      m += z;
+      m2 += z * z;
+    }
     expect(Math.abs(m / n)).toBeLessThan(4 / Math.sqrt(n));
     expect(Math.abs(m2 / n - 1)).toBeLessThan(4 * Math.sqrt(2 / n));
   });

@@ -9,8 +9,15 @@ const soil: SoilColumn = {
   waterTableM: 5,
   waterUnitWeightKnM3: 9.81,
 };
-const iv = (topM: number, bottomM: number, vsMps: number, vpMps: number | null, vsSdMps = 10): VelocityInterval =>
-  ({ topM, bottomM, vsMps, vsSdMps, vpMps, vpSdMps: null, flags: [] });
+const iv = (topM: number, bottomM: number, vsMps: number, vpMps: number | null, vsSdMps = 10): VelocityInterval => ({
+  topM,
+  bottomM,
+  vsMps,
+  vsSdMps,
+  vpMps,
+  vpSdMps: null,
+  flags: [],
+});
 const rho = 19 / 9.80665;
 
 describe('stiffness rows (hand calculation; isotropic elasticity, any text)', () => {
@@ -55,8 +62,12 @@ describe('stiffness rows (hand calculation; isotropic elasticity, any text)', ()
 });
 
 describe('flags and bad input', () => {
-  it('sigma\'_v <= 0 (water table above ground with light soil) gives no Vs1 and a flag', () => {
-    const light: SoilColumn = { layers: [{ ...soil.layers[0], unitWeightKnM3: 9 }], waterTableM: 0, waterUnitWeightKnM3: 9.81 };
+  it("sigma'_v <= 0 (water table above ground with light soil) gives no Vs1 and a flag", () => {
+    const light: SoilColumn = {
+      layers: [{ ...soil.layers[0], unitWeightKnM3: 9 }],
+      waterTableM: 0,
+      waterUnitWeightKnM3: 9.81,
+    };
     const [r] = stiffnessProfile([iv(0, 2, 100, null)], light);
     expect(r.sigmaVEffKpa).toBeLessThan(0); // 9 x 1 - 9.81 x 1
     expect(r.vs1Mps).toBeNull();

@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { en1998TypeEHint, siteClass, siteQuestions, SITE_CAUTIONS, timeAveragedVs, vsSiteClass, type SiteStandard } from '../../src/core/stiffness/site';
+import {
+  en1998TypeEHint,
+  siteClass,
+  siteQuestions,
+  SITE_CAUTIONS,
+  timeAveragedVs,
+  vsSiteClass,
+  type SiteStandard,
+} from '../../src/core/stiffness/site';
 import { fromDisplay } from '../../src/core/units';
 
 // Vs30 = sum d_i / sum(d_i / Vs_i) (EN 1998-1:2004 eq. 3.1; ASCE 7 chapter 20).
@@ -43,7 +51,14 @@ describe('time-averaged Vs', () => {
     expect(t.extended).toBe(true);
   });
   it('gaps go to the interval below: 1-5 @ 150 and 6-30 @ 400 -> 30 / (5/150 + 25/400) = 313.04 m/s (documented rule)', () => {
-    const t = timeAveragedVs([{ topM: 6, bottomM: 30, vsMps: 400 }, { topM: 1, bottomM: 5, vsMps: 150 }], 30, 'no-extrapolation')!;
+    const t = timeAveragedVs(
+      [
+        { topM: 6, bottomM: 30, vsMps: 400 },
+        { topM: 1, bottomM: 5, vsMps: 150 },
+      ],
+      30,
+      'no-extrapolation',
+    )!;
     expect(t.vsMps).toBeCloseTo(30 / (5 / 150 + 25 / 400), 10);
     expect(t.flags).toContain('gap given the interval below');
     expect(t.flags).toContain('top 1 m given the shallowest Vs');
@@ -81,7 +96,11 @@ describe('ASCE site-class boundaries at and around each value, entered in ft/s a
   for (const std of ['asce7_16', 'asce7_22'] as const) {
     for (const { b, at, above, below } of asceBoundaries[std]) {
       it(`${std}: ${b} ft/s -> ${at}; ${b} + 0.01 -> ${above}; ${b} - 0.01 -> ${below}`, () => {
-        const cases: Case[] = [{ ftps: b, cls: at }, { ftps: b + 0.01, cls: above }, { ftps: b - 0.01, cls: below }];
+        const cases: Case[] = [
+          { ftps: b, cls: at },
+          { ftps: b + 0.01, cls: above },
+          { ftps: b - 0.01, cls: below },
+        ];
         for (const c of cases) {
           // US entry: the user's ft/s converted to m/s by the units module.
           expect(siteClass(std, fromDisplay('velocity', 'US', c.ftps), {}).siteClass).toBe(c.cls);
@@ -100,9 +119,15 @@ describe('ASCE site-class boundaries at and around each value, entered in ft/s a
 describe('EN 1998-1:2004 Table 3.1 boundaries (m/s): A > 800; B 360-800; C 180-360; D < 180', () => {
   // 800 -> B (A is > 800); 180 -> C (D is < 180); 360 printed in both B and C: given to B (our reading, documented).
   const cases: [number, string][] = [
-    [800, 'B'], [800.01, 'A'], [799.99, 'B'],
-    [360, 'B'], [360.01, 'B'], [359.99, 'C'],
-    [180, 'C'], [180.01, 'C'], [179.99, 'D'],
+    [800, 'B'],
+    [800.01, 'A'],
+    [799.99, 'B'],
+    [360, 'B'],
+    [360.01, 'B'],
+    [359.99, 'C'],
+    [180, 'C'],
+    [180.01, 'C'],
+    [179.99, 'D'],
   ];
   for (const [v, cls] of cases) {
     it(`${v} m/s -> ${cls}; the same entered in ft/s (${(v / 0.3048).toFixed(4)}) -> ${cls}`, () => {
@@ -119,12 +144,21 @@ describe('classes never improve as Vs falls (table order)', () => {
     en1998_1_2004: ['A', 'B', 'C', 'D'],
   };
   it('for any two velocities v1 < v2, class(v1) is the same or further down the table (fast-check)', () => {
-    fc.assert(fc.property(fc.double({ min: 50, max: 2500, noNaN: true }), fc.double({ min: 50, max: 2500, noNaN: true }), (a, b) => {
-      const [lo, hi] = a < b ? [a, b] : [b, a];
-      for (const std of Object.keys(order) as SiteStandard[]) {
-        expect(order[std].indexOf(vsSiteClass(std, lo))).toBeGreaterThanOrEqual(order[std].indexOf(vsSiteClass(std, hi)));
-      }
-    }), { numRuns: 300 });
+    fc.assert(
+      fc.property(
+        fc.double({ min: 50, max: 2500, noNaN: true }),
+        fc.double({ min: 50, max: 2500, noNaN: true }),
+        (a, b) => {
+          const [lo, hi] = a < b ? [a, b] : [b, a];
+          for (const std of Object.keys(order) as SiteStandard[]) {
+            expect(order[std].indexOf(vsSiteClass(std, lo))).toBeGreaterThanOrEqual(
+              order[std].indexOf(vsSiteClass(std, hi)),
+            );
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
 
@@ -162,14 +196,31 @@ describe('questions Vs cannot answer', () => {
 
 describe('EN 1998-1 ground type E hint (Table 3.1: 5-20 m of C/D-type alluvium over Vs > 800 m/s)', () => {
   it('12 m at 200-300 m/s over 900 m/s -> likely E, alluvium 12 m', () => {
-    const h = en1998TypeEHint([{ topM: 0, bottomM: 6, vsMps: 200 }, { topM: 6, bottomM: 12, vsMps: 300 }, { topM: 12, bottomM: 30, vsMps: 900 }]);
+    const h = en1998TypeEHint([
+      { topM: 0, bottomM: 6, vsMps: 200 },
+      { topM: 6, bottomM: 12, vsMps: 300 },
+      { topM: 12, bottomM: 30, vsMps: 900 },
+    ]);
     expect(h).toEqual({ likely: true, alluviumThicknessM: 12 });
   });
   it('3 m of soft cover (< 5 m) is not E; nor is a cover with Vs 400 m/s (type B values)', () => {
-    expect(en1998TypeEHint([{ topM: 0, bottomM: 3, vsMps: 200 }, { topM: 3, bottomM: 30, vsMps: 900 }]).likely).toBe(false);
-    expect(en1998TypeEHint([{ topM: 0, bottomM: 10, vsMps: 400 }, { topM: 10, bottomM: 30, vsMps: 900 }]).likely).toBe(false);
+    expect(
+      en1998TypeEHint([
+        { topM: 0, bottomM: 3, vsMps: 200 },
+        { topM: 3, bottomM: 30, vsMps: 900 },
+      ]).likely,
+    ).toBe(false);
+    expect(
+      en1998TypeEHint([
+        { topM: 0, bottomM: 10, vsMps: 400 },
+        { topM: 10, bottomM: 30, vsMps: 900 },
+      ]).likely,
+    ).toBe(false);
   });
   it('no interval above 800 m/s -> not E', () => {
-    expect(en1998TypeEHint([{ topM: 0, bottomM: 30, vsMps: 250 }])).toEqual({ likely: false, alluviumThicknessM: null });
+    expect(en1998TypeEHint([{ topM: 0, bottomM: 30, vsMps: 250 }])).toEqual({
+      likely: false,
+      alluviumThicknessM: null,
+    });
   });
 });

@@ -2,14 +2,25 @@ import { describe, expect, it } from 'vitest';
 import { defaultSoilColumn, validateSoilColumn, verticalStressAt } from '../../src/core/stiffness/stress';
 import type { SoilColumn } from '../../src/core/model';
 
-const layer = (topM: number, bottomM: number, name: string, unitWeightKnM3: number) => ({ topM, bottomM, name, unitWeightKnM3, stressExponent: 0.25, poissonRatio: 0.3 });
+const layer = (topM: number, bottomM: number, name: string, unitWeightKnM3: number) => ({
+  topM,
+  bottomM,
+  name,
+  unitWeightKnM3,
+  stressExponent: 0.25,
+  poissonRatio: 0.3,
+});
 
 // Two layers and a water table (hand calculation, Terzaghi effective stress; any soil mechanics text):
 // 0-4 m: 18 kN/m3; 4-10 m: 20 kN/m3; water table 2 m; gamma_w 9.81 kN/m3.
-const twoLayers: SoilColumn = { layers: [layer(0, 4, 'sand', 18), layer(4, 10, 'clay', 20)], waterTableM: 2, waterUnitWeightKnM3: 9.81 };
+const twoLayers: SoilColumn = {
+  layers: [layer(0, 4, 'sand', 18), layer(4, 10, 'clay', 20)],
+  waterTableM: 2,
+  waterUnitWeightKnM3: 9.81,
+};
 
 describe('vertical stress (hand calculation)', () => {
-  it('z = 7 m: sigma_v = 18 x 4 + 20 x 3 = 132 kPa; u = 9.81 x (7 - 2) = 49.05 kPa; sigma\'_v = 82.95 kPa', () => {
+  it("z = 7 m: sigma_v = 18 x 4 + 20 x 3 = 132 kPa; u = 9.81 x (7 - 2) = 49.05 kPa; sigma'_v = 82.95 kPa", () => {
     const s = verticalStressAt(twoLayers, 7);
     expect(s.totalKpa).toBeCloseTo(132, 10);
     expect(s.poreKpa).toBeCloseTo(49.05, 10);
@@ -25,7 +36,7 @@ describe('vertical stress (hand calculation)', () => {
     expect(s.totalKpa).toBeCloseTo(232, 10);
     expect(s.effectiveKpa).toBeCloseTo(232 - 98.1, 10);
   });
-  it('ponded water 1 m above ground: sigma_v gains 9.81 kPa, sigma\'_v unchanged (effective stress principle)', () => {
+  it("ponded water 1 m above ground: sigma_v gains 9.81 kPa, sigma'_v unchanged (effective stress principle)", () => {
     const ponded: SoilColumn = { ...twoLayers, waterTableM: -1 };
     const s = verticalStressAt(ponded, 3);
     expect(s.totalKpa).toBeCloseTo(9.81 + 54, 10);
@@ -43,8 +54,14 @@ describe('soil column checks', () => {
     expect(validateSoilColumn(twoLayers)).toEqual([]);
   });
   it('gap, overlap and non-positive unit weight are reported, naming the layers', () => {
-    const bad: SoilColumn = { layers: [layer(0, 3, 'fill', 17), layer(4, 8, 'clay', 0), layer(7, 12, 'gravel', 21)], waterTableM: null, waterUnitWeightKnM3: 9.81 };
-    const codes = validateSoilColumn(bad).map((p) => p.code).sort();
+    const bad: SoilColumn = {
+      layers: [layer(0, 3, 'fill', 17), layer(4, 8, 'clay', 0), layer(7, 12, 'gravel', 21)],
+      waterTableM: null,
+      waterUnitWeightKnM3: 9.81,
+    };
+    const codes = validateSoilColumn(bad)
+      .map((p) => p.code)
+      .sort();
     expect(codes).toEqual(['SOIL_GAP', 'SOIL_OVERLAP', 'SOIL_UNIT_WEIGHT']);
     const uw = validateSoilColumn(bad).find((p) => p.code === 'SOIL_UNIT_WEIGHT')!;
     expect(uw.file).toContain('clay');
@@ -57,7 +74,13 @@ describe('soil column checks', () => {
   it('default column: one layer 0-bottom, 19 kN/m3, n = 0.25, nu = 0.3, no water table (common practice)', () => {
     const c = defaultSoilColumn(25);
     expect(c.layers).toHaveLength(1);
-    expect(c.layers[0]).toMatchObject({ topM: 0, bottomM: 25, unitWeightKnM3: 19, stressExponent: 0.25, poissonRatio: 0.3 });
+    expect(c.layers[0]).toMatchObject({
+      topM: 0,
+      bottomM: 25,
+      unitWeightKnM3: 19,
+      stressExponent: 0.25,
+      poissonRatio: 0.3,
+    });
     expect(c.waterTableM).toBeNull();
     expect(validateSoilColumn(c)).toEqual([]);
   });

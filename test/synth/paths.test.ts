@@ -12,7 +12,19 @@ function uniform(vsMps: number, vpMps: number): EarthModel {
   return {
     name: 'uniform',
     waterTableM: null,
-    layers: [{ name: 'half-space', topM: 0, thicknessM: Infinity, vsMps, vpMps, unitWeightKnM3: 19, qS: 20, qP: 30, behaviour: 'sand-like' }],
+    layers: [
+      {
+        name: 'half-space',
+        topM: 0,
+        thicknessM: Infinity,
+        vsMps,
+        vpMps,
+        unitWeightKnM3: 19,
+        qS: 20,
+        qP: 30,
+        behaviour: 'sand-like',
+      },
+    ],
   };
 }
 
@@ -21,8 +33,28 @@ function twoLayer(): EarthModel {
     name: 'two layers',
     waterTableM: null,
     layers: [
-      { name: 'upper', topM: 0, thicknessM: 5, vsMps: 150, vpMps: 400, unitWeightKnM3: 18, qS: 20, qP: 30, behaviour: 'clay-like' },
-      { name: 'lower', topM: 5, thicknessM: Infinity, vsMps: 300, vpMps: 700, unitWeightKnM3: 20, qS: 30, qP: 40, behaviour: 'sand-like' },
+      {
+        name: 'upper',
+        topM: 0,
+        thicknessM: 5,
+        vsMps: 150,
+        vpMps: 400,
+        unitWeightKnM3: 18,
+        qS: 20,
+        qP: 30,
+        behaviour: 'clay-like',
+      },
+      {
+        name: 'lower',
+        topM: 5,
+        thicknessM: Infinity,
+        vsMps: 300,
+        vpMps: 700,
+        unitWeightKnM3: 20,
+        qS: 30,
+        qP: 40,
+        behaviour: 'sand-like',
+      },
     ],
   };
 }
@@ -128,7 +160,15 @@ describe('model properties at depth', () => {
 
 describe('deviated hole positions (straight pieces between survey stations)', () => {
   it('station at 10 m along hole, 0.3 m east and 0.4 m north: at 10 m the point is (0.3, 0.4, sqrt(100 - 0.25)) from the collar', () => {
-    const hole = { id: 'B2', collarEastM: 3, collarNorthM: 0, deviation: [{ depthAlongM: 0, eastM: 0, northM: 0 }, { depthAlongM: 10, eastM: 0.3, northM: 0.4 }] };
+    const hole = {
+      id: 'B2',
+      collarEastM: 3,
+      collarNorthM: 0,
+      deviation: [
+        { depthAlongM: 0, eastM: 0, northM: 0 },
+        { depthAlongM: 10, eastM: 0.3, northM: 0.4 },
+      ],
+    };
     const p = holePositionAt(hole, 10);
     expect(p[0]).toBeCloseTo(3.3, 12);
     expect(p[1]).toBeCloseTo(0.4, 12);

@@ -68,7 +68,11 @@ describe('rendering an arrival on a sample grid', () => {
   it('the frequency-domain path with Q = 1e12 reproduces the time-domain pulse to 1e-4 of its peak (checks spectrum, delay sign and FFT scaling)', () => {
     const arrival = 0.0501234;
     const a = renderArrival(n, dt, 0, { arrivalS: arrival, frequencyHz: f0, attenuation: null });
-    const b = renderArrival(n, dt, 0, { arrivalS: arrival, frequencyHz: f0, attenuation: { travelTimeS: arrival, q: 1e12, referenceHz: f0 } });
+    const b = renderArrival(n, dt, 0, {
+      arrivalS: arrival,
+      frequencyHz: f0,
+      attenuation: { travelTimeS: arrival, q: 1e12, referenceHz: f0 },
+    });
     let worst = 0;
     for (let i = 0; i < n; i++) worst = Math.max(worst, Math.abs(a[i] - b[i]));
     expect(worst).toBeLessThan(1e-4);
@@ -81,7 +85,11 @@ describe('rendering an arrival on a sample grid', () => {
     const t = 0.05;
     const q = 20;
     const a = renderArrival(n, dt, 0, { arrivalS: t, frequencyHz: f0, attenuation: null });
-    const b = renderArrival(n, dt, 0, { arrivalS: t, frequencyHz: f0, attenuation: { travelTimeS: t, q, referenceHz: f0 } });
+    const b = renderArrival(n, dt, 0, {
+      arrivalS: t,
+      frequencyHz: f0,
+      attenuation: { travelTimeS: t, q, referenceHz: f0 },
+    });
     for (const f of [40, 100, 160, 250]) {
       const A = Math.hypot(...dftAt(a, dt, 0, f));
       const B = Math.hypot(...dftAt(b, dt, 0, f));

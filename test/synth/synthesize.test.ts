@@ -6,14 +6,41 @@ import { describe, expect, it } from 'vitest';
 import { BorewaveError } from '../../src/core/errors';
 import type { WaveRecord } from '../../src/core/model';
 import type { EarthModel } from '../../src/core/synth/earth';
-import { downholePath, synthesizeSurvey, type CrossholeGeometry, type DownholeGeometry, type PairGeometry, type SynthOptions } from '../../src/core/synth/synthesize';
+import {
+  downholePath,
+  synthesizeSurvey,
+  type CrossholeGeometry,
+  type DownholeGeometry,
+  type PairGeometry,
+  type SynthOptions,
+} from '../../src/core/synth/synthesize';
 
 const MODEL: EarthModel = {
   name: 'test site',
   waterTableM: 2,
   layers: [
-    { name: 'clay', topM: 0, thicknessM: 4, vsMps: 140, vpMps: 320, unitWeightKnM3: 17, qS: 20, qP: 30, behaviour: 'clay-like' },
-    { name: 'sand', topM: 4, thicknessM: Infinity, vsMps: 260, vpMps: 520, unitWeightKnM3: 19.5, qS: 30, qP: 40, behaviour: 'sand-like' },
+    {
+      name: 'clay',
+      topM: 0,
+      thicknessM: 4,
+      vsMps: 140,
+      vpMps: 320,
+      unitWeightKnM3: 17,
+      qS: 20,
+      qP: 30,
+      behaviour: 'clay-like',
+    },
+    {
+      name: 'sand',
+      topM: 4,
+      thicknessM: Infinity,
+      vsMps: 260,
+      vpMps: 520,
+      unitWeightKnM3: 19.5,
+      qS: 30,
+      qP: 40,
+      behaviour: 'sand-like',
+    },
   ],
 };
 
@@ -97,7 +124,9 @@ describe('reversed hits (common practice: (L - R)/2 keeps S, (L + R)/2 keeps P)'
           sPeak = Math.max(sPeak, Math.abs(Ls[i]));
           // P in (L - R): before the S onset exactly the P residual, later up to float32 rounding.
           if (i * CLEAN.sampleIntervalS <= tS) preOnsetResidual = Math.max(preOnsetResidual, Math.abs(L[i] - R[i]));
-          expect(Math.abs(pL - pR)).toBeLessThanOrEqual(1e-6 * pPeak + f32 * (Math.abs(L[i]) + Math.abs(R[i]) + Math.abs(Ls[i]) + Math.abs(Rs[i])));
+          expect(Math.abs(pL - pR)).toBeLessThanOrEqual(
+            1e-6 * pPeak + f32 * (Math.abs(L[i]) + Math.abs(R[i]) + Math.abs(Ls[i]) + Math.abs(Rs[i])),
+          );
           // S in (L + R): the S-only hits are exact mirror images.
           expect(Math.abs(Ls[i] + Rs[i])).toBeLessThanOrEqual(1e-6 * Math.abs(Ls[i]));
         }
@@ -119,7 +148,13 @@ describe('reversed hits (common practice: (L - R)/2 keeps S, (L + R)/2 keeps P)'
         { id: 'R2', collarEastM: 6, collarNorthM: 0, deviation: [] },
       ],
     };
-    const { records, truth } = synthesizeSurvey(MODEL, g, { ...CLEAN, sampleIntervalS: 2e-5, sFrequencyHz: 300, pFrequencyHz: 1200, pToSRatio: 0 });
+    const { records, truth } = synthesizeSurvey(MODEL, g, {
+      ...CLEAN,
+      sampleIntervalS: 2e-5,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1200,
+      pToSRatio: 0,
+    });
     expect(truth.records.map((r) => r.hit)).toEqual(['up', 'down']);
     const up = trace(records[0], 1);
     const down = trace(records[1], 1);
@@ -143,7 +178,8 @@ describe('trigger delay, noise and determinism', () => {
       expect(d).toBeLessThan(1e-4);
     }
     expect(new Set(delays).size).toBe(delays.length);
-    for (const r of truth.records) for (const c of r.channels) expect(c.sArrivalS - c.sTravelS).toBeCloseTo(r.triggerDelayS, 15);
+    for (const r of truth.records)
+      for (const c of r.channels) expect(c.sArrivalS - c.sTravelS).toBeCloseTo(r.triggerDelayS, 15);
   });
 
   it('noise standard deviation = peak |S| / SNR; measured before the P arrival within 10% (1000+ samples)', () => {
@@ -167,7 +203,9 @@ describe('trigger delay, noise and determinism', () => {
     const a = synthesizeSurvey(MODEL, DOWNHOLE, noisy);
     const b = synthesizeSurvey(MODEL, DOWNHOLE, noisy);
     const c = synthesizeSurvey(MODEL, DOWNHOLE, { ...noisy, seed: 8 });
-    a.records.forEach((rec, k) => rec.traces.forEach((t, j) => expect(Array.from(t.samples)).toEqual(Array.from(b.records[k].traces[j].samples))));
+    a.records.forEach((rec, k) =>
+      rec.traces.forEach((t, j) => expect(Array.from(t.samples)).toEqual(Array.from(b.records[k].traces[j].samples))),
+    );
     expect(Array.from(a.records[0].traces[0].samples)).not.toEqual(Array.from(c.records[0].traces[0].samples));
     expect(a.truth).toEqual(b.truth);
   });
@@ -182,14 +220,44 @@ describe('crosshole through deviated holes (straight ray at the layer velocity o
     kind: 'crosshole',
     depthsM: [10],
     holes: [
-      { id: 'B1', collarEastM: 0, collarNorthM: 0, deviation: [{ depthAlongM: 0, eastM: 0, northM: 0 }, { depthAlongM: 10, eastM: 0, northM: 0 }] },
-      { id: 'B2', collarEastM: 3, collarNorthM: 0, deviation: [{ depthAlongM: 0, eastM: 0, northM: 0 }, { depthAlongM: 10, eastM: 0.3, northM: 0.4 }] },
-      { id: 'B3', collarEastM: 6, collarNorthM: 0, deviation: [{ depthAlongM: 0, eastM: 0, northM: 0 }, { depthAlongM: 10, eastM: -0.2, northM: 0 }] },
+      {
+        id: 'B1',
+        collarEastM: 0,
+        collarNorthM: 0,
+        deviation: [
+          { depthAlongM: 0, eastM: 0, northM: 0 },
+          { depthAlongM: 10, eastM: 0, northM: 0 },
+        ],
+      },
+      {
+        id: 'B2',
+        collarEastM: 3,
+        collarNorthM: 0,
+        deviation: [
+          { depthAlongM: 0, eastM: 0, northM: 0 },
+          { depthAlongM: 10, eastM: 0.3, northM: 0.4 },
+        ],
+      },
+      {
+        id: 'B3',
+        collarEastM: 6,
+        collarNorthM: 0,
+        deviation: [
+          { depthAlongM: 0, eastM: 0, northM: 0 },
+          { depthAlongM: 10, eastM: -0.2, northM: 0 },
+        ],
+      },
     ],
   };
 
   it('S and P times = 3-D distance / layer velocity (Vp below the water table = 1500 m/s)', () => {
-    const { truth, survey } = synthesizeSurvey(MODEL, g, { ...CLEAN, sampleIntervalS: 2e-5, samplesPerTrace: 2048, sFrequencyHz: 300, pFrequencyHz: 1200 });
+    const { truth, survey } = synthesizeSurvey(MODEL, g, {
+      ...CLEAN,
+      sampleIntervalS: 2e-5,
+      samplesPerTrace: 2048,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1200,
+    });
     const near = truth.records[0].channels.filter((c) => c.receiver === 'B2');
     const far = truth.records[0].channels.filter((c) => c.receiver === 'B3');
     expect(near.map((c) => c.component)).toEqual(['V', 'H1']);
@@ -199,12 +267,23 @@ describe('crosshole through deviated holes (straight ray at the layer velocity o
     expect(far[0].sTravelS).toBeCloseTo(5.800000344896559 / 260, 14);
     expect(survey.mainHoleId).toBe('B1');
     expect(survey.receiverHoleIds).toEqual(['B2', 'B3']);
-    expect(survey.records[0].channels.map((c) => `${c.channel}:${c.receiver}:${c.component}`)).toEqual(['1:B2:V', '2:B2:H1', '3:B3:V', '4:B3:H1']);
+    expect(survey.records[0].channels.map((c) => `${c.channel}:${c.receiver}:${c.component}`)).toEqual([
+      '1:B2:V',
+      '2:B2:H1',
+      '3:B3:V',
+      '4:B3:H1',
+    ]);
   });
 });
 
 describe('two-receiver downhole and the survey description', () => {
-  const pair: PairGeometry = { kind: 'downhole-pair', holeId: 'SC', upperDepthsM: [3, 6], receiverSpacingM: 1, sourceOffsetM: 1.5 };
+  const pair: PairGeometry = {
+    kind: 'downhole-pair',
+    holeId: 'SC',
+    upperDepthsM: [3, 6],
+    receiverSpacingM: 1,
+    sourceOffsetM: 1.5,
+  };
 
   it('one hit on both receivers: same trigger delay; lower receiver times at depth + spacing', () => {
     const { truth, survey } = synthesizeSurvey(MODEL, pair, { ...CLEAN, maxTriggerDelayS: 1e-4 });
@@ -218,15 +297,29 @@ describe('two-receiver downhole and the survey description', () => {
     expect(survey.kind).toBe('downhole-pair');
     expect(survey.receiverSpacingM).toBe(1);
     expect(survey.sourceOffsetM).toBe(1.5);
-    expect(survey.records.map((a) => a.recordId)).toEqual(['dhp_d3.0_L.sg2', 'dhp_d3.0_R.sg2', 'dhp_d6.0_L.sg2', 'dhp_d6.0_R.sg2']);
-    expect(survey.records[0].channels.map((c) => c.receiver)).toEqual(['upper', 'upper', 'upper', 'lower', 'lower', 'lower']);
+    expect(survey.records.map((a) => a.recordId)).toEqual([
+      'dhp_d3.0_L.sg2',
+      'dhp_d3.0_R.sg2',
+      'dhp_d6.0_L.sg2',
+      'dhp_d6.0_R.sg2',
+    ]);
+    expect(survey.records[0].channels.map((c) => c.receiver)).toEqual([
+      'upper',
+      'upper',
+      'upper',
+      'lower',
+      'lower',
+      'lower',
+    ]);
   });
 
   it('survey soil column: layers from the model, stress exponent 0.5 clay / 0.25 sand (domain.md section 4), Poisson 0.3', () => {
     const { survey, records } = synthesizeSurvey(MODEL, DOWNHOLE, CLEAN);
     expect(survey.mainHoleId).toBe('DH');
     expect(survey.soil.waterTableM).toBe(2);
-    expect(survey.soil.layers.map((l) => [l.name, l.topM, l.bottomM, l.unitWeightKnM3, l.stressExponent, l.poissonRatio])).toEqual([
+    expect(
+      survey.soil.layers.map((l) => [l.name, l.topM, l.bottomM, l.unitWeightKnM3, l.stressExponent, l.poissonRatio]),
+    ).toEqual([
       ['clay', 0, 4, 17, 0.5, 0.3],
       ['sand', 4, 8, 19.5, 0.25, 0.3],
     ]);

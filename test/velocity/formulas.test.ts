@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { correctedTimeS, fitLine, intervalVelocityMps, intervalVelocitySdMps, slantDistanceM } from '../../src/core/velocity/formulas';
+import {
+  correctedTimeS,
+  fitLine,
+  intervalVelocityMps,
+  intervalVelocitySdMps,
+  slantDistanceM,
+} from '../../src/core/velocity/formulas';
 import { distanceM, positionAlongHole } from '../../src/core/survey/geometry';
 import type { Borehole } from '../../src/core/model';
 
@@ -43,7 +49,13 @@ describe('crosshole interval velocity from deviated holes (ASTM D4428/D4428M-14:
   // D2 = |(6.20, -0.10, 9.997500) - (0.10, 0.05, 9.999375)| = sqrt(6.10^2 + 0.15^2 + 0.001875^2) = 6.101844 m
   // Picks t1 = 12.0 ms, t2 = 28.5 ms -> V = 3.351389 m / 16.5 ms = 203.11 m/s.
   const hole = (id: string, e0: number, de: number, dn: number): Borehole => ({
-    id, collarEastM: e0, collarNorthM: 0, deviation: [{ depthAlongM: 0, eastM: 0, northM: 0 }, { depthAlongM: 10, eastM: de, northM: dn }],
+    id,
+    collarEastM: e0,
+    collarNorthM: 0,
+    deviation: [
+      { depthAlongM: 0, eastM: 0, northM: 0 },
+      { depthAlongM: 10, eastM: de, northM: dn },
+    ],
   });
   const s = positionAlongHole(hole('S', 0, 0.1, 0.05), 10).pos;
   const r1 = positionAlongHole(hole('R1', 3, -0.15, 0), 10).pos;
@@ -66,7 +78,16 @@ describe('crosshole interval velocity from deviated holes (ASTM D4428/D4428M-14:
 });
 
 describe('deviation interpolation rules (ours, documented in survey/geometry.ts)', () => {
-  const h: Borehole = { id: 'B', collarEastM: 100, collarNorthM: 200, deviation: [{ depthAlongM: 0, eastM: 0, northM: 0 }, { depthAlongM: 5, eastM: 0.3, northM: 0 }, { depthAlongM: 10, eastM: 0.6, northM: 0.4 }] };
+  const h: Borehole = {
+    id: 'B',
+    collarEastM: 100,
+    collarNorthM: 200,
+    deviation: [
+      { depthAlongM: 0, eastM: 0, northM: 0 },
+      { depthAlongM: 5, eastM: 0.3, northM: 0 },
+      { depthAlongM: 10, eastM: 0.6, northM: 0.4 },
+    ],
+  };
   it('linear offsets between stations', () => {
     const p = positionAlongHole(h, 7.5).pos;
     expect(p[0]).toBeCloseTo(100.45, 12);
@@ -80,7 +101,9 @@ describe('deviation interpolation rules (ours, documented in survey/geometry.ts)
     expect(p.beyondSurvey).toBe(true);
   });
   it('a vertical hole without a survey keeps depth = depth along hole', () => {
-    expect(positionAlongHole({ id: 'V', collarEastM: 0, collarNorthM: 0, deviation: [] }, 12.5).pos).toEqual([0, 0, 12.5]);
+    expect(positionAlongHole({ id: 'V', collarEastM: 0, collarNorthM: 0, deviation: [] }, 12.5).pos).toEqual([
+      0, 0, 12.5,
+    ]);
   });
 });
 

@@ -57,7 +57,12 @@ export function newProjectDocument(survey: Survey, files: string[] = []): Projec
 function safeEntryName(name: string, archiveName: string): string {
   const base = name.replace(/\\/g, '/').split('/').pop() ?? '';
   if (!base || base === '.' || base === '..' || base === 'project.json') {
-    throw new BorewaveError('ARCHIVE_BAD_ENTRY_NAME', `File name "${name}" cannot be stored in a project archive.`, archiveName, name);
+    throw new BorewaveError(
+      'ARCHIVE_BAD_ENTRY_NAME',
+      `File name "${name}" cannot be stored in a project archive.`,
+      archiveName,
+      name,
+    );
   }
   return base;
 }
@@ -85,10 +90,12 @@ export function validateProjectDocument(raw: unknown, archiveName: string): Proj
   if (typeof raw !== 'object' || raw === null) fail('(document)', 'is not a JSON object');
   const d = raw as Record<string, unknown>;
   if (d.format !== PROJECT_FORMAT) fail('format', `is "${String(d.format)}", expected "${PROJECT_FORMAT}"`);
-  if (typeof d.version !== 'number' || d.version > PROJECT_VERSION) fail('version', `${String(d.version)} is not supported (this program reads up to ${PROJECT_VERSION})`);
+  if (typeof d.version !== 'number' || d.version > PROJECT_VERSION)
+    fail('version', `${String(d.version)} is not supported (this program reads up to ${PROJECT_VERSION})`);
   const s = d.survey as Record<string, unknown> | undefined;
   if (!s || typeof s !== 'object') fail('survey', 'is missing');
-  if (!['downhole', 'downhole-pair', 'crosshole'].includes(String(s!.kind))) fail('survey.kind', `"${String(s!.kind)}" is not downhole, downhole-pair or crosshole`);
+  if (!['downhole', 'downhole-pair', 'crosshole'].includes(String(s!.kind)))
+    fail('survey.kind', `"${String(s!.kind)}" is not downhole, downhole-pair or crosshole`);
   if (!Array.isArray(s!.records)) fail('survey.records', 'is not a list');
   if (!Array.isArray(s!.boreholes)) fail('survey.boreholes', 'is not a list');
   if (!Array.isArray(d.files)) fail('files', 'is not a list');
@@ -116,21 +123,38 @@ export function readProjectArchive(zipBytes: Uint8Array, archiveName: string): O
       filter: (f) => {
         count++;
         if (count > ARCHIVE_LIMITS.maxEntries) {
-          throw new BorewaveError('ARCHIVE_TOO_MANY_ENTRIES', `${archiveName} holds more than ${ARCHIVE_LIMITS.maxEntries} files.`, archiveName);
+          throw new BorewaveError(
+            'ARCHIVE_TOO_MANY_ENTRIES',
+            `${archiveName} holds more than ${ARCHIVE_LIMITS.maxEntries} files.`,
+            archiveName,
+          );
         }
         if (f.originalSize > ARCHIVE_LIMITS.maxEntryBytes) {
-          throw new BorewaveError('ARCHIVE_ENTRY_TOO_LARGE', `${f.name} in ${archiveName} declares ${f.originalSize} bytes, above the ${ARCHIVE_LIMITS.maxEntryBytes} limit.`, archiveName, f.name);
+          throw new BorewaveError(
+            'ARCHIVE_ENTRY_TOO_LARGE',
+            `${f.name} in ${archiveName} declares ${f.originalSize} bytes, above the ${ARCHIVE_LIMITS.maxEntryBytes} limit.`,
+            archiveName,
+            f.name,
+          );
         }
         total += f.originalSize;
         if (total > ARCHIVE_LIMITS.maxTotalBytes) {
-          throw new BorewaveError('ARCHIVE_TOO_LARGE', `${archiveName} unpacks to more than ${ARCHIVE_LIMITS.maxTotalBytes} bytes.`, archiveName);
+          throw new BorewaveError(
+            'ARCHIVE_TOO_LARGE',
+            `${archiveName} unpacks to more than ${ARCHIVE_LIMITS.maxTotalBytes} bytes.`,
+            archiveName,
+          );
         }
         return !f.name.endsWith('/');
       },
     });
   } catch (e) {
     if (e instanceof BorewaveError) throw e;
-    throw new BorewaveError('ARCHIVE_CORRUPT', `${archiveName} could not be unpacked: ${(e as Error).message}.`, archiveName);
+    throw new BorewaveError(
+      'ARCHIVE_CORRUPT',
+      `${archiveName} could not be unpacked: ${(e as Error).message}.`,
+      archiveName,
+    );
   }
   const byBase = new Map<string, Uint8Array>();
   for (const [name, bytes] of Object.entries(entries)) {
@@ -138,12 +162,18 @@ export function readProjectArchive(zipBytes: Uint8Array, archiveName: string): O
     if (base) byBase.set(base, bytes);
   }
   const json = byBase.get('project.json');
-  if (!json) throw new BorewaveError('ARCHIVE_NO_PROJECT', `${archiveName} has no project.json.`, archiveName, 'project.json');
+  if (!json)
+    throw new BorewaveError('ARCHIVE_NO_PROJECT', `${archiveName} has no project.json.`, archiveName, 'project.json');
   let raw: unknown;
   try {
     raw = JSON.parse(strFromU8(json));
   } catch (e) {
-    throw new BorewaveError('PROJECT_BAD_JSON', `project.json in ${archiveName} is not valid JSON: ${(e as Error).message}.`, archiveName, 'project.json');
+    throw new BorewaveError(
+      'PROJECT_BAD_JSON',
+      `project.json in ${archiveName} is not valid JSON: ${(e as Error).message}.`,
+      archiveName,
+      'project.json',
+    );
   }
   const doc = validateProjectDocument(raw, archiveName);
   const files: ProjectFile[] = [];

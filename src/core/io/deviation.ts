@@ -48,7 +48,12 @@ export function readDeviationTable(text: string, fileName: string): DeviationSta
   if (data.length === 0) fail('DEVIATION_EMPTY', 'the deviation table has a header but no stations', file);
   const nCols = header ? header.length : data[0].cells.length;
   if (nCols < 3) {
-    fail('DEVIATION_TOO_FEW_COLUMNS', `line ${rows[0].line} has ${nCols} columns; depth along hole, east and north are needed`, file, 'columns');
+    fail(
+      'DEVIATION_TOO_FEW_COLUMNS',
+      `line ${rows[0].line} has ${nCols} columns; depth along hole, east and north are needed`,
+      file,
+      'columns',
+    );
   }
   const cols = pickColumns(header);
   const scale = cols.map((c) => (header && isFeet(header[c]) ? METRES_PER_FOOT : 1));
@@ -57,22 +62,42 @@ export function readDeviationTable(text: string, fileName: string): DeviationSta
   const out: DeviationStation[] = [];
   for (const row of data) {
     if (row.cells.length !== nCols) {
-      fail('DEVIATION_RAGGED_ROW', `line ${row.line} has ${row.cells.length} columns, expected ${nCols}`, file, `line ${row.line}`);
+      fail(
+        'DEVIATION_RAGGED_ROW',
+        `line ${row.line} has ${row.cells.length} columns, expected ${nCols}`,
+        file,
+        `line ${row.line}`,
+      );
     }
     const v = cols.map((c, k) => {
       const x = parseCell(row.cells[c], decimalComma);
       if (Number.isNaN(x)) {
-        fail('DEVIATION_NOT_NUMERIC', `line ${row.line}, column ${c + 1} (${names[k]}): "${row.cells[c]}" is not a number`, file, `line ${row.line}, column ${c + 1}`);
+        fail(
+          'DEVIATION_NOT_NUMERIC',
+          `line ${row.line}, column ${c + 1} (${names[k]}): "${row.cells[c]}" is not a number`,
+          file,
+          `line ${row.line}, column ${c + 1}`,
+        );
       }
       return x * scale[k];
     });
     const station: DeviationStation = { depthAlongM: v[0], eastM: v[1], northM: v[2] };
     if (station.depthAlongM < 0) {
-      fail('DEVIATION_NEGATIVE_DEPTH', `line ${row.line}: depth along hole ${row.cells[cols[0]]} is negative`, file, `line ${row.line}`);
+      fail(
+        'DEVIATION_NEGATIVE_DEPTH',
+        `line ${row.line}: depth along hole ${row.cells[cols[0]]} is negative`,
+        file,
+        `line ${row.line}`,
+      );
     }
     const prev = out[out.length - 1];
     if (prev && !(station.depthAlongM > prev.depthAlongM)) {
-      fail('DEVIATION_NOT_INCREASING', `line ${row.line}: depth along hole ${row.cells[cols[0]]} is not greater than the previous station's`, file, `line ${row.line}`);
+      fail(
+        'DEVIATION_NOT_INCREASING',
+        `line ${row.line}: depth along hole ${row.cells[cols[0]]} is not greater than the previous station's`,
+        file,
+        `line ${row.line}`,
+      );
     }
     out.push(station);
   }

@@ -34,5 +34,12 @@ export function loadProject(opened: OpenedProject, archiveName: string): LoadedP
     if (out.ok) records.set(f.name, { ...out.record, id: f.name });
     else issues.push(out.error);
   }
-  return { survey: opened.doc.survey, settings: opened.doc.settings, edits: opened.doc.edits, records, comparison: opened.doc.comparison ?? null, issues };
+  return {
+    survey: opened.doc.survey,
+    settings: opened.doc.settings,
+    edits: opened.doc.edits,
+    records,
+    comparison: opened.doc.comparison ?? null,
+    issues,
+  };
 }

@@ -99,5 +99,7 @@ export function summarizeRecord(record: WaveRecord): FileSummary {
 
 /** Summary of one read outcome. */
 export function summarizeOutcome(fileName: string, outcome: ReadOutcome): FileSummary {
-  return outcome.ok ? { ...summarizeRecord(outcome.record), file: fileName } : { file: fileName, ok: false, error: outcome.error };
+  return outcome.ok
+    ? { ...summarizeRecord(outcome.record), file: fileName }
+    : { file: fileName, ok: false, error: outcome.error };
 }

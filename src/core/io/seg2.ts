@@ -136,13 +136,7 @@ export function decode20BitGroup(view: DataView, offset: number, little: boolean
   }
 }
 
-function decodeSamples(
-  view: DataView,
-  start: number,
-  ns: number,
-  code: number,
-  little: boolean,
-): Float64Array {
+function decodeSamples(view: DataView, start: number, ns: number, code: number, little: boolean): Float64Array {
   const out = new Float64Array(ns);
   switch (code) {
     case 1:
@@ -175,39 +169,86 @@ interface TraceBlock {
 }
 
 /** Check one trace descriptor block's declared sizes against the file length; nothing is allocated. */
-function checkTraceBlock(view: DataView, fileLength: number, pointer: number, little: boolean, index: number, file: string): TraceBlock {
+function checkTraceBlock(
+  view: DataView,
+  fileLength: number,
+  pointer: number,
+  little: boolean,
+  index: number,
+  file: string,
+): TraceBlock {
   const where = `trace ${index + 1} (descriptor at byte ${pointer})`;
   if (pointer + TRACE_HEADER_BYTES > fileLength) {
-    fail('SEG2_POINTER_PAST_END', `${where}: pointer leaves no room for a 32-byte trace descriptor in a ${fileLength}-byte file`, file, `trace pointer ${index + 1}`);
+    fail(
+      'SEG2_POINTER_PAST_END',
+      `${where}: pointer leaves no room for a 32-byte trace descriptor in a ${fileLength}-byte file`,
+      file,
+      `trace pointer ${index + 1}`,
+    );
   }
   const id = view.getUint16(pointer, little);
   if (id !== SEG2_TRACE_BLOCK_ID) {
-    fail('SEG2_BAD_BLOCK_ID', `${where}: block id is 0x${id.toString(16)}, expected 0x4422`, file, `trace ${index + 1} block id`);
+    fail(
+      'SEG2_BAD_BLOCK_ID',
+      `${where}: block id is 0x${id.toString(16)}, expected 0x4422`,
+      file,
+      `trace ${index + 1} block id`,
+    );
   }
   const headerBytes = view.getUint16(pointer + 2, little);
   const dataBytes = view.getUint32(pointer + 4, little);
   const sampleCount = view.getUint32(pointer + 8, little);
   const formatCode = view.getUint8(pointer + 12);
   if (headerBytes < TRACE_HEADER_BYTES || pointer + headerBytes > fileLength) {
-    fail('SEG2_TRUNCATED', `${where}: descriptor size ${headerBytes} bytes runs past the end of the ${fileLength}-byte file or is below 32`, file, `trace ${index + 1} descriptor size`);
+    fail(
+      'SEG2_TRUNCATED',
+      `${where}: descriptor size ${headerBytes} bytes runs past the end of the ${fileLength}-byte file or is below 32`,
+      file,
+      `trace ${index + 1} descriptor size`,
+    );
   }
   const bps = BYTES_PER_SAMPLE[formatCode];
   if (bps === undefined) {
-    fail('SEG2_BAD_FORMAT_CODE', `${where}: data format code ${formatCode} is not one of 1, 2, 3, 4, 5`, file, `trace ${index + 1} format code`);
+    fail(
+      'SEG2_BAD_FORMAT_CODE',
+      `${where}: data format code ${formatCode} is not one of 1, 2, 3, 4, 5`,
+      file,
+      `trace ${index + 1} format code`,
+    );
   }
   if (formatCode === 3 && sampleCount % 4 !== 0) {
-    fail('SEG2_BAD_SAMPLE_COUNT', `${where}: format 3 needs a multiple of 4 samples, found ${sampleCount}`, file, `trace ${index + 1} samples`);
+    fail(
+      'SEG2_BAD_SAMPLE_COUNT',
+      `${where}: format 3 needs a multiple of 4 samples, found ${sampleCount}`,
+      file,
+      `trace ${index + 1} samples`,
+    );
   }
   const available = fileLength - (pointer + headerBytes);
   const needed = sampleCount * bps;
   if (needed > fileLength) {
-    fail('SEG2_ABSURD_SAMPLE_COUNT', `${where}: ${sampleCount} samples would need ${needed} bytes, more than the whole ${fileLength}-byte file`, file, `trace ${index + 1} samples`);
+    fail(
+      'SEG2_ABSURD_SAMPLE_COUNT',
+      `${where}: ${sampleCount} samples would need ${needed} bytes, more than the whole ${fileLength}-byte file`,
+      file,
+      `trace ${index + 1} samples`,
+    );
   }
   if (needed > available) {
-    fail('SEG2_TRUNCATED', `${where}: ${sampleCount} samples need ${needed} bytes but only ${available} remain`, file, `trace ${index + 1} data`);
+    fail(
+      'SEG2_TRUNCATED',
+      `${where}: ${sampleCount} samples need ${needed} bytes but only ${available} remain`,
+      file,
+      `trace ${index + 1} data`,
+    );
   }
   if (dataBytes < needed) {
-    fail('SEG2_BAD_DATA_SIZE', `${where}: data block size ${dataBytes} bytes is smaller than ${sampleCount} samples need (${needed})`, file, `trace ${index + 1} data size`);
+    fail(
+      'SEG2_BAD_DATA_SIZE',
+      `${where}: data block size ${dataBytes} bytes is smaller than ${sampleCount} samples need (${needed})`,
+      file,
+      `trace ${index + 1} data size`,
+    );
   }
   return { pointer, headerBytes, dataBytes, sampleCount, formatCode };
 }
@@ -223,18 +264,34 @@ export function readSeg2(bytes: Uint8Array, fileName: string): WaveRecord {
   const byteOrder = seg2ByteOrder(bytes);
   if (!byteOrder) {
     const got = Array.from(bytes.subarray(0, 2), (b) => b.toString(16).padStart(2, '0')).join(' ');
-    fail('SEG2_BAD_BLOCK_ID', `file block id bytes are "${got}", expected "55 3a" (little-endian) or "3a 55" (big-endian)`, file, 'file block id');
+    fail(
+      'SEG2_BAD_BLOCK_ID',
+      `file block id bytes are "${got}", expected "55 3a" (little-endian) or "3a 55" (big-endian)`,
+      file,
+      'file block id',
+    );
   }
-  if (n < FILE_HEADER_BYTES) fail('SEG2_TRUNCATED', `the file has ${n} bytes, fewer than the 32-byte file descriptor`, file, 'file descriptor');
+  if (n < FILE_HEADER_BYTES)
+    fail('SEG2_TRUNCATED', `the file has ${n} bytes, fewer than the 32-byte file descriptor`, file, 'file descriptor');
   const little = byteOrder === 'little';
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const pointerBlockBytes = view.getUint16(4, little);
   const traceCount = view.getUint16(6, little);
   if (4 * traceCount > pointerBlockBytes) {
-    fail('SEG2_BAD_POINTER_BLOCK', `${traceCount} traces need ${4 * traceCount} pointer bytes but the pointer block holds ${pointerBlockBytes}`, file, 'trace pointer block size');
+    fail(
+      'SEG2_BAD_POINTER_BLOCK',
+      `${traceCount} traces need ${4 * traceCount} pointer bytes but the pointer block holds ${pointerBlockBytes}`,
+      file,
+      'trace pointer block size',
+    );
   }
   if (FILE_HEADER_BYTES + pointerBlockBytes > n) {
-    fail('SEG2_TRUNCATED', `the trace pointer block (${pointerBlockBytes} bytes at byte 32) runs past the end of the ${n}-byte file`, file, 'trace pointer block');
+    fail(
+      'SEG2_TRUNCATED',
+      `the trace pointer block (${pointerBlockBytes} bytes at byte 32) runs past the end of the ${n}-byte file`,
+      file,
+      'trace pointer block',
+    );
   }
   const term: Terminators = {
     stringTerminator: terminatorAt(bytes, 8, file, 'string terminator'),
@@ -248,7 +305,12 @@ export function readSeg2(bytes: Uint8Array, fileName: string): WaveRecord {
   // Traces sharing or overlapping data could multiply the allocation: their data must fit the file together.
   const totalDataBytes = blocks.reduce((s, b) => s + b.sampleCount * BYTES_PER_SAMPLE[b.formatCode], 0);
   if (totalDataBytes > n) {
-    fail('SEG2_ABSURD_SAMPLE_COUNT', `the ${traceCount} traces together declare ${totalDataBytes} data bytes, more than the ${n}-byte file holds`, file, 'trace sample counts');
+    fail(
+      'SEG2_ABSURD_SAMPLE_COUNT',
+      `the ${traceCount} traces together declare ${totalDataBytes} data bytes, more than the ${n}-byte file holds`,
+      file,
+      'trace sample counts',
+    );
   }
 
   const fileStringsStart = FILE_HEADER_BYTES + pointerBlockBytes;
@@ -280,20 +342,46 @@ function readTrace(
   file: string,
 ): Trace {
   const where = `trace ${index + 1}`;
-  const strings = readStringList(view, bytes, b.pointer + TRACE_HEADER_BYTES, b.pointer + b.headerBytes, little, term, file, where);
+  const strings = readStringList(
+    view,
+    bytes,
+    b.pointer + TRACE_HEADER_BYTES,
+    b.pointer + b.headerBytes,
+    little,
+    term,
+    file,
+    where,
+  );
   // Trace values override file values of the same keyword.
   const merged: Record<string, string> = { ...fileStrings, ...strings };
 
   const siText = merged.SAMPLE_INTERVAL;
   const sampleIntervalS = siText === undefined ? NaN : Number(siText.split(/\s+/)[0]);
   if (!(sampleIntervalS > 0) || !Number.isFinite(sampleIntervalS)) {
-    fail('SEG2_BAD_SAMPLE_INTERVAL', `${where}: SAMPLE_INTERVAL is ${siText === undefined ? 'missing' : `"${siText}"`}; it must be a positive number of seconds`, file, 'SAMPLE_INTERVAL');
+    fail(
+      'SEG2_BAD_SAMPLE_INTERVAL',
+      `${where}: SAMPLE_INTERVAL is ${siText === undefined ? 'missing' : `"${siText}"`}; it must be a positive number of seconds`,
+      file,
+      'SAMPLE_INTERVAL',
+    );
   }
   const delayS = merged.DELAY !== undefined ? parseOneNumber(merged.DELAY, 'DELAY', file, where) : 0;
-  const descaling = merged.DESCALING_FACTOR !== undefined ? parseOneNumber(merged.DESCALING_FACTOR, 'DESCALING_FACTOR', file, where) : 1;
-  const channel = merged.CHANNEL_NUMBER !== undefined ? parseOneNumber(merged.CHANNEL_NUMBER, 'CHANNEL_NUMBER', file, where) : index + 1;
-  const receiverLocation = merged.RECEIVER_LOCATION !== undefined ? parseNumbers(merged.RECEIVER_LOCATION, 'RECEIVER_LOCATION', file, where) : undefined;
-  const sourceLocation = merged.SOURCE_LOCATION !== undefined ? parseNumbers(merged.SOURCE_LOCATION, 'SOURCE_LOCATION', file, where) : undefined;
+  const descaling =
+    merged.DESCALING_FACTOR !== undefined
+      ? parseOneNumber(merged.DESCALING_FACTOR, 'DESCALING_FACTOR', file, where)
+      : 1;
+  const channel =
+    merged.CHANNEL_NUMBER !== undefined
+      ? parseOneNumber(merged.CHANNEL_NUMBER, 'CHANNEL_NUMBER', file, where)
+      : index + 1;
+  const receiverLocation =
+    merged.RECEIVER_LOCATION !== undefined
+      ? parseNumbers(merged.RECEIVER_LOCATION, 'RECEIVER_LOCATION', file, where)
+      : undefined;
+  const sourceLocation =
+    merged.SOURCE_LOCATION !== undefined
+      ? parseNumbers(merged.SOURCE_LOCATION, 'SOURCE_LOCATION', file, where)
+      : undefined;
 
   const raw = decodeSamples(view, b.pointer + b.headerBytes, b.sampleCount, b.formatCode, little);
   const samples = new Float32Array(raw.length);
@@ -301,7 +389,12 @@ function readTrace(
     const v = raw[i] * descaling;
     samples[i] = v;
     if (!Number.isFinite(samples[i])) {
-      fail('SEG2_NONFINITE_SAMPLE', `${where} (channel ${channel}), sample ${i}: value ${raw[i]} x DESCALING_FACTOR ${descaling} is not a finite 32-bit number`, file, `trace ${index + 1} sample ${i}`);
+      fail(
+        'SEG2_NONFINITE_SAMPLE',
+        `${where} (channel ${channel}), sample ${i}: value ${raw[i]} x DESCALING_FACTOR ${descaling} is not a finite 32-bit number`,
+        file,
+        `trace ${index + 1} sample ${i}`,
+      );
     }
   }
   const trace: Trace = { channel, samples, sampleIntervalS, delayS, strings };
@@ -337,7 +430,8 @@ function encodeStringList(entries: [string, string][]): Uint8Array {
   for (const [k, v] of entries) {
     const text = encodeUtf8(v.length > 0 ? `${k} ${v}` : k);
     const len = 2 + text.length + 1;
-    if (len > 0xffff) throw new BorewaveError('SEG2_STRING_TOO_LONG', `SEG-2 string ${k} is longer than 65535 bytes`, undefined, k);
+    if (len > 0xffff)
+      throw new BorewaveError('SEG2_STRING_TOO_LONG', `SEG-2 string ${k} is longer than 65535 bytes`, undefined, k);
     const entry = new Uint8Array(len);
     new DataView(entry.buffer).setUint16(0, len, true); // rewritten in the file's byte order below
     entry.set(text, 2);
@@ -383,15 +477,25 @@ export function chooseDescalingFactor(samples: ArrayLike<number>, formatCode: 1 
 }
 
 /** Write a SEG-2 file (revision 1, NUL string terminator, LF line terminator). */
-export function writeSeg2(input: Seg2WriteInput, opts: { byteOrder: ByteOrder; formatCode: 1 | 2 | 4 | 5 }): Uint8Array {
+export function writeSeg2(
+  input: Seg2WriteInput,
+  opts: { byteOrder: ByteOrder; formatCode: 1 | 2 | 4 | 5 },
+): Uint8Array {
   const little = opts.byteOrder === 'little';
   const code = opts.formatCode;
   const bps = BYTES_PER_SAMPLE[code];
   const nTraces = input.traces.length;
-  if (nTraces > 0xffff / 4) throw new BorewaveError('SEG2_TOO_MANY_TRACES', `SEG-2 holds at most 16383 traces, got ${nTraces}`);
+  if (nTraces > 0xffff / 4)
+    throw new BorewaveError('SEG2_TOO_MANY_TRACES', `SEG-2 holds at most 16383 traces, got ${nTraces}`);
 
-  const fileEntries: [string, string][] = Object.entries(input.fileStrings ?? {}).filter(([k]) => k.toUpperCase() !== 'NOTE');
-  if (input.notes && input.notes.length > 0) fileEntries.push(['NOTE', String.fromCharCode(LINE_TERMINATOR) + input.notes.join(String.fromCharCode(LINE_TERMINATOR))]);
+  const fileEntries: [string, string][] = Object.entries(input.fileStrings ?? {}).filter(
+    ([k]) => k.toUpperCase() !== 'NOTE',
+  );
+  if (input.notes && input.notes.length > 0)
+    fileEntries.push([
+      'NOTE',
+      String.fromCharCode(LINE_TERMINATOR) + input.notes.join(String.fromCharCode(LINE_TERMINATOR)),
+    ]);
   const fileList = encodeStringList(fileEntries);
   fixStringLengths(fileList, little);
 
@@ -399,7 +503,13 @@ export function writeSeg2(input: Seg2WriteInput, opts: { byteOrder: ByteOrder; f
   const traceParts: { header: Uint8Array; data: Uint8Array }[] = [];
   for (const t of input.traces) {
     for (let i = 0; i < t.samples.length; i++) {
-      if (!Number.isFinite(t.samples[i])) throw new BorewaveError('SEG2_NONFINITE_SAMPLE', `channel ${t.channel}, sample ${i} is not finite`, undefined, `channel ${t.channel}`);
+      if (!Number.isFinite(t.samples[i]))
+        throw new BorewaveError(
+          'SEG2_NONFINITE_SAMPLE',
+          `channel ${t.channel}, sample ${i} is not finite`,
+          undefined,
+          `channel ${t.channel}`,
+        );
     }
     const descaling = code === 1 || code === 2 ? chooseDescalingFactor(t.samples, code) : 1;
     const own: Record<string, string> = {
@@ -435,7 +545,11 @@ export function writeSeg2(input: Seg2WriteInput, opts: { byteOrder: ByteOrder; f
     traceParts.push({ header, data });
   }
 
-  const total = FILE_HEADER_BYTES + pointerBlockBytes + fileList.length + traceParts.reduce((s, p) => s + p.header.length + p.data.length, 0);
+  const total =
+    FILE_HEADER_BYTES +
+    pointerBlockBytes +
+    fileList.length +
+    traceParts.reduce((s, p) => s + p.header.length + p.data.length, 0);
   const out = new Uint8Array(total);
   const v = new DataView(out.buffer);
   v.setUint16(0, SEG2_FILE_BLOCK_ID, little);

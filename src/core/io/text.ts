@@ -116,7 +116,12 @@ function checkRegularTime(time: Float64Array, decimals: number, data: TextRow[],
   for (let i = 1; i < time.length; i++) {
     const d = diffs[i - 1];
     if (!(median > 0) || !(d > 0) || Math.abs(d - median) > tol) {
-      fail('TEXT_IRREGULAR_TIME', `line ${data[i].line}, time ${time[i]} breaks the regular step of ${median} (previous time ${time[i - 1]})`, file, `line ${data[i].line}, column 1`);
+      fail(
+        'TEXT_IRREGULAR_TIME',
+        `line ${data[i].line}, time ${time[i]} breaks the regular step of ${median} (previous time ${time[i - 1]})`,
+        file,
+        `line ${data[i].line}, column 1`,
+      );
     }
   }
 }
@@ -137,7 +142,12 @@ export function readDelimitedText(text: string, fileName: string, opts?: { timeU
   if (data.length === 0) fail('TEXT_EMPTY', 'the file has a header row but no data rows', file);
   const nCols = header ? header.length : data[0].cells.length;
   if (nCols < 2) {
-    fail('TEXT_TOO_FEW_COLUMNS', `line ${rows[0].line} has ${nCols} column; a time column and at least one channel column are needed`, file, 'columns');
+    fail(
+      'TEXT_TOO_FEW_COLUMNS',
+      `line ${rows[0].line} has ${nCols} column; a time column and at least one channel column are needed`,
+      file,
+      'columns',
+    );
   }
   const colName = (c: number) => (header ? `column ${c + 1} ("${header[c]}")` : `column ${c + 1}`);
 
@@ -147,18 +157,29 @@ export function readDelimitedText(text: string, fileName: string, opts?: { timeU
     let cells = row.cells;
     if (cells.length === nCols + 1 && cells[nCols] === '') cells = cells.slice(0, nCols); // trailing separator
     if (cells.length !== nCols) {
-      fail('TEXT_RAGGED_ROW', `line ${row.line} has ${cells.length} columns, expected ${nCols}`, file, `line ${row.line}`);
+      fail(
+        'TEXT_RAGGED_ROW',
+        `line ${row.line} has ${cells.length} columns, expected ${nCols}`,
+        file,
+        `line ${row.line}`,
+      );
     }
     for (let c = 0; c < nCols; c++) {
       const x = parseCell(cells[c], decimalComma);
       if (Number.isNaN(x) || (c > 0 && !Number.isFinite(Math.fround(x)))) {
-        fail('TEXT_NOT_NUMERIC', `line ${row.line}, ${colName(c)}: "${cells[c]}" is not a finite number`, file, `line ${row.line}, column ${c + 1}`);
+        fail(
+          'TEXT_NOT_NUMERIC',
+          `line ${row.line}, ${colName(c)}: "${cells[c]}" is not a finite number`,
+          file,
+          `line ${row.line}, column ${c + 1}`,
+        );
       }
       columns[c][r] = x;
     }
     timeDecimals = Math.max(timeDecimals, decimalsOf(cells[0]));
   });
-  if (data.length < 2) fail('TEXT_TOO_FEW_ROWS', 'one data row cannot give a sample interval; at least two are needed', file, 'rows');
+  if (data.length < 2)
+    fail('TEXT_TOO_FEW_ROWS', 'one data row cannot give a sample interval; at least two are needed', file, 'rows');
 
   const time = columns[0];
   const n = time.length;
@@ -184,7 +205,13 @@ export function readDelimitedText(text: string, fileName: string, opts?: { timeU
   for (let c = 1; c < nCols; c++) {
     const strings: Record<string, string> = {};
     if (header) strings.COLUMN_NAME = header[c];
-    traces.push({ channel: c, samples: Float32Array.from(columns[c]), sampleIntervalS: step * toS, delayS: time[0] * toS, strings });
+    traces.push({
+      channel: c,
+      samples: Float32Array.from(columns[c]),
+      sampleIntervalS: step * toS,
+      delayS: time[0] * toS,
+      strings,
+    });
   }
   return {
     id: fileName,

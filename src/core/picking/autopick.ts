@@ -91,10 +91,12 @@ function checkTrace(t: WorkingTrace): void {
   const fail = (field: string, problem: string): never => {
     throw new BorewaveError('PICK_TRACE', `Station ${t.stationKey} (${t.wave}): ${problem}.`, t.stationKey, field);
   };
-  if (!(t.sampleIntervalS > 0) || !Number.isFinite(t.sampleIntervalS)) fail('sampleIntervalS', `sample interval ${t.sampleIntervalS} s is not positive`);
+  if (!(t.sampleIntervalS > 0) || !Number.isFinite(t.sampleIntervalS))
+    fail('sampleIntervalS', `sample interval ${t.sampleIntervalS} s is not positive`);
   if (!Number.isFinite(t.delayS)) fail('delayS', 'delay of the first sample is not a number');
   if (t.samples.length < 16) fail('samples', `only ${t.samples.length} samples`);
-  if (!(t.searchEndS > t.searchStartS)) fail('searchWindow', `search window ${t.searchStartS}..${t.searchEndS} s is empty`);
+  if (!(t.searchEndS > t.searchStartS))
+    fail('searchWindow', `search window ${t.searchStartS}..${t.searchEndS} s is empty`);
 }
 
 /** Search window in samples [i0, i1), clipped to the trace. */
@@ -172,7 +174,10 @@ export function analyseStation(t: WorkingTrace, s: PickingSettings): StationAnal
     periodS = sum && sum.peakHz > 0 ? 1 / sum.peakHz : (windowEnd - anchor) * dt;
   }
   // Features are searched over 1.5 periods after the anchor, at least 32 samples (or pulseSpanS if set).
-  const span = Math.max(32, s.pulseSpanS && s.pulseSpanS > 0 ? Math.round(s.pulseSpanS / dt) : Math.ceil((1.5 * periodS) / dt));
+  const span = Math.max(
+    32,
+    s.pulseSpanS && s.pulseSpanS > 0 ? Math.round(s.pulseSpanS / dt) : Math.ceil((1.5 * periodS) / dt),
+  );
   const periodSamples = Math.max(4, Math.round(periodS / dt));
   const snr = signalToNoise(x, anchor, periodSamples);
   const uncertaintyS = pickUncertaintyS(snr, dt, periodS);
@@ -194,7 +199,9 @@ export function analyseStation(t: WorkingTrace, s: PickingSettings): StationAnal
   });
   const picks: Pick[] = [];
   if (onset.index !== null) {
-    picks.push(make(s.onsetMethod, t.delayS + onset.index * dt, cp.firstPolarity, onset.atEdge ? ['onset at window edge'] : []));
+    picks.push(
+      make(s.onsetMethod, t.delayS + onset.index * dt, cp.firstPolarity, onset.atEdge ? ['onset at window edge'] : []),
+    );
   }
   if (cp.peakS !== null) picks.push(make('peak', cp.peakS, 1));
   if (cp.troughS !== null) picks.push(make('trough', cp.troughS, -1));
@@ -280,7 +287,12 @@ export function pairWindows(a: StationAnalysis, b: StationAnalysis, req: DelayRe
 }
 
 /** Delays of one pair from analysed stations: 'xcorr', plus 'phase' when a phase band is set. */
-export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, req: DelayRequest, s: PickingSettings): PairDelay[] {
+export function pairDelaysFromAnalysis(
+  a: StationAnalysis,
+  b: StationAnalysis,
+  req: DelayRequest,
+  s: PickingSettings,
+): PairDelay[] {
   const dt = a.trace.sampleIntervalS;
   if (Math.abs(b.trace.sampleIntervalS - dt) > 1e-9 * dt) {
     throw new BorewaveError(
@@ -291,7 +303,12 @@ export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, r
     );
   }
   if (!(req.maxDelayS >= req.minDelayS)) {
-    throw new BorewaveError('PAIR_BOUNDS', `Pair ${req.pairKey}: delay bounds ${req.minDelayS}..${req.maxDelayS} s are reversed.`, req.pairKey, 'delayBounds');
+    throw new BorewaveError(
+      'PAIR_BOUNDS',
+      `Pair ${req.pairKey}: delay bounds ${req.minDelayS}..${req.maxDelayS} s are reversed.`,
+      req.pairKey,
+      'delayBounds',
+    );
   }
   const w = pairWindows(a, b, req);
   const common: string[] = [];
@@ -338,7 +355,10 @@ export function pairDelaysFromAnalysis(a: StationAnalysis, b: StationAnalysis, r
         delayS,
         coefficient: ph.coherence,
         // The larger of the coherence-based bound and the scatter of the phases about the fitted line.
-        uncertaintyS: Math.max(delayUncertaintyS(Math.sqrt(ph.coherence), dt, w.periodS, ph.usedHz[1] - ph.usedHz[0], w.windowS), ph.slopeErrorS),
+        uncertaintyS: Math.max(
+          delayUncertaintyS(Math.sqrt(ph.coherence), dt, w.periodS, ph.usedHz[1] - ph.usedHz[0], w.windowS),
+          ph.slopeErrorS,
+        ),
         flags,
       });
     }
@@ -379,7 +399,12 @@ export function autoPickSurvey(
     try {
       const id = stationId(t.wave, t.stationKey);
       if (analysed.has(id)) {
-        throw new BorewaveError('PICK_DUPLICATE_STATION', `Station ${t.stationKey} (${t.wave}) appears twice; the first trace is used.`, t.stationKey, 'stationKey');
+        throw new BorewaveError(
+          'PICK_DUPLICATE_STATION',
+          `Station ${t.stationKey} (${t.wave}) appears twice; the first trace is used.`,
+          t.stationKey,
+          'stationKey',
+        );
       }
       const r = analyseStation(t, s);
       analysed.set(id, r);
@@ -395,7 +420,12 @@ export function autoPickSurvey(
       const b = analysed.get(stationId(req.wave, req.b));
       if (!a || !b) {
         const missing = !a ? req.a : req.b;
-        throw new BorewaveError('PAIR_MISSING_STATION', `Pair ${req.pairKey}: station ${missing} (${req.wave}) has no analysed trace.`, req.pairKey, 'station');
+        throw new BorewaveError(
+          'PAIR_MISSING_STATION',
+          `Pair ${req.pairKey}: station ${missing} (${req.wave}) has no analysed trace.`,
+          req.pairKey,
+          'station',
+        );
       }
       for (const d of pairDelaysFromAnalysis(a, b, req, s)) delays.push(d);
     } catch (e) {

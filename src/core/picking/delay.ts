@@ -103,12 +103,22 @@ export function correlationDelay(
   o: { minDelayS: number; maxDelayS: number },
 ): { delayS: number; coefficient: number; atBound: boolean } {
   if (!(sampleIntervalS > 0)) {
-    throw new BorewaveError('SIGNAL_SAMPLE_INTERVAL', `Sample interval ${sampleIntervalS} s is not a positive number.`, undefined, 'sampleIntervalS');
+    throw new BorewaveError(
+      'SIGNAL_SAMPLE_INTERVAL',
+      `Sample interval ${sampleIntervalS} s is not a positive number.`,
+      undefined,
+      'sampleIntervalS',
+    );
   }
   const ea = energy(a);
   const eb = energy(b);
   if (!(ea > 0) || !(eb > 0)) {
-    throw new BorewaveError('DELAY_NO_SIGNAL', 'Cross-correlation: one of the two windows is all zeros.', undefined, 'samples');
+    throw new BorewaveError(
+      'DELAY_NO_SIGNAL',
+      'Cross-correlation: one of the two windows is all zeros.',
+      undefined,
+      'samples',
+    );
   }
   const kLo = Math.max(-(a.length - 1), Math.ceil(o.minDelayS / sampleIntervalS - 1e-9));
   const kHi = Math.min(b.length - 1, Math.floor(o.maxDelayS / sampleIntervalS + 1e-9));
@@ -168,10 +178,20 @@ export function phaseSlopeDelay(
   o: { minHz: number; maxHz: number; nearDelayS?: number },
 ): { delayS: number; coherence: number; usedHz: [number, number]; slopeErrorS: number } | null {
   if (!(sampleIntervalS > 0)) {
-    throw new BorewaveError('SIGNAL_SAMPLE_INTERVAL', `Sample interval ${sampleIntervalS} s is not a positive number.`, undefined, 'sampleIntervalS');
+    throw new BorewaveError(
+      'SIGNAL_SAMPLE_INTERVAL',
+      `Sample interval ${sampleIntervalS} s is not a positive number.`,
+      undefined,
+      'sampleIntervalS',
+    );
   }
   if (!(o.minHz >= 0) || !(o.maxHz > o.minHz)) {
-    throw new BorewaveError('DELAY_BAND', `Phase band ${o.minHz}-${o.maxHz} Hz is not an increasing pair of frequencies.`, undefined, 'phaseBandHz');
+    throw new BorewaveError(
+      'DELAY_BAND',
+      `Phase band ${o.minHz}-${o.maxHz} Hz is not an increasing pair of frequencies.`,
+      undefined,
+      'phaseBandHz',
+    );
   }
   const nMax = Math.max(a.length, b.length);
   if (nMax < 2) return null;

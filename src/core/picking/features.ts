@@ -32,7 +32,12 @@ export interface SpectrumSummary {
  * to a power of two (at least 256 points: finer bins for short segments), power spectrum up to Nyquist (DC excluded).
  * Returns null when the segment is shorter than 4 samples or carries no energy.
  */
-export function spectrumSummary(x: ArrayLike<number>, startIdx: number, endIdx: number, sampleIntervalS: number): SpectrumSummary | null {
+export function spectrumSummary(
+  x: ArrayLike<number>,
+  startIdx: number,
+  endIdx: number,
+  sampleIntervalS: number,
+): SpectrumSummary | null {
   const s = Math.max(0, Math.floor(startIdx));
   const e = Math.min(x.length, Math.floor(endIdx));
   const n = e - s;
@@ -77,7 +82,12 @@ export function spectrumSummary(x: ArrayLike<number>, startIdx: number, endIdx: 
 }
 
 /** Dominant period of x[startIdx..endIdx): 1 / spectral peak frequency (see spectrumSummary), s; null if undefined. */
-export function dominantPeriodS(x: ArrayLike<number>, startIdx: number, endIdx: number, sampleIntervalS: number): number | null {
+export function dominantPeriodS(
+  x: ArrayLike<number>,
+  startIdx: number,
+  endIdx: number,
+  sampleIntervalS: number,
+): number | null {
   const sum = spectrumSummary(x, startIdx, endIdx, sampleIntervalS);
   return sum && sum.peakHz > 0 ? 1 / sum.peakHz : null;
 }
@@ -145,11 +155,21 @@ export function characteristicPoints(
 ): CharacteristicPoints {
   const n = x.length;
   if (!Number.isInteger(onsetIdx) || onsetIdx < 0 || onsetIdx >= n) {
-    throw new BorewaveError('PICK_ONSET_INDEX', `Onset index ${onsetIdx} is outside the trace of ${n} samples.`, undefined, 'onsetIdx');
+    throw new BorewaveError(
+      'PICK_ONSET_INDEX',
+      `Onset index ${onsetIdx} is outside the trace of ${n} samples.`,
+      undefined,
+      'onsetIdx',
+    );
   }
   const minFraction = o?.minFraction ?? 0.5;
   if (!(minFraction > 0 && minFraction <= 1)) {
-    throw new BorewaveError('PICK_MIN_FRACTION', `Feature threshold ${minFraction} must be in (0, 1].`, undefined, 'minFraction');
+    throw new BorewaveError(
+      'PICK_MIN_FRACTION',
+      `Feature threshold ${minFraction} must be in (0, 1].`,
+      undefined,
+      'minFraction',
+    );
   }
   let searchS = o?.searchS;
   if (searchS === undefined) {

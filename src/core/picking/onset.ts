@@ -5,7 +5,13 @@
 import { BorewaveError } from '../errors';
 
 function checkWindow(n: number, startIdx: number, endIdx: number, minLength: number, what: string): void {
-  if (!Number.isInteger(startIdx) || !Number.isInteger(endIdx) || startIdx < 0 || endIdx > n || endIdx - startIdx < minLength) {
+  if (
+    !Number.isInteger(startIdx) ||
+    !Number.isInteger(endIdx) ||
+    startIdx < 0 ||
+    endIdx > n ||
+    endIdx - startIdx < minLength
+  ) {
     throw new BorewaveError(
       'PICK_WINDOW',
       `${what}: window [${startIdx}, ${endIdx}) is not a range of at least ${minLength} samples inside a trace of ${n}.`,
@@ -26,7 +32,11 @@ function checkWindow(n: number, startIdx: number, endIdx: number, minLength: num
  * nearest defined value). Variances are floored at 1e-12 of the window variance so that an exactly
  * quiet stretch (synthetic data) gives a finite AIC.
  */
-export function aicOnsetIndex(x: ArrayLike<number>, startIdx: number, endIdx: number): { index: number; aic: Float64Array } {
+export function aicOnsetIndex(
+  x: ArrayLike<number>,
+  startIdx: number,
+  endIdx: number,
+): { index: number; aic: Float64Array } {
   checkWindow(x.length, startIdx, endIdx, 5, 'AIC onset');
   const n = endIdx - startIdx;
   let mean = 0;

@@ -15,7 +15,8 @@ export function snapTimeS(w: WorkingTrace, method: EditablePickMethod, timeS: nu
   const idx = Math.round((timeS - w.delayS) / dt);
   if (idx < 2 || idx > n - 3) return timeS;
   try {
-    const periodS = lobePeriodS(x, Math.max(0, idx - Math.round(0.05 / dt)), Math.min(n, idx + Math.round(0.05 / dt)), dt) ?? 40 * dt;
+    const periodS =
+      lobePeriodS(x, Math.max(0, idx - Math.round(0.05 / dt)), Math.min(n, idx + Math.round(0.05 / dt)), dt) ?? 40 * dt;
     const half = Math.max(3, Math.round(periodS / 4 / dt));
     const start = Math.max(1, idx - half);
     if (method === 'onset') {

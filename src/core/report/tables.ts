@@ -54,66 +54,196 @@ const SI_SUFFIX: Partial<Record<QuantityKind, string>> = { density: 'mg_m3', uni
 /** Column name with its unit, and the value converted from SI for the chosen system. */
 function unitColumn(system: UnitSystem) {
   return {
-    name: (base: string, kind: QuantityKind) => (system === 'SI' ? `${base}_${SI_SUFFIX[kind] ?? csvColumn('', kind, 'SI').slice(1)}` : csvColumn(base, kind, 'US')),
-    value: (kind: QuantityKind, si: number | null | undefined, digits: number) => (si === null || si === undefined ? null : num(toDisplay(kind, system, si), digits)),
+    name: (base: string, kind: QuantityKind) =>
+      system === 'SI'
+        ? `${base}_${SI_SUFFIX[kind] ?? csvColumn('', kind, 'SI').slice(1)}`
+        : csvColumn(base, kind, 'US'),
+    value: (kind: QuantityKind, si: number | null | undefined, digits: number) =>
+      si === null || si === undefined ? null : num(toDisplay(kind, system, si), digits),
   };
 }
 
 export function picksTable(stations: readonly Station[], d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
   const byKey = new Map(stations.map((s) => [s.key, s]));
-  const columns = ['station', 'receiver', u.name('depth', 'depth'), 'component', 'wave', 'method', 'origin', 'time_ms', 'uncertainty_ms', 'snr', 'polarity', 'flags'];
+  const columns = [
+    'station',
+    'receiver',
+    u.name('depth', 'depth'),
+    'component',
+    'wave',
+    'method',
+    'origin',
+    'time_ms',
+    'uncertainty_ms',
+    'snr',
+    'polarity',
+    'flags',
+  ];
   const rows: Cell[][] = d.picks.map((p) => {
     const s = byKey.get(p.stationKey);
     const flags = [...p.flags];
     if (!Number.isFinite(p.timeS)) flags.push('no value');
-    return [p.stationKey, s?.receiver ?? '', u.value('depth', s?.depthM, 3), s?.component ?? '', p.wave, p.method, p.origin, ms(p.timeS), ms(p.uncertaintyS), num(p.snr, 2), p.polarity ?? null, flags.join('; ')];
+    return [
+      p.stationKey,
+      s?.receiver ?? '',
+      u.value('depth', s?.depthM, 3),
+      s?.component ?? '',
+      p.wave,
+      p.method,
+      p.origin,
+      ms(p.timeS),
+      ms(p.uncertaintyS),
+      num(p.snr, 2),
+      p.polarity ?? null,
+      flags.join('; '),
+    ];
   });
   return { columns, rows };
 }
 
 export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [u.name('depth_top', 'depth'), u.name('depth_bottom', 'depth'), 'wave', 'kind', 'method', 'chosen', 'station_a', 'station_b', u.name('path_a', 'depth'),
-    u.name('path_b', 'depth'), 'dt_ms', u.name('vs', 'velocity'), u.name('vs_sd', 'velocity'), u.name('vp', 'velocity'), u.name('vp_sd', 'velocity'), 'flags'];
+  const columns = [
+    u.name('depth_top', 'depth'),
+    u.name('depth_bottom', 'depth'),
+    'wave',
+    'kind',
+    'method',
+    'chosen',
+    'station_a',
+    'station_b',
+    u.name('path_a', 'depth'),
+    u.name('path_b', 'depth'),
+    'dt_ms',
+    u.name('vs', 'velocity'),
+    u.name('vs_sd', 'velocity'),
+    u.name('vp', 'velocity'),
+    u.name('vp_sd', 'velocity'),
+    'flags',
+  ];
   const rows: Cell[][] = d.intervals.map((r) => {
     const v = u.value('velocity', r.velocityMps, 2);
     const sd = u.value('velocity', r.velocitySdMps, 2);
     const flags = [...r.flags];
     if (v === null && !flags.length) flags.push('no value');
-    return [u.value('depth', r.topM, 3), u.value('depth', r.bottomM, 3), r.wave, r.kind, r.method, r.chosen ? 1 : 0, r.stationA, r.stationB, u.value('depth', r.pathAM, 4),
-      u.value('depth', r.pathBM, 4), ms(r.dtS), r.wave === 'S' ? v : null, r.wave === 'S' ? sd : null, r.wave === 'P' ? v : null, r.wave === 'P' ? sd : null, flags.join('; ')];
+    return [
+      u.value('depth', r.topM, 3),
+      u.value('depth', r.bottomM, 3),
+      r.wave,
+      r.kind,
+      r.method,
+      r.chosen ? 1 : 0,
+      r.stationA,
+      r.stationB,
+      u.value('depth', r.pathAM, 4),
+      u.value('depth', r.pathBM, 4),
+      ms(r.dtS),
+      r.wave === 'S' ? v : null,
+      r.wave === 'S' ? sd : null,
+      r.wave === 'P' ? v : null,
+      r.wave === 'P' ? sd : null,
+      flags.join('; '),
+    ];
   });
   return { columns, rows };
 }
 
 export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [u.name('depth_top', 'depth'), u.name('depth_bottom', 'depth'), u.name('depth_mid', 'depth'), 'method', u.name('vs', 'velocity'), u.name('vs_sd', 'velocity'),
-    u.name('vp', 'velocity'), u.name('vp_sd', 'velocity'), 'vp_method', u.name('density', 'density'), u.name('sigma_v', 'stress'), u.name('pore_pressure', 'stress'),
-    u.name('sigma_v_eff', 'stress'), u.name('gmax', 'modulus'), u.name('gmax_sd', 'modulus'), 'poisson_ratio', 'poisson_source', u.name('young', 'modulus'),
-    u.name('constrained', 'modulus'), u.name('bulk', 'modulus'), u.name('vs1', 'velocity'), 'stress_exponent', 'flags'];
+  const columns = [
+    u.name('depth_top', 'depth'),
+    u.name('depth_bottom', 'depth'),
+    u.name('depth_mid', 'depth'),
+    'method',
+    u.name('vs', 'velocity'),
+    u.name('vs_sd', 'velocity'),
+    u.name('vp', 'velocity'),
+    u.name('vp_sd', 'velocity'),
+    'vp_method',
+    u.name('density', 'density'),
+    u.name('sigma_v', 'stress'),
+    u.name('pore_pressure', 'stress'),
+    u.name('sigma_v_eff', 'stress'),
+    u.name('gmax', 'modulus'),
+    u.name('gmax_sd', 'modulus'),
+    'poisson_ratio',
+    'poisson_source',
+    u.name('young', 'modulus'),
+    u.name('constrained', 'modulus'),
+    u.name('bulk', 'modulus'),
+    u.name('vs1', 'velocity'),
+    'stress_exponent',
+    'flags',
+  ];
   // Moduli are kPa inside; the 'modulus' unit shows MPa (SI) or ksi (US).
-  const rows: Cell[][] = d.profile.map((r: ProfileRow) => [u.value('depth', r.topM, 3), u.value('depth', r.bottomM, 3), u.value('depth', r.midM, 3), r.method,
-    u.value('velocity', r.vsMps, 2), u.value('velocity', r.vsSdMps, 2), u.value('velocity', r.vpMps, 2), u.value('velocity', r.vpSdMps, 2), r.vpMethod ?? '',
-    u.value('density', r.densityMgM3, 4), u.value('stress', r.sigmaVKpa, 2), u.value('stress', r.porePressureKpa, 2), u.value('stress', r.sigmaVEffKpa, 2),
-    u.value('modulus', r.gmaxKpa, 3), u.value('modulus', r.gmaxSdKpa, 3), num(r.poissonRatio, 4), r.poissonSource, u.value('modulus', r.youngKpa, 3),
-    u.value('modulus', r.constrainedKpa, 3), u.value('modulus', r.bulkKpa, 3), u.value('velocity', r.vs1Mps, 2), num(r.stressExponent, 3), r.flags.join('; ')]);
+  const rows: Cell[][] = d.profile.map((r: ProfileRow) => [
+    u.value('depth', r.topM, 3),
+    u.value('depth', r.bottomM, 3),
+    u.value('depth', r.midM, 3),
+    r.method,
+    u.value('velocity', r.vsMps, 2),
+    u.value('velocity', r.vsSdMps, 2),
+    u.value('velocity', r.vpMps, 2),
+    u.value('velocity', r.vpSdMps, 2),
+    r.vpMethod ?? '',
+    u.value('density', r.densityMgM3, 4),
+    u.value('stress', r.sigmaVKpa, 2),
+    u.value('stress', r.porePressureKpa, 2),
+    u.value('stress', r.sigmaVEffKpa, 2),
+    u.value('modulus', r.gmaxKpa, 3),
+    u.value('modulus', r.gmaxSdKpa, 3),
+    num(r.poissonRatio, 4),
+    r.poissonSource,
+    u.value('modulus', r.youngKpa, 3),
+    u.value('modulus', r.constrainedKpa, 3),
+    u.value('modulus', r.bulkKpa, 3),
+    u.value('velocity', r.vs1Mps, 2),
+    num(r.stressExponent, 3),
+    r.flags.join('; '),
+  ]);
   return { columns, rows };
 }
 
 /** Layer velocities: straight-line fits of time against slant distance, and the refracted-ray model. */
 export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = ['wave', u.name('depth_top', 'depth'), u.name('depth_bottom', 'depth'), 'method', u.name('velocity', 'velocity'), u.name('velocity_sd', 'velocity'),
-    'stations', 'rms_misfit_ms', 'flags'];
-  const rows: Cell[][] = d.layerFits.map((f) => [f.wave, u.value('depth', f.topM, 3), u.value('depth', f.bottomM, 3), `straight-line fit (${f.method})`,
-    u.value('velocity', f.velocityMps, 2), u.value('velocity', f.velocitySdMps, 2), f.stations, ms(f.rmsResidualS), f.velocitySdMps === null ? 'two stations: no sd' : '']);
+  const columns = [
+    'wave',
+    u.name('depth_top', 'depth'),
+    u.name('depth_bottom', 'depth'),
+    'method',
+    u.name('velocity', 'velocity'),
+    u.name('velocity_sd', 'velocity'),
+    'stations',
+    'rms_misfit_ms',
+    'flags',
+  ];
+  const rows: Cell[][] = d.layerFits.map((f) => [
+    f.wave,
+    u.value('depth', f.topM, 3),
+    u.value('depth', f.bottomM, 3),
+    `straight-line fit (${f.method})`,
+    u.value('velocity', f.velocityMps, 2),
+    u.value('velocity', f.velocitySdMps, 2),
+    f.stations,
+    ms(f.rmsResidualS),
+    f.velocitySdMps === null ? 'two stations: no sd' : '',
+  ]);
   const m = d.layerModel;
   if (m) {
     for (const l of m.layers) {
-      rows.push(['S', u.value('depth', l.topM, 3), u.value('depth', l.bottomM, 3), 'refracted-ray fit (onset)', u.value('velocity', l.velocityMps, 2),
-        u.value('velocity', l.velocitySdMps, 2), l.receivers, ms(m.rmsMisfitS), m.converged ? '' : 'not converged']);
+      rows.push([
+        'S',
+        u.value('depth', l.topM, 3),
+        u.value('depth', l.bottomM, 3),
+        'refracted-ray fit (onset)',
+        u.value('velocity', l.velocityMps, 2),
+        u.value('velocity', l.velocitySdMps, 2),
+        l.receivers,
+        ms(m.rmsMisfitS),
+        m.converged ? '' : 'not converged',
+      ]);
     }
   }
   return { columns, rows };
@@ -122,9 +252,28 @@ export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
 /** Crosshole direct velocities (source to each receiver), one row per station. */
 export function directTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = ['station', 'receiver', 'wave', u.name('depth', 'depth'), u.name('path', 'depth'), 'time_ms', u.name('velocity', 'velocity'), u.name('velocity_sd', 'velocity'), 'flags'];
-  const rows: Cell[][] = d.direct.map((r) => [r.stationKey, r.receiver, r.wave, u.value('depth', r.depthM, 3), u.value('depth', r.pathM, 4), ms(r.timeS),
-    u.value('velocity', r.velocityMps, 2), u.value('velocity', r.velocitySdMps, 2), r.flags.join('; ')]);
+  const columns = [
+    'station',
+    'receiver',
+    'wave',
+    u.name('depth', 'depth'),
+    u.name('path', 'depth'),
+    'time_ms',
+    u.name('velocity', 'velocity'),
+    u.name('velocity_sd', 'velocity'),
+    'flags',
+  ];
+  const rows: Cell[][] = d.direct.map((r) => [
+    r.stationKey,
+    r.receiver,
+    r.wave,
+    u.value('depth', r.depthM, 3),
+    u.value('depth', r.pathM, 4),
+    ms(r.timeS),
+    u.value('velocity', r.velocityMps, 2),
+    u.value('velocity', r.velocitySdMps, 2),
+    r.flags.join('; '),
+  ]);
   return { columns, rows };
 }
 
@@ -154,7 +303,12 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
           name: d.comparison.name,
           source: d.comparison.source,
           vs30Mps: num(d.comparison.vs30?.vsMps, 2),
-          differences: d.comparison.differences.map((x) => ({ depthM: num(x.depthM, 3), vsMps: num(x.vsMps, 2), comparisonVsMps: num(x.comparisonVsMps, 2), differencePct: num(x.differencePct, 2) })),
+          differences: d.comparison.differences.map((x) => ({
+            depthM: num(x.depthM, 3),
+            vsMps: num(x.vsMps, 2),
+            comparisonVsMps: num(x.comparisonVsMps, 2),
+            differencePct: num(x.differencePct, 2),
+          })),
         }
       : null,
     cautions: EXPORT_CAUTIONS,

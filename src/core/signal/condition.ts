@@ -33,7 +33,12 @@ function cachedBandpass(order: number, lowHz: number, highHz: number, sampleRate
 /** Conditioned copy of x (never modifies x). Throws BorewaveError for bad settings or a too-short trace. */
 export function conditionTrace(x: ArrayLike<number>, sampleIntervalS: number, s: ConditionSettings): Float64Array {
   if (!(sampleIntervalS > 0) || !Number.isFinite(sampleIntervalS)) {
-    throw new BorewaveError('SIGNAL_SAMPLE_INTERVAL', `Sample interval ${sampleIntervalS} s is not a positive number.`, undefined, 'sampleIntervalS');
+    throw new BorewaveError(
+      'SIGNAL_SAMPLE_INTERVAL',
+      `Sample interval ${sampleIntervalS} s is not a positive number.`,
+      undefined,
+      'sampleIntervalS',
+    );
   }
   let y: Float64Array = s.detrend ? removeTrend(x) : Float64Array.from(x);
   if (s.taperFraction !== 0) y = cosineTaper(y, s.taperFraction);

@@ -49,10 +49,20 @@ export function fftPlan(nfft: number): Plan {
 export function realSpectrumInto(x: ArrayLike<number>, nfft: number, out: Float64Array): Float64Array {
   const plan = fftPlan(nfft);
   if (x.length > nfft) {
-    throw new BorewaveError('FFT_SIZE', `Sequence of ${x.length} samples does not fit an FFT of ${nfft}.`, undefined, 'nfft');
+    throw new BorewaveError(
+      'FFT_SIZE',
+      `Sequence of ${x.length} samples does not fit an FFT of ${nfft}.`,
+      undefined,
+      'nfft',
+    );
   }
   if (out.length !== 2 * nfft) {
-    throw new BorewaveError('FFT_SIZE', `Spectrum buffer holds ${out.length} values, expected ${2 * nfft}.`, undefined, 'spectrum');
+    throw new BorewaveError(
+      'FFT_SIZE',
+      `Spectrum buffer holds ${out.length} values, expected ${2 * nfft}.`,
+      undefined,
+      'spectrum',
+    );
   }
   const input = plan.realIn;
   const n = x.length;
@@ -75,7 +85,12 @@ export function realSpectrum(x: ArrayLike<number>, nfft: number): Float64Array {
 export function inverseToRealInto(spectrum: Float64Array, nfft: number, out: Float64Array): Float64Array {
   const plan = fftPlan(nfft);
   if (spectrum.length !== 2 * nfft) {
-    throw new BorewaveError('FFT_SIZE', `Spectrum holds ${spectrum.length} values, expected ${2 * nfft}.`, undefined, 'spectrum');
+    throw new BorewaveError(
+      'FFT_SIZE',
+      `Spectrum holds ${spectrum.length} values, expected ${2 * nfft}.`,
+      undefined,
+      'spectrum',
+    );
   }
   if (spectrum === plan.complexOut) {
     throw new BorewaveError('FFT_SIZE', 'Spectrum buffer is the plan scratch buffer.', undefined, 'spectrum');

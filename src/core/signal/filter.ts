@@ -53,10 +53,20 @@ interface Root {
 
 function checkDesign(order: number, lowHz: number, highHz: number, sampleRateHz: number): void {
   if (!Number.isInteger(order) || order < 1 || order > 24) {
-    throw new BorewaveError('FILTER_ORDER', `Band-pass order ${order} is not a whole number from 1 to 24.`, undefined, 'order');
+    throw new BorewaveError(
+      'FILTER_ORDER',
+      `Band-pass order ${order} is not a whole number from 1 to 24.`,
+      undefined,
+      'order',
+    );
   }
   if (!(sampleRateHz > 0) || !Number.isFinite(sampleRateHz)) {
-    throw new BorewaveError('FILTER_RATE', `Sample rate ${sampleRateHz} Hz is not a positive number.`, undefined, 'sampleRateHz');
+    throw new BorewaveError(
+      'FILTER_RATE',
+      `Sample rate ${sampleRateHz} Hz is not a positive number.`,
+      undefined,
+      'sampleRateHz',
+    );
   }
   const nyquistHz = sampleRateHz / 2;
   if (!(lowHz > 0) || !(highHz > lowHz) || !(highHz < nyquistHz)) {
@@ -74,7 +84,12 @@ function checkDesign(order: number, lowHz: number, highHz: number, sampleRateHz:
  * corners at lowHz and highHz (-3.01 dB, |H| = 1/sqrt 2), as SOS rows [b0,b1,b2,a0,a1,a2].
  * Matches scipy.signal.butter(order, [lowHz, highHz], 'bandpass', fs=sampleRateHz, output='sos').
  */
-export function butterworthBandpassSos(order: number, lowHz: number, highHz: number, sampleRateHz: number): Float64Array {
+export function butterworthBandpassSos(
+  order: number,
+  lowHz: number,
+  highHz: number,
+  sampleRateHz: number,
+): Float64Array {
   checkDesign(order, lowHz, highHz, sampleRateHz);
   const n = order;
   // Pre-warp the corners for the bilinear transform with its constant 2*fs' = 4 (fs' = 2, corners normalised to Nyquist).
@@ -210,11 +225,21 @@ export function sosGain(sos: Float64Array, fHz: number, sampleRateHz: number): n
 
 function sectionCount(sos: Float64Array): number {
   if (sos.length === 0 || sos.length % 6 !== 0) {
-    throw new BorewaveError('FILTER_SOS', `SOS array holds ${sos.length} values, not a positive multiple of 6.`, undefined, 'sos');
+    throw new BorewaveError(
+      'FILTER_SOS',
+      `SOS array holds ${sos.length} values, not a positive multiple of 6.`,
+      undefined,
+      'sos',
+    );
   }
   for (let r = 0; r < sos.length; r += 6) {
     if (sos[r + 3] !== 1) {
-      throw new BorewaveError('FILTER_SOS', `SOS section ${r / 6} has a0 = ${sos[r + 3]}; sections must be normalised to a0 = 1.`, undefined, 'sos');
+      throw new BorewaveError(
+        'FILTER_SOS',
+        `SOS section ${r / 6} has a0 = ${sos[r + 3]}; sections must be normalised to a0 = 1.`,
+        undefined,
+        'sos',
+      );
     }
   }
   return sos.length / 6;
@@ -224,7 +249,13 @@ function sectionCount(sos: Float64Array): number {
  * Run the cascade in place over buf[from..to) (forward) or buf[to-1..from] (backward), direct form II
  * transposed, with initial state zi * scale (zi: 2 values a section; null = zero state).
  */
-function cascadeInPlace(sos: Float64Array, buf: Float64Array, zi: Float64Array | null, scale: number, backward: boolean): void {
+function cascadeInPlace(
+  sos: Float64Array,
+  buf: Float64Array,
+  zi: Float64Array | null,
+  scale: number,
+  backward: boolean,
+): void {
   const nSec = sos.length / 6;
   const state = new Float64Array(2 * nSec);
   if (zi) for (let i = 0; i < state.length; i++) state[i] = zi[i] * scale;
@@ -346,7 +377,12 @@ export function removeTrend(x: ArrayLike<number>): Float64Array {
  */
 export function cosineTaper(x: Float64Array, fraction: number): Float64Array {
   if (!(fraction >= 0 && fraction <= 0.5)) {
-    throw new BorewaveError('TAPER_FRACTION', `Taper fraction ${fraction} must be between 0 and 0.5 (share of each end).`, undefined, 'taperFraction');
+    throw new BorewaveError(
+      'TAPER_FRACTION',
+      `Taper fraction ${fraction} must be between 0 and 0.5 (share of each end).`,
+      undefined,
+      'taperFraction',
+    );
   }
   const out = Float64Array.from(x);
   const n = out.length;

@@ -9,7 +9,12 @@ import { BorewaveError } from '../errors';
 
 function requireSameLength(a: ArrayLike<number>, b: ArrayLike<number>, what: string): void {
   if (a.length !== b.length) {
-    throw new BorewaveError('SIGNAL_LENGTH_MISMATCH', `${what}: traces hold ${a.length} and ${b.length} samples; they must be equal.`, undefined, 'samples');
+    throw new BorewaveError(
+      'SIGNAL_LENGTH_MISMATCH',
+      `${what}: traces hold ${a.length} and ${b.length} samples; they must be equal.`,
+      undefined,
+      'samples',
+    );
   }
 }
 
@@ -23,7 +28,12 @@ export function stackTraces(traces: ArrayLike<number>[]): Float64Array {
   for (let k = 0; k < traces.length; k++) {
     const t = traces[k];
     if (t.length !== n) {
-      throw new BorewaveError('SIGNAL_LENGTH_MISMATCH', `Stack: trace ${k + 1} holds ${t.length} samples, trace 1 holds ${n}; they must be equal.`, undefined, 'samples');
+      throw new BorewaveError(
+        'SIGNAL_LENGTH_MISMATCH',
+        `Stack: trace ${k + 1} holds ${t.length} samples, trace 1 holds ${n}; they must be equal.`,
+        undefined,
+        'samples',
+      );
     }
     for (let i = 0; i < n; i++) out[i] += t[i];
   }

@@ -33,7 +33,12 @@ export function viktorovRatio(poissonRatio: number): number {
 
 export function rayleighToShear(vrMps: number, poissonRatio: number): number {
   if (!Number.isFinite(poissonRatio) || poissonRatio < 0 || poissonRatio >= 0.5) {
-    throw new BorewaveError('RAYLEIGH_POISSON', `Poisson's ratio ${poissonRatio} must be at least 0 and below 0.5.`, 'comparison', 'poissonRatio');
+    throw new BorewaveError(
+      'RAYLEIGH_POISSON',
+      `Poisson's ratio ${poissonRatio} must be at least 0 and below 0.5.`,
+      'comparison',
+      'poissonRatio',
+    );
   }
   return vrMps / viktorovRatio(poissonRatio);
 }
@@ -42,7 +47,10 @@ type DepthUnit = 'm' | 'ft';
 type VelocityUnit = 'm/s' | 'ft/s';
 
 function tokens(cell: string): string[] {
-  return cell.toLowerCase().split(/[^a-z0-9/]+/).filter((t) => t.length > 0);
+  return cell
+    .toLowerCase()
+    .split(/[^a-z0-9/]+/)
+    .filter((t) => t.length > 0);
 }
 
 function depthUnit(cell: string): DepthUnit | null {
@@ -84,7 +92,11 @@ function parseNumber(cell: string | undefined): number {
  * as depth in m and Vs in m/s (noted). A column named VR / Rayleigh / phase velocity makes it a Rayleigh
  * profile, converted with rayleighToShear (nu from the options, else 0.3, noted).
  */
-export function parseComparisonCsv(text: string, fileName: string, o: { kind?: 'vs' | 'rayleigh'; poissonRatio?: number } = {}): ComparisonProfile {
+export function parseComparisonCsv(
+  text: string,
+  fileName: string,
+  o: { kind?: 'vs' | 'rayleigh'; poissonRatio?: number } = {},
+): ComparisonProfile {
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy', comments: '#' });
   const rows = parsed.data.filter((r) => r.some((c) => c.trim() !== ''));
   if (rows.length === 0) throw new BorewaveError('COMPARISON_EMPTY', `${fileName}: no rows found.`, fileName);
@@ -98,9 +110,21 @@ export function parseComparisonCsv(text: string, fileName: string, o: { kind?: '
   let kind: 'vs' | 'rayleigh' = o.kind ?? 'vs';
   if (hasHeader) {
     depthCol = first.findIndex(isDepthHeader);
-    if (depthCol < 0) throw new BorewaveError('COMPARISON_COLUMNS', `${fileName}: no depth column in the header (${first.join(', ')}).`, fileName, 'header');
+    if (depthCol < 0)
+      throw new BorewaveError(
+        'COMPARISON_COLUMNS',
+        `${fileName}: no depth column in the header (${first.join(', ')}).`,
+        fileName,
+        'header',
+      );
     velCol = first.findIndex((c, i) => i !== depthCol && velocityKindOfHeader(c) !== null);
-    if (velCol < 0) throw new BorewaveError('COMPARISON_COLUMNS', `${fileName}: no velocity column (Vs, VR or Rayleigh) in the header (${first.join(', ')}).`, fileName, 'header');
+    if (velCol < 0)
+      throw new BorewaveError(
+        'COMPARISON_COLUMNS',
+        `${fileName}: no velocity column (Vs, VR or Rayleigh) in the header (${first.join(', ')}).`,
+        fileName,
+        'header',
+      );
     kind = o.kind ?? velocityKindOfHeader(first[velCol]) ?? 'vs';
     const du = depthUnit(first[depthCol]);
     const vu = velocityUnit(first[velCol]);
@@ -117,7 +141,8 @@ export function parseComparisonCsv(text: string, fileName: string, o: { kind?: '
   let nu: number | undefined;
   if (kind === 'rayleigh') {
     nu = o.poissonRatio ?? DEFAULT_RAYLEIGH_POISSON;
-    if (o.poissonRatio === undefined) notes.push(`Rayleigh velocity converted with nu = ${DEFAULT_RAYLEIGH_POISSON} (not given)`);
+    if (o.poissonRatio === undefined)
+      notes.push(`Rayleigh velocity converted with nu = ${DEFAULT_RAYLEIGH_POISSON} (not given)`);
   }
   const points: { depthM: number; vsMps: number }[] = [];
   for (let r = hasHeader ? 1 : 0; r < rows.length; r++) {
@@ -126,19 +151,35 @@ export function parseComparisonCsv(text: string, fileName: string, o: { kind?: '
     const vel = parseNumber(row[velCol]);
     const line = `${fileName} row ${r + 1}`;
     if (!Number.isFinite(depth) || depth < 0) {
-      throw new BorewaveError('COMPARISON_ROW', `${line}: depth '${row[depthCol] ?? ''}' must be a number at or below 0.`, fileName, colName(depthCol));
+      throw new BorewaveError(
+        'COMPARISON_ROW',
+        `${line}: depth '${row[depthCol] ?? ''}' must be a number at or below 0.`,
+        fileName,
+        colName(depthCol),
+      );
     }
     if (!Number.isFinite(vel) || vel <= 0) {
-      throw new BorewaveError('COMPARISON_ROW', `${line}: velocity '${row[velCol] ?? ''}' must be a positive number.`, fileName, colName(velCol));
+      throw new BorewaveError(
+        'COMPARISON_ROW',
+        `${line}: velocity '${row[velCol] ?? ''}' must be a positive number.`,
+        fileName,
+        colName(velCol),
+      );
     }
     const vMps = vel * vFactor;
     points.push({ depthM: depth * dFactor, vsMps: kind === 'rayleigh' ? rayleighToShear(vMps, nu as number) : vMps });
   }
-  if (points.length === 0) throw new BorewaveError('COMPARISON_EMPTY', `${fileName}: a header but no data rows.`, fileName);
+  if (points.length === 0)
+    throw new BorewaveError('COMPARISON_EMPTY', `${fileName}: a header but no data rows.`, fileName);
   points.sort((a, b) => a.depthM - b.depthM);
   for (let i = 1; i < points.length; i++) {
     if (points[i].depthM === points[i - 1].depthM) {
-      throw new BorewaveError('COMPARISON_DEPTH_REPEATED', `${fileName}: depth ${points[i].depthM} m appears twice.`, fileName, colName(depthCol));
+      throw new BorewaveError(
+        'COMPARISON_DEPTH_REPEATED',
+        `${fileName}: depth ${points[i].depthM} m appears twice.`,
+        fileName,
+        colName(depthCol),
+      );
     }
   }
   const name = fileName.replace(/\.[^./\\]+$/, '');

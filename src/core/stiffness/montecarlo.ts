@@ -7,7 +7,15 @@
  */
 import { mulberry32 } from '../random';
 import { BorewaveError } from '../errors';
-import { applySiteAnswers, averagingSegments, SITE_STANDARDS, vsSiteClass, type SiteAnswers, type SiteStandard, type Vs30Rule } from './site';
+import {
+  applySiteAnswers,
+  averagingSegments,
+  SITE_STANDARDS,
+  vsSiteClass,
+  type SiteAnswers,
+  type SiteStandard,
+  type Vs30Rule,
+} from './site';
 
 export interface SiteUncertainty {
   vs30P05Mps: number;
@@ -46,7 +54,8 @@ export function siteUncertainty(
     throw new BorewaveError('MC_DRAWS', `Number of draws ${o.draws} must be at least 1.`, 'site', 'draws');
   }
   const seg = averagingSegments(intervals, o.toDepthM, o.rule);
-  if (seg === null) throw new BorewaveError('MC_NO_INTERVALS', 'No usable velocity interval for Vs30.', 'site', 'intervals');
+  if (seg === null)
+    throw new BorewaveError('MC_NO_INTERVALS', 'No usable velocity interval for Vs30.', 'site', 'intervals');
   const k = seg.index.length;
   const mu = new Float64Array(k);
   const sd = new Float64Array(k);

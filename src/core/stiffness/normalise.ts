@@ -7,9 +7,19 @@ import { BorewaveError } from '../errors';
 
 export const ATMOSPHERIC_PRESSURE_KPA = 101.325;
 
-export function stressNormalisedVs(vsMps: number, effectiveStressKpa: number, exponent: number, paKpa: number = ATMOSPHERIC_PRESSURE_KPA): number {
+export function stressNormalisedVs(
+  vsMps: number,
+  effectiveStressKpa: number,
+  exponent: number,
+  paKpa: number = ATMOSPHERIC_PRESSURE_KPA,
+): number {
   if (!Number.isFinite(effectiveStressKpa) || effectiveStressKpa <= 0) {
-    throw new BorewaveError('VS1_STRESS', `Effective stress ${effectiveStressKpa} kPa must be positive to normalise Vs.`, 'stiffness', 'effectiveStressKpa');
+    throw new BorewaveError(
+      'VS1_STRESS',
+      `Effective stress ${effectiveStressKpa} kPa must be positive to normalise Vs.`,
+      'stiffness',
+      'effectiveStressKpa',
+    );
   }
   if (!Number.isFinite(paKpa) || paKpa <= 0) {
     throw new BorewaveError('VS1_PA', `Reference pressure ${paKpa} kPa must be positive.`, 'stiffness', 'paKpa');
@@ -21,7 +31,12 @@ export function stressNormalisedVs(vsMps: number, effectiveStressKpa: number, ex
  * Choices offered for n. Vs scales with stress at half the exponent of Gmax (Gmax = rho Vs^2).
  */
 export const STRESS_EXPONENT_CHOICES: { label: string; n: number; source: string }[] = [
-  { label: 'Sand, gravel', n: 0.25, source: 'Robertson et al. (1992), Can. Geotech. J. 29; Andrus & Stokoe (2000), JGGE 126(11) (citations from memory)' },
+  {
+    label: 'Sand, gravel',
+    n: 0.25,
+    source:
+      'Robertson et al. (1992), Can. Geotech. J. 29; Andrus & Stokoe (2000), JGGE 126(11) (citations from memory)',
+  },
   { label: 'Silt, low-plasticity clay', n: 0.35, source: 'common practice: between the sand and clay values' },
   { label: 'Clay', n: 0.5, source: 'common practice: upper end of values used for clays' },
   { label: 'No normalisation', n: 0, source: 'Vs1 = Vs' },

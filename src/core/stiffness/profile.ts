@@ -5,7 +5,15 @@
  */
 import { BorewaveError } from '../errors';
 import type { SoilColumn } from '../model';
-import { bulkModulusKpa, constrainedModulusKpa, densityMgM3, gmaxKpa, isPoreFluidVp, poissonFromVelocityRatio, youngFromShear } from './moduli';
+import {
+  bulkModulusKpa,
+  constrainedModulusKpa,
+  densityMgM3,
+  gmaxKpa,
+  isPoreFluidVp,
+  poissonFromVelocityRatio,
+  youngFromShear,
+} from './moduli';
 import { ATMOSPHERIC_PRESSURE_KPA, stressNormalisedVs } from './normalise';
 import { layerAt, soilColumnBottomM, validateSoilColumn, verticalStressAt } from './stress';
 
@@ -63,7 +71,11 @@ export interface StiffnessOptions {
  * Where Vp is the pore water or Vp/Vs < sqrt 2, nu is the layer's and M, K are null.
  * Throws BorewaveError when the soil column is invalid or an interval has bad depths or Vs.
  */
-export function stiffnessProfile(intervals: VelocityInterval[], soil: SoilColumn, o: StiffnessOptions = {}): StiffnessRow[] {
+export function stiffnessProfile(
+  intervals: VelocityInterval[],
+  soil: SoilColumn,
+  o: StiffnessOptions = {},
+): StiffnessRow[] {
   const problems = validateSoilColumn(soil);
   if (problems.length > 0) {
     const p = problems[0];
@@ -74,13 +86,20 @@ export function stiffnessProfile(intervals: VelocityInterval[], soil: SoilColumn
   return intervals.map((iv) => {
     const item = `interval ${iv.topM}-${iv.bottomM} m`;
     if (!Number.isFinite(iv.topM) || !Number.isFinite(iv.bottomM) || iv.topM < 0 || iv.bottomM <= iv.topM) {
-      throw new BorewaveError('STIFFNESS_INTERVAL', `${item}: top and bottom must satisfy 0 <= top < bottom.`, item, 'topM/bottomM');
+      throw new BorewaveError(
+        'STIFFNESS_INTERVAL',
+        `${item}: top and bottom must satisfy 0 <= top < bottom.`,
+        item,
+        'topM/bottomM',
+      );
     }
     if (!Number.isFinite(iv.vsMps) || iv.vsMps <= 0) {
       throw new BorewaveError('STIFFNESS_INTERVAL', `${item}: Vs ${iv.vsMps} m/s must be positive.`, item, 'vsMps');
     }
     const flags = [...iv.flags];
-    const addFlag = (f: string) => { if (!flags.includes(f)) flags.push(f); };
+    const addFlag = (f: string) => {
+      if (!flags.includes(f)) flags.push(f);
+    };
     const midM = 0.5 * (iv.topM + iv.bottomM);
     const layer = layerAt(soil, midM);
     if (soil.layers.some((l) => l.topM > iv.topM && l.topM < iv.bottomM)) addFlag(STIFFNESS_FLAGS.spansLayers);
@@ -114,7 +133,8 @@ export function stiffnessProfile(intervals: VelocityInterval[], soil: SoilColumn
     }
 
     let vs1Mps: number | null = null;
-    if (stress.effectiveKpa > 0) vs1Mps = stressNormalisedVs(iv.vsMps, stress.effectiveKpa, layer.stressExponent, paKpa);
+    if (stress.effectiveKpa > 0)
+      vs1Mps = stressNormalisedVs(iv.vsMps, stress.effectiveKpa, layer.stressExponent, paKpa);
     else addFlag(STIFFNESS_FLAGS.noEffectiveStress);
 
     return {

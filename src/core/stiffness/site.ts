@@ -40,12 +40,18 @@ function m(x: number): string {
  * what exists (flag 'profile shorter than z m'); 'extend-deepest' carries the deepest interval's Vs down
  * to toDepthM (flag 'deepest Vs extended to z m'). Intervals with bad depths are skipped (flagged).
  */
-export function averagingSegments(intervals: readonly { topM: number; bottomM: number }[], toDepthM: number, rule: Vs30Rule): AveragingSegments | null {
+export function averagingSegments(
+  intervals: readonly { topM: number; bottomM: number }[],
+  toDepthM: number,
+  rule: Vs30Rule,
+): AveragingSegments | null {
   if (!Number.isFinite(toDepthM) || toDepthM <= 0) {
     throw new BorewaveError('VSZ_DEPTH', `Averaging depth ${toDepthM} m must be positive.`, 'site', 'toDepthM');
   }
   const flags: string[] = [];
-  const addFlag = (f: string) => { if (!flags.includes(f)) flags.push(f); };
+  const addFlag = (f: string) => {
+    if (!flags.includes(f)) flags.push(f);
+  };
   const order = intervals
     .map((iv, i) => ({ iv, i }))
     .filter(({ iv }) => {
@@ -60,9 +66,13 @@ export function averagingSegments(intervals: readonly { topM: number; bottomM: n
   let cursor = 0;
   for (const { iv, i } of order) {
     if (cursor >= toDepthM) break;
-    if (iv.bottomM <= cursor) { addFlag('overlapping intervals'); continue; }
+    if (iv.bottomM <= cursor) {
+      addFlag('overlapping intervals');
+      continue;
+    }
     if (iv.topM < cursor) addFlag('overlapping intervals');
-    if (iv.topM > cursor) addFlag(cursor === 0 ? `top ${m(iv.topM)} m given the shallowest Vs` : 'gap given the interval below');
+    if (iv.topM > cursor)
+      addFlag(cursor === 0 ? `top ${m(iv.topM)} m given the shallowest Vs` : 'gap given the interval below');
     const bottom = Math.min(iv.bottomM, toDepthM);
     index.push(i);
     thicknessM.push(bottom - cursor);
@@ -85,7 +95,11 @@ export function averagingSegments(intervals: readonly { topM: number; bottomM: n
 }
 
 /** Vs,z from the intervals; null when there is no usable interval. Throws when a used interval has Vs <= 0. */
-export function timeAveragedVs(intervals: { topM: number; bottomM: number; vsMps: number }[], toDepthM: number, rule: Vs30Rule): TimeAveraged | null {
+export function timeAveragedVs(
+  intervals: { topM: number; bottomM: number; vsMps: number }[],
+  toDepthM: number,
+  rule: Vs30Rule,
+): TimeAveraged | null {
   const seg = averagingSegments(intervals, toDepthM, rule);
   if (seg === null) return null;
   let slowness = 0;
@@ -97,7 +111,13 @@ export function timeAveragedVs(intervals: { topM: number; bottomM: number; vsMps
     }
     slowness += seg.thicknessM[k] / iv.vsMps;
   }
-  return { vsMps: seg.depthM / slowness, toDepthM: seg.depthM, profileDepthM: seg.profileDepthM, extended: seg.extended, flags: seg.flags };
+  return {
+    vsMps: seg.depthM / slowness,
+    toDepthM: seg.depthM,
+    profileDepthM: seg.profileDepthM,
+    extended: seg.extended,
+    flags: seg.flags,
+  };
 }
 
 // ---------------------------------------------------------------- site class
@@ -143,49 +163,74 @@ const ASCE: SiteStandard[] = ['asce7_16', 'asce7_22'];
  */
 const QUESTIONS: SiteQuestion[] = [
   {
-    id: 'asce_unstable', standard: 'asce7_16', appliesTo: ASCE, yesClass: 'F',
+    id: 'asce_unstable',
+    standard: 'asce7_16',
+    appliesTo: ASCE,
+    yesClass: 'F',
     text: 'Are there soils vulnerable to failure or collapse under seismic loading (liquefiable soils, quick or highly sensitive clays, collapsible weakly cemented soils)?',
-    consequence: 'Site class F: a site response analysis is required (ASCE 7 allows exceptions for some short-period structures).',
+    consequence:
+      'Site class F: a site response analysis is required (ASCE 7 allows exceptions for some short-period structures).',
     source: 'ASCE 7-16 section 20.3.1; ASCE 7-22 section 20.2.1 (criteria list from memory)',
   },
   {
-    id: 'asce_peat', standard: 'asce7_16', appliesTo: ASCE, yesClass: 'F',
+    id: 'asce_peat',
+    standard: 'asce7_16',
+    appliesTo: ASCE,
+    yesClass: 'F',
     text: 'Is there more than 10 ft (3 m) of peat or highly organic clay?',
     consequence: 'Site class F.',
     source: 'ASCE 7-16 section 20.3.1 (from memory; ASCE 7-22 taken as the same)',
   },
   {
-    id: 'asce_high_pi', standard: 'asce7_16', appliesTo: ASCE, yesClass: 'F',
+    id: 'asce_high_pi',
+    standard: 'asce7_16',
+    appliesTo: ASCE,
+    yesClass: 'F',
     text: 'Is there more than 25 ft (7.6 m) of very high plasticity clay (PI > 75)?',
     consequence: 'Site class F.',
     source: 'ASCE 7-16 section 20.3.1 (from memory; ASCE 7-22 taken as the same)',
   },
   {
-    id: 'asce_thick_clay', standard: 'asce7_16', appliesTo: ASCE, yesClass: 'F',
+    id: 'asce_thick_clay',
+    standard: 'asce7_16',
+    appliesTo: ASCE,
+    yesClass: 'F',
     text: 'Is there more than 120 ft (37 m) of soft or medium-stiff clay?',
     consequence: 'Site class F.',
     source: 'ASCE 7-16 section 20.3.1 (from memory; ASCE 7-22 taken as the same)',
   },
   {
-    id: 'asce_soft_clay', standard: 'asce7_16', appliesTo: ASCE, yesClass: 'E',
+    id: 'asce_soft_clay',
+    standard: 'asce7_16',
+    appliesTo: ASCE,
+    yesClass: 'E',
     text: 'Is there more than 10 ft (3 m) of soft clay: plasticity index PI > 20, water content w >= 40 % and undrained shear strength su < 500 psf (24 kPa)?',
     consequence: 'Site class E whatever the measured Vs.',
     source: 'ASCE 7-16 Table 20.3-1; ASCE 7-22 Table 20.2-1 (shared/domain.md section 4)',
   },
   {
-    id: 'en_s2', standard: 'en1998_1_2004', appliesTo: ['en1998_1_2004'], yesClass: 'S2',
+    id: 'en_s2',
+    standard: 'en1998_1_2004',
+    appliesTo: ['en1998_1_2004'],
+    yesClass: 'S2',
     text: 'Are there liquefiable soils, sensitive clays, or a profile that fits none of ground types A to E or S1?',
     consequence: 'Ground type S2: special studies are required.',
     source: 'EN 1998-1:2004 Table 3.1',
   },
   {
-    id: 'en_s1', standard: 'en1998_1_2004', appliesTo: ['en1998_1_2004'], yesClass: 'S1',
+    id: 'en_s1',
+    standard: 'en1998_1_2004',
+    appliesTo: ['en1998_1_2004'],
+    yesClass: 'S1',
     text: 'Does the ground consist of, or contain a layer at least 10 m thick of, soft clay or silt with high plasticity (PI > 40) and high water content?',
     consequence: 'Ground type S1: special studies are required.',
     source: 'EN 1998-1:2004 Table 3.1',
   },
   {
-    id: 'en_e', standard: 'en1998_1_2004', appliesTo: ['en1998_1_2004'], yesClass: 'E',
+    id: 'en_e',
+    standard: 'en1998_1_2004',
+    appliesTo: ['en1998_1_2004'],
+    yesClass: 'E',
     text: 'Is the profile a surface alluvium layer about 5 to 20 m thick with Vs of type C or D (below 360 m/s) over stiffer material with Vs above 800 m/s?',
     consequence: 'Ground type E whatever Vs,30.',
     source: 'EN 1998-1:2004 Table 3.1',
@@ -237,7 +282,11 @@ export function vsSiteClass(standard: SiteStandard, vs30Mps: number): string {
 }
 
 /** The class after the answers: the first 'yes' question (in precedence order) of that standard, else the Vs class. */
-export function applySiteAnswers(standard: SiteStandard, vsClass: string, answers: SiteAnswers): { siteClass: string; question: SiteQuestion | null } {
+export function applySiteAnswers(
+  standard: SiteStandard,
+  vsClass: string,
+  answers: SiteAnswers,
+): { siteClass: string; question: SiteQuestion | null } {
   for (const q of QUESTIONS) {
     if (q.appliesTo.includes(standard) && answers[q.id] === true) {
       // The soft-clay / alluvium rules only make the class worse (never turn F or a worse class into E).
@@ -254,16 +303,26 @@ export function siteClass(standard: SiteStandard, vs30Mps: number, answers: Site
   }
   const vsClass = vsSiteClass(standard, vs30Mps);
   const { siteClass: cls, question } = applySiteAnswers(standard, vsClass, answers);
-  const vsText = standard === 'en1998_1_2004' ? `${vs30Mps.toFixed(1)} m/s` : `${(vs30Mps / M_PER_FT).toFixed(1)} ft/s (${vs30Mps.toFixed(1)} m/s)`;
+  const vsText =
+    standard === 'en1998_1_2004'
+      ? `${vs30Mps.toFixed(1)} m/s`
+      : `${(vs30Mps / M_PER_FT).toFixed(1)} ft/s (${vs30Mps.toFixed(1)} m/s)`;
   const basis = question
     ? `${STANDARD_NAMES[standard]}: ${question.consequence} (answer to: ${question.text}) Vs30 alone gives ${vsClass}.`
     : `${STANDARD_NAMES[standard]}: Vs30 = ${vsText} gives ${vsClass}.`;
   const notes: string[] = [];
   const open = QUESTIONS.filter((q) => q.appliesTo.includes(standard) && answers[q.id] === undefined);
   if (open.length > 0) notes.push(`Not answered, taken as no: ${open.map((q) => q.text).join(' / ')}`);
-  if (standard === 'en1998_1_2004' && cls === 'A') notes.push('Ground type A also requires at most 5 m of weaker material at the surface.');
-  if (standard === 'asce7_16' && (cls === 'A' || cls === 'B')) notes.push('ASCE 7 limits classes A and B where soil lies between the rock surface and the foundation (from memory).');
-  if (standard === 'asce7_22') notes.push('ASCE 7-22 evaluates a range of classes when Vs is estimated rather than measured (from memory); this result uses measured Vs.');
+  if (standard === 'en1998_1_2004' && cls === 'A')
+    notes.push('Ground type A also requires at most 5 m of weaker material at the surface.');
+  if (standard === 'asce7_16' && (cls === 'A' || cls === 'B'))
+    notes.push(
+      'ASCE 7 limits classes A and B where soil lies between the rock surface and the foundation (from memory).',
+    );
+  if (standard === 'asce7_22')
+    notes.push(
+      'ASCE 7-22 evaluates a range of classes when Vs is estimated rather than measured (from memory); this result uses measured Vs.',
+    );
   return { standard, siteClass: cls, basis, notes };
 }
 
@@ -278,7 +337,10 @@ export const SITE_CAUTIONS: string[] = [
  * surface down to some depth h, 5 m <= h <= 20 m, has Vs below 360 m/s (types C/D) and every interval from
  * h to the bottom of the profile has Vs above 800 m/s. "About 5 to 20 m" is read as 5-20 m (our reading).
  */
-export function en1998TypeEHint(intervals: readonly { topM: number; bottomM: number; vsMps: number }[]): { likely: boolean; alluviumThicknessM: number | null } {
+export function en1998TypeEHint(intervals: readonly { topM: number; bottomM: number; vsMps: number }[]): {
+  likely: boolean;
+  alluviumThicknessM: number | null;
+} {
   const sorted = [...intervals].filter((iv) => iv.bottomM > iv.topM && iv.vsMps > 0).sort((a, b) => a.topM - b.topM);
   const firstStiff = sorted.findIndex((iv) => iv.vsMps > 800);
   if (firstStiff <= 0) return { likely: false, alluviumThicknessM: null };

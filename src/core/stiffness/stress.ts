@@ -24,45 +24,95 @@ function layerLabel(layer: SoilLayer, index: number): string {
 export function validateSoilColumn(soil: SoilColumn): ErrorInfo[] {
   const out: ErrorInfo[] = [];
   if (soil.layers.length === 0) {
-    out.push({ code: 'SOIL_NO_LAYERS', message: 'The soil column has no layers.', file: 'soil column', field: 'layers' });
+    out.push({
+      code: 'SOIL_NO_LAYERS',
+      message: 'The soil column has no layers.',
+      file: 'soil column',
+      field: 'layers',
+    });
     return out;
   }
   soil.layers.forEach((l, i) => {
     const item = layerLabel(l, i);
     if (!Number.isFinite(l.topM) || !Number.isFinite(l.bottomM) || l.topM < 0 || l.bottomM <= l.topM) {
-      out.push({ code: 'SOIL_THICKNESS', message: `${item}: top ${l.topM} m and bottom ${l.bottomM} m must satisfy 0 <= top < bottom.`, file: item, field: 'topM/bottomM' });
+      out.push({
+        code: 'SOIL_THICKNESS',
+        message: `${item}: top ${l.topM} m and bottom ${l.bottomM} m must satisfy 0 <= top < bottom.`,
+        file: item,
+        field: 'topM/bottomM',
+      });
     }
     if (!Number.isFinite(l.unitWeightKnM3) || l.unitWeightKnM3 <= 0) {
-      out.push({ code: 'SOIL_UNIT_WEIGHT', message: `${item}: unit weight ${l.unitWeightKnM3} kN/m3 must be positive.`, file: item, field: 'unitWeightKnM3' });
+      out.push({
+        code: 'SOIL_UNIT_WEIGHT',
+        message: `${item}: unit weight ${l.unitWeightKnM3} kN/m3 must be positive.`,
+        file: item,
+        field: 'unitWeightKnM3',
+      });
     }
     if (!Number.isFinite(l.stressExponent) || l.stressExponent < 0 || l.stressExponent > 1) {
-      out.push({ code: 'SOIL_STRESS_EXPONENT', message: `${item}: stress exponent ${l.stressExponent} must be between 0 and 1.`, file: item, field: 'stressExponent' });
+      out.push({
+        code: 'SOIL_STRESS_EXPONENT',
+        message: `${item}: stress exponent ${l.stressExponent} must be between 0 and 1.`,
+        file: item,
+        field: 'stressExponent',
+      });
     }
     // Soils: 0 <= nu < 0.5 (an isotropic solid allows -1 < nu < 0.5; negative values are not soil).
     if (!Number.isFinite(l.poissonRatio) || l.poissonRatio < 0 || l.poissonRatio >= 0.5) {
-      out.push({ code: 'SOIL_POISSON', message: `${item}: Poisson's ratio ${l.poissonRatio} must be at least 0 and below 0.5.`, file: item, field: 'poissonRatio' });
+      out.push({
+        code: 'SOIL_POISSON',
+        message: `${item}: Poisson's ratio ${l.poissonRatio} must be at least 0 and below 0.5.`,
+        file: item,
+        field: 'poissonRatio',
+      });
     }
   });
   const order = soil.layers.map((l, i) => ({ l, i })).sort((a, b) => a.l.topM - b.l.topM);
   if (order[0].l.topM > 0) {
     const { l, i } = order[0];
-    out.push({ code: 'SOIL_GAP', message: `The soil column starts at ${l.topM} m, not at the ground surface (${layerLabel(l, i)}).`, file: layerLabel(l, i), field: 'topM' });
+    out.push({
+      code: 'SOIL_GAP',
+      message: `The soil column starts at ${l.topM} m, not at the ground surface (${layerLabel(l, i)}).`,
+      file: layerLabel(l, i),
+      field: 'topM',
+    });
   }
   for (let k = 1; k < order.length; k++) {
     const a = order[k - 1];
     const b = order[k];
     const item = `${layerLabel(a.l, a.i)} / ${layerLabel(b.l, b.i)}`;
     if (b.l.topM > a.l.bottomM) {
-      out.push({ code: 'SOIL_GAP', message: `Gap between ${a.l.bottomM} m and ${b.l.topM} m: ${item}.`, file: item, field: 'topM' });
+      out.push({
+        code: 'SOIL_GAP',
+        message: `Gap between ${a.l.bottomM} m and ${b.l.topM} m: ${item}.`,
+        file: item,
+        field: 'topM',
+      });
     } else if (b.l.topM < a.l.bottomM) {
-      out.push({ code: 'SOIL_OVERLAP', message: `Layers overlap between ${b.l.topM} m and ${a.l.bottomM} m: ${item}.`, file: item, field: 'topM' });
+      out.push({
+        code: 'SOIL_OVERLAP',
+        message: `Layers overlap between ${b.l.topM} m and ${a.l.bottomM} m: ${item}.`,
+        file: item,
+        field: 'topM',
+      });
     }
   }
   if (soil.waterTableM !== null && !Number.isFinite(soil.waterTableM)) {
-    out.push({ code: 'SOIL_WATER_TABLE', message: `Water table depth ${soil.waterTableM} is not a number.`, file: 'soil column', field: 'waterTableM' });
+    out.push({
+      code: 'SOIL_WATER_TABLE',
+      message: `Water table depth ${soil.waterTableM} is not a number.`,
+      file: 'soil column',
+      field: 'waterTableM',
+    });
   }
   if (!Number.isFinite(soil.waterUnitWeightKnM3) || soil.waterUnitWeightKnM3 <= 0) {
-    out.push({ code: 'SOIL_WATER_UNIT_WEIGHT', message: `Water unit weight ${soil.waterUnitWeightKnM3} kN/m3 must be positive.`, file: 'soil column', field: 'waterUnitWeightKnM3' });
+    out.push({
+      code: 'SOIL_WATER_UNIT_WEIGHT',
+      message: `Water unit weight ${soil.waterUnitWeightKnM3} kN/m3 must be positive.`,
+      file: 'soil column',
+      field: 'waterUnitWeightKnM3',
+    });
   }
   return out;
 }
@@ -74,7 +124,9 @@ export function validateSoilColumn(soil: SoilColumn): ErrorInfo[] {
 export function defaultSoilColumn(bottomM: number): SoilColumn {
   const bottom = Number.isFinite(bottomM) && bottomM > 0 ? bottomM : 30;
   return {
-    layers: [{ topM: 0, bottomM: bottom, name: 'default', unitWeightKnM3: 19, stressExponent: 0.25, poissonRatio: 0.3 }],
+    layers: [
+      { topM: 0, bottomM: bottom, name: 'default', unitWeightKnM3: 19, stressExponent: 0.25, poissonRatio: 0.3 },
+    ],
     waterTableM: null,
     waterUnitWeightKnM3: DEFAULT_WATER_UNIT_WEIGHT_KNM3,
   };
@@ -85,7 +137,8 @@ export function defaultSoilColumn(bottomM: number): SoilColumn {
  * layer, the nearest layer below; below the deepest layer, the deepest layer (its properties extend down).
  */
 export function layerAt(soil: SoilColumn, depthM: number): SoilLayer {
-  if (soil.layers.length === 0) throw new BorewaveError('SOIL_NO_LAYERS', 'The soil column has no layers.', 'soil column', 'layers');
+  if (soil.layers.length === 0)
+    throw new BorewaveError('SOIL_NO_LAYERS', 'The soil column has no layers.', 'soil column', 'layers');
   const sorted = [...soil.layers].sort((a, b) => a.topM - b.topM);
   for (const l of sorted) if (depthM >= l.topM && depthM < l.bottomM) return l;
   for (const l of sorted) if (l.topM >= depthM) return l;
@@ -103,9 +156,15 @@ export function soilColumnBottomM(soil: SoilColumn): number {
  */
 export function verticalStressAt(soil: SoilColumn, depthM: number): StressAtDepth {
   if (!Number.isFinite(depthM) || depthM < 0) {
-    throw new BorewaveError('STRESS_DEPTH', `Depth ${depthM} m must be a number at or below the ground surface.`, 'soil column', 'depthM');
+    throw new BorewaveError(
+      'STRESS_DEPTH',
+      `Depth ${depthM} m must be a number at or below the ground surface.`,
+      'soil column',
+      'depthM',
+    );
   }
-  if (soil.layers.length === 0) throw new BorewaveError('SOIL_NO_LAYERS', 'The soil column has no layers.', 'soil column', 'layers');
+  if (soil.layers.length === 0)
+    throw new BorewaveError('SOIL_NO_LAYERS', 'The soil column has no layers.', 'soil column', 'layers');
   const breaks = new Set<number>([0, depthM]);
   for (const l of soil.layers) {
     if (l.topM > 0 && l.topM < depthM) breaks.add(l.topM);

@@ -16,7 +16,16 @@ import type { ChannelAssignment, HitDirection, RecordAssignment, TestKind, WaveR
 export const DEFAULT_NAME_PATTERN = '*d{depth}_{hit}.*';
 const FT_TO_M = 0.3048;
 
-const HIT_WORDS: Record<string, HitDirection> = { l: 'left', left: 'left', r: 'right', right: 'right', u: 'up', up: 'up', d: 'down', down: 'down' };
+const HIT_WORDS: Record<string, HitDirection> = {
+  l: 'left',
+  left: 'left',
+  r: 'right',
+  right: 'right',
+  u: 'up',
+  up: 'up',
+  d: 'down',
+  down: 'down',
+};
 
 export interface CompiledPattern {
   regex: RegExp;
@@ -52,7 +61,10 @@ export function compileNamePattern(pattern: string): CompiledPattern {
   return { regex: new RegExp(re + '$', 'i'), depthGroup, depthInFeet, hitGroup };
 }
 
-export function placeFromName(fileName: string, pattern: CompiledPattern): { depthM: number | null; hit: HitDirection | null } {
+export function placeFromName(
+  fileName: string,
+  pattern: CompiledPattern,
+): { depthM: number | null; hit: HitDirection | null } {
   const m = pattern.regex.exec(fileName);
   if (!m) return { depthM: null, hit: null };
   let depthM: number | null = null;
@@ -60,13 +72,17 @@ export function placeFromName(fileName: string, pattern: CompiledPattern): { dep
     const v = Number(m[pattern.depthGroup].replace(/[,p]/i, '.'));
     depthM = Number.isFinite(v) ? v * (pattern.depthInFeet ? FT_TO_M : 1) : null;
   }
-  const hit = pattern.hitGroup ? HIT_WORDS[m[pattern.hitGroup].toLowerCase()] ?? null : null;
+  const hit = pattern.hitGroup ? (HIT_WORDS[m[pattern.hitGroup].toLowerCase()] ?? null) : null;
   return { depthM, hit };
 }
 
 function numbers(s: string | undefined): number[] {
   if (!s) return [];
-  return s.trim().split(/[\s,;]+/).map(Number).filter(Number.isFinite);
+  return s
+    .trim()
+    .split(/[\s,;]+/)
+    .map(Number)
+    .filter(Number.isFinite);
 }
 
 export function placeFromHeaders(rec: WaveRecord): { depthM: number | null; hit: HitDirection | null } {
@@ -92,24 +108,42 @@ export function placeFromHeaders(rec: WaveRecord): { depthM: number | null; hit:
  * downhole 1-3 = H1 H2 V of receiver R; two-receiver 1-3 upper, 4-6 lower; crosshole per receiver hole
  * (near, far) two channels each: V then H1.
  */
-export function defaultChannels(kind: TestKind, rec: WaveRecord, receiverHoleIds: readonly string[]): ChannelAssignment[] {
+export function defaultChannels(
+  kind: TestKind,
+  rec: WaveRecord,
+  receiverHoleIds: readonly string[],
+): ChannelAssignment[] {
   const comps = ['H1', 'H2', 'V'] as const;
   return rec.traces.map((t, i) => {
     if (kind === 'downhole') return { channel: t.channel, component: comps[i % 3], receiver: 'R' };
-    if (kind === 'downhole-pair') return { channel: t.channel, component: comps[i % 3], receiver: i < 3 ? 'upper' : 'lower' };
+    if (kind === 'downhole-pair')
+      return { channel: t.channel, component: comps[i % 3], receiver: i < 3 ? 'upper' : 'lower' };
     const hole = receiverHoleIds[Math.min(Math.floor(i / 2), receiverHoleIds.length - 1)] ?? 'near';
     return { channel: t.channel, component: i % 2 === 0 ? 'V' : 'H1', receiver: hole };
   });
 }
 
-export function assignRecords(records: readonly WaveRecord[], kind: TestKind, pattern: string, receiverHoleIds: readonly string[] = []): RecordAssignment[] {
+export function assignRecords(
+  records: readonly WaveRecord[],
+  kind: TestKind,
+  pattern: string,
+  receiverHoleIds: readonly string[] = [],
+): RecordAssignment[] {
   const compiled = compileNamePattern(pattern);
   return records.map((rec) => {
     const fromHeader = placeFromHeaders(rec);
     const fromName = placeFromName(rec.fileName, compiled);
     const depthM = fromHeader.depthM ?? fromName.depthM;
     const hit = fromHeader.hit ?? fromName.hit ?? 'none';
-    const assignedBy: RecordAssignment['assignedBy'] = fromHeader.depthM !== null ? 'header' : fromName.depthM !== null ? 'filename' : 'manual';
-    return { recordId: rec.id, depthM, hit, channels: defaultChannels(kind, rec, receiverHoleIds), excluded: false, assignedBy };
+    const assignedBy: RecordAssignment['assignedBy'] =
+      fromHeader.depthM !== null ? 'header' : fromName.depthM !== null ? 'filename' : 'manual';
+    return {
+      recordId: rec.id,
+      depthM,
+      hit,
+      channels: defaultChannels(kind, rec, receiverHoleIds),
+      excluded: false,
+      assignedBy,
+    };
   });
 }

@@ -31,17 +31,32 @@ export function validateDeviation(holeId: string, stations: readonly DeviationSt
   for (let i = 0; i < stations.length; i++) {
     const s = stations[i];
     if (![s.depthAlongM, s.eastM, s.northM].every(Number.isFinite)) {
-      throw new BorewaveError('DEVIATION_NOT_NUMERIC', `Deviation survey of ${holeId}: row ${i + 1} has a value that is not a number.`, holeId, `row ${i + 1}`);
+      throw new BorewaveError(
+        'DEVIATION_NOT_NUMERIC',
+        `Deviation survey of ${holeId}: row ${i + 1} has a value that is not a number.`,
+        holeId,
+        `row ${i + 1}`,
+      );
     }
     if (i > 0) {
       const prev = stations[i - 1];
       const dL = s.depthAlongM - prev.depthAlongM;
       if (dL <= 0) {
-        throw new BorewaveError('DEVIATION_NOT_MONOTONIC', `Deviation survey of ${holeId}: depth ${s.depthAlongM} m on row ${i + 1} is not deeper than ${prev.depthAlongM} m on the row above.`, holeId, `row ${i + 1}`);
+        throw new BorewaveError(
+          'DEVIATION_NOT_MONOTONIC',
+          `Deviation survey of ${holeId}: depth ${s.depthAlongM} m on row ${i + 1} is not deeper than ${prev.depthAlongM} m on the row above.`,
+          holeId,
+          `row ${i + 1}`,
+        );
       }
       const dh = Math.hypot(s.eastM - prev.eastM, s.northM - prev.northM);
       if (dh > dL) {
-        throw new BorewaveError('DEVIATION_IMPOSSIBLE', `Deviation survey of ${holeId}: the hole moves ${dh.toFixed(3)} m sideways over ${dL.toFixed(3)} m of hole between rows ${i} and ${i + 1}.`, holeId, `row ${i + 1}`);
+        throw new BorewaveError(
+          'DEVIATION_IMPOSSIBLE',
+          `Deviation survey of ${holeId}: the hole moves ${dh.toFixed(3)} m sideways over ${dL.toFixed(3)} m of hole between rows ${i} and ${i + 1}.`,
+          holeId,
+          `row ${i + 1}`,
+        );
       }
     }
   }
@@ -49,9 +64,12 @@ export function validateDeviation(holeId: string, stations: readonly DeviationSt
 
 /** Position of the point at depthAlongM along the hole. */
 export function positionAlongHole(hole: Borehole, depthAlongM: number): HolePosition {
-  const st: DeviationStation[] = hole.deviation.length && hole.deviation[0].depthAlongM > 0
-    ? [{ depthAlongM: 0, eastM: 0, northM: 0 }, ...hole.deviation]
-    : hole.deviation.length ? [...hole.deviation] : [{ depthAlongM: 0, eastM: 0, northM: 0 }];
+  const st: DeviationStation[] =
+    hole.deviation.length && hole.deviation[0].depthAlongM > 0
+      ? [{ depthAlongM: 0, eastM: 0, northM: 0 }, ...hole.deviation]
+      : hole.deviation.length
+        ? [...hole.deviation]
+        : [{ depthAlongM: 0, eastM: 0, northM: 0 }];
   let z = st[0].depthAlongM; // the first station is at the collar or at depth 0 by construction
   let i = 0;
   for (; i + 1 < st.length && st[i + 1].depthAlongM <= depthAlongM; i++) {
@@ -90,6 +108,12 @@ function verticalRiseM(a: DeviationStation, b: DeviationStation): number {
 
 export function findHole(holes: readonly Borehole[], id: string): Borehole {
   const h = holes.find((b) => b.id === id);
-  if (!h) throw new BorewaveError('SURVEY_UNKNOWN_HOLE', `The survey names borehole "${id}", which is not in its borehole list.`, id, 'boreholes');
+  if (!h)
+    throw new BorewaveError(
+      'SURVEY_UNKNOWN_HOLE',
+      `The survey names borehole "${id}", which is not in its borehole list.`,
+      id,
+      'boreholes',
+    );
   return h;
 }

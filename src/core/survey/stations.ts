@@ -54,11 +54,17 @@ export function stationKey(receiver: string, depthM: number, component: Componen
 
 /** Receiver depth of a channel's receiver for a record depth. */
 export function receiverDepthM(survey: Survey, receiver: string, recordDepthM: number): number {
-  return survey.kind === 'downhole-pair' && receiver === 'lower' ? recordDepthM + survey.receiverSpacingM : recordDepthM;
+  return survey.kind === 'downhole-pair' && receiver === 'lower'
+    ? recordDepthM + survey.receiverSpacingM
+    : recordDepthM;
 }
 
 /** Positions of the receiver and the source for one station. */
-export function stationPositions(survey: Survey, receiver: string, depthM: number): { receiverPos: Vec3; sourcePos: Vec3; beyondSurvey: boolean } {
+export function stationPositions(
+  survey: Survey,
+  receiver: string,
+  depthM: number,
+): { receiverPos: Vec3; sourcePos: Vec3; beyondSurvey: boolean } {
   if (survey.kind === 'crosshole') {
     const rx = positionAlongHole(findHole(survey.boreholes, receiver), depthM);
     const sx = positionAlongHole(findHole(survey.boreholes, survey.mainHoleId), depthM);
@@ -72,7 +78,12 @@ export function stationPositions(survey: Survey, receiver: string, depthM: numbe
 }
 
 /** Arrival search window from the path length and the plausible velocity range, within the record. */
-export function searchWindowS(pathM: number, rangeMps: [number, number], firstS: number, lastS: number): [number, number] {
+export function searchWindowS(
+  pathM: number,
+  rangeMps: [number, number],
+  firstS: number,
+  lastS: number,
+): [number, number] {
   const start = Math.max(firstS, pathM / rangeMps[1]);
   const end = Math.min(lastS, pathM / rangeMps[0]);
   return [start, Math.max(start, end)];
@@ -84,7 +95,11 @@ export interface StationBuild {
 }
 
 /** Builds every station's working trace. Problems with one record or station are reported, not thrown. */
-export function buildStations(survey: Survey, records: ReadonlyMap<string, WaveRecord>, settings: Settings): StationBuild {
+export function buildStations(
+  survey: Survey,
+  records: ReadonlyMap<string, WaveRecord>,
+  settings: Settings,
+): StationBuild {
   const issues: ErrorInfo[] = [];
   // A hole whose deviation table is unusable is reported and taken as vertical, so the rest still computes.
   const badHoles = new Set<string>();
@@ -107,11 +122,20 @@ export function buildStations(survey: Survey, records: ReadonlyMap<string, WaveR
     if (ra.excluded) continue;
     const rec = records.get(ra.recordId);
     if (!rec) {
-      issues.push({ code: 'RECORD_MISSING', message: `Record ${ra.recordId} is in the survey but its file is not loaded.`, file: ra.recordId });
+      issues.push({
+        code: 'RECORD_MISSING',
+        message: `Record ${ra.recordId} is in the survey but its file is not loaded.`,
+        file: ra.recordId,
+      });
       continue;
     }
     if (ra.depthM === null || !Number.isFinite(ra.depthM)) {
-      issues.push({ code: 'RECORD_NO_DEPTH', message: `Record ${ra.recordId} has no depth: set it in Geometry.`, file: ra.recordId, field: 'depth' });
+      issues.push({
+        code: 'RECORD_NO_DEPTH',
+        message: `Record ${ra.recordId} has no depth: set it in Geometry.`,
+        file: ra.recordId,
+        field: 'depth',
+      });
       continue;
     }
     for (const wave of waves) {
@@ -119,7 +143,12 @@ export function buildStations(survey: Survey, records: ReadonlyMap<string, WaveR
       for (const ch of ra.channels) {
         if (ch.component !== comp) continue;
         if (!rec.traces.some((t) => t.channel === ch.channel)) {
-          issues.push({ code: 'RECORD_NO_CHANNEL', message: `Record ${ra.recordId} has no channel ${ch.channel}.`, file: ra.recordId, field: `channel ${ch.channel}` });
+          issues.push({
+            code: 'RECORD_NO_CHANNEL',
+            message: `Record ${ra.recordId} has no channel ${ch.channel}.`,
+            file: ra.recordId,
+            field: `channel ${ch.channel}`,
+          });
           continue;
         }
         const depthM = receiverDepthM(survey, ch.receiver, ra.depthM);
@@ -143,7 +172,10 @@ export function buildStations(survey: Survey, records: ReadonlyMap<string, WaveR
       issues.push(toErrorInfo(e, key));
     }
   }
-  stations.sort((a, b) => (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.receiver.localeCompare(b.receiver) || a.depthM - b.depthM);
+  stations.sort(
+    (a, b) =>
+      (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.receiver.localeCompare(b.receiver) || a.depthM - b.depthM,
+  );
   return { stations, issues };
 }
 
@@ -165,10 +197,15 @@ function buildStation(
   const n = traces[0].samples.length;
   for (const t of traces) {
     if (t.sampleIntervalS !== dtS || t.samples.length !== n || Math.abs(t.delayS - delayS) > dtS / 2) {
-      throw new BorewaveError('STATION_MIXED_SAMPLING', `Hits at ${key} differ in sample interval, length or delay and cannot be combined.`, key);
+      throw new BorewaveError(
+        'STATION_MIXED_SAMPLING',
+        `Hits at ${key} differ in sample interval, length or delay and cannot be combined.`,
+        key,
+      );
     }
   }
-  if (!(dtS > 0)) throw new BorewaveError('STATION_BAD_SAMPLE_INTERVAL', `Sample interval at ${key} is not positive.`, key);
+  if (!(dtS > 0))
+    throw new BorewaveError('STATION_BAD_SAMPLE_INTERVAL', `Sample interval at ${key} is not positive.`, key);
   const bandpass = wave === 'S' ? settings.bandpassS : settings.bandpassP;
   const cond = { detrend: settings.detrend, taperFraction: settings.taperFraction, bandpass };
   const conditioned = traces.map((t) => conditionTrace(t.samples, dtS, cond));
@@ -196,7 +233,12 @@ function buildStation(
   if (beyondSurvey) flags.push('beyond deviation survey');
   const straightPathM = distanceM(receiverPos, sourcePos);
   if (!(straightPathM > 0)) {
-    throw new BorewaveError('STATION_ZERO_DISTANCE', `Receiver at ${key} sits on the source (zero source-receiver distance): give the source an offset or drop this depth.`, key, 'source offset');
+    throw new BorewaveError(
+      'STATION_ZERO_DISTANCE',
+      `Receiver at ${key} sits on the source (zero source-receiver distance): give the source an offset or drop this depth.`,
+      key,
+      'source offset',
+    );
   }
   const lastS = delayS + (n - 1) * dtS;
   const range = wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;

@@ -8,7 +8,16 @@ import { writeSeg2 } from '../io/seg2';
 import { encodeUtf8 } from '../io/bytes';
 import type { Borehole, ByteOrder, DeviationStation, TestKind } from '../model';
 import type { EarthModel } from './earth';
-import { synthesizeSurvey, toSeg2Input, type CrossholeGeometry, type DownholeGeometry, type PairGeometry, type SynthGeometry, type SynthOptions, type SynthResult } from './synthesize';
+import {
+  synthesizeSurvey,
+  toSeg2Input,
+  type CrossholeGeometry,
+  type DownholeGeometry,
+  type PairGeometry,
+  type SynthGeometry,
+  type SynthOptions,
+  type SynthResult,
+} from './synthesize';
 
 export const DEMO_SITE_NAME = 'Tillwater Bend terrace';
 
@@ -18,12 +27,72 @@ export function demoEarthModel(): EarthModel {
     waterTableM: 2.1,
     waterVpMps: 1500,
     layers: [
-      { name: 'Made ground (sandy gravel fill)', topM: 0, thicknessM: 1.6, vsMps: 165, vpMps: 340, unitWeightKnM3: 18.5, qS: 15, qP: 20, behaviour: 'sand-like' },
-      { name: 'Soft grey silty clay', topM: 1.6, thicknessM: 5.4, vsMps: 115, vpMps: 260, unitWeightKnM3: 16.5, qS: 20, qP: 30, behaviour: 'clay-like' },
-      { name: 'Medium dense fine sand', topM: 7.0, thicknessM: 6.5, vsMps: 215, vpMps: 430, unitWeightKnM3: 19.0, qS: 25, qP: 40, behaviour: 'sand-like' },
-      { name: 'Dense gravelly sand', topM: 13.5, thicknessM: 7.5, vsMps: 330, vpMps: 640, unitWeightKnM3: 20.0, qS: 30, qP: 50, behaviour: 'sand-like' },
-      { name: 'Very dense sandy gravel', topM: 21.0, thicknessM: 4.0, vsMps: 440, vpMps: 850, unitWeightKnM3: 21.0, qS: 35, qP: 60, behaviour: 'sand-like' },
-      { name: 'Weathered mudstone', topM: 25.0, thicknessM: Infinity, vsMps: 680, vpMps: 1900, unitWeightKnM3: 22.0, qS: 50, qP: 80, behaviour: 'sand-like' },
+      {
+        name: 'Made ground (sandy gravel fill)',
+        topM: 0,
+        thicknessM: 1.6,
+        vsMps: 165,
+        vpMps: 340,
+        unitWeightKnM3: 18.5,
+        qS: 15,
+        qP: 20,
+        behaviour: 'sand-like',
+      },
+      {
+        name: 'Soft grey silty clay',
+        topM: 1.6,
+        thicknessM: 5.4,
+        vsMps: 115,
+        vpMps: 260,
+        unitWeightKnM3: 16.5,
+        qS: 20,
+        qP: 30,
+        behaviour: 'clay-like',
+      },
+      {
+        name: 'Medium dense fine sand',
+        topM: 7.0,
+        thicknessM: 6.5,
+        vsMps: 215,
+        vpMps: 430,
+        unitWeightKnM3: 19.0,
+        qS: 25,
+        qP: 40,
+        behaviour: 'sand-like',
+      },
+      {
+        name: 'Dense gravelly sand',
+        topM: 13.5,
+        thicknessM: 7.5,
+        vsMps: 330,
+        vpMps: 640,
+        unitWeightKnM3: 20.0,
+        qS: 30,
+        qP: 50,
+        behaviour: 'sand-like',
+      },
+      {
+        name: 'Very dense sandy gravel',
+        topM: 21.0,
+        thicknessM: 4.0,
+        vsMps: 440,
+        vpMps: 850,
+        unitWeightKnM3: 21.0,
+        qS: 35,
+        qP: 60,
+        behaviour: 'sand-like',
+      },
+      {
+        name: 'Weathered mudstone',
+        topM: 25.0,
+        thicknessM: Infinity,
+        vsMps: 680,
+        vpMps: 1900,
+        unitWeightKnM3: 22.0,
+        qS: 50,
+        qP: 80,
+        behaviour: 'sand-like',
+      },
     ],
   };
 }
@@ -39,7 +108,13 @@ export function demoDownholeGeometry(): DownholeGeometry {
 }
 
 export function demoPairGeometry(): PairGeometry {
-  return { kind: 'downhole-pair', holeId: 'DH1', upperDepthsM: depthsFrom(1, 1, 29), receiverSpacingM: 1.0, sourceOffsetM: 2.0 };
+  return {
+    kind: 'downhole-pair',
+    holeId: 'DH1',
+    upperDepthsM: depthsFrom(1, 1, 29),
+    receiverSpacingM: 1.0,
+    sourceOffsetM: 2.0,
+  };
 }
 
 /** Deviation stations every 1.5 m; the drift grows with the square of depth to (eastAtBottomM, northAtBottomM), rounded to mm. */
@@ -69,18 +144,50 @@ export function deviationCsv(hole: Borehole): string {
   return ['depth_along_m,east_m,north_m', ...rows].join('\n') + '\n';
 }
 
-const COMMON = { attenuation: true, snr: 25, maxTriggerDelayS: 1e-4, pToSRatio: 0.2, receiverRotationRad: 0.1, receiverTiltRad: 0.05 } as const;
+const COMMON = {
+  attenuation: true,
+  snr: 25,
+  maxTriggerDelayS: 1e-4,
+  pToSRatio: 0.2,
+  receiverRotationRad: 0.1,
+  receiverTiltRad: 0.05,
+} as const;
 
 export function demoDownholeOptions(): SynthOptions {
-  return { ...COMMON, seed: 20261, sampleIntervalS: 5e-5, samplesPerTrace: 3584, sFrequencyHz: 100, pFrequencyHz: 400, surveyName: `${DEMO_SITE_NAME}: downhole DH1` };
+  return {
+    ...COMMON,
+    seed: 20261,
+    sampleIntervalS: 5e-5,
+    samplesPerTrace: 3584,
+    sFrequencyHz: 100,
+    pFrequencyHz: 400,
+    surveyName: `${DEMO_SITE_NAME}: downhole DH1`,
+  };
 }
 
 export function demoPairOptions(): SynthOptions {
-  return { ...COMMON, seed: 20262, sampleIntervalS: 5e-5, samplesPerTrace: 3584, sFrequencyHz: 100, pFrequencyHz: 400, surveyName: `${DEMO_SITE_NAME}: two-receiver downhole DH1` };
+  return {
+    ...COMMON,
+    seed: 20262,
+    sampleIntervalS: 5e-5,
+    samplesPerTrace: 3584,
+    sFrequencyHz: 100,
+    pFrequencyHz: 400,
+    surveyName: `${DEMO_SITE_NAME}: two-receiver downhole DH1`,
+  };
 }
 
 export function demoCrossholeOptions(): SynthOptions {
-  return { ...COMMON, seed: 20263, sampleIntervalS: 2.5e-5, samplesPerTrace: 3072, firstSampleS: -0.001, sFrequencyHz: 300, pFrequencyHz: 1500, surveyName: `${DEMO_SITE_NAME}: crosshole B1-B2-B3` };
+  return {
+    ...COMMON,
+    seed: 20263,
+    sampleIntervalS: 2.5e-5,
+    samplesPerTrace: 3072,
+    firstSampleS: -0.001,
+    sFrequencyHz: 300,
+    pFrequencyHz: 1500,
+    surveyName: `${DEMO_SITE_NAME}: crosshole B1-B2-B3`,
+  };
 }
 
 /** How each demo survey is generated and stored (mixed byte orders and SEG-2 format codes on purpose). */
@@ -95,9 +202,32 @@ export interface DemoPlan {
 }
 
 export function demoPlan(kind: TestKind): DemoPlan {
-  if (kind === 'downhole') return { kind, folder: 'downhole', geometry: demoDownholeGeometry(), options: demoDownholeOptions(), byteOrder: 'little', formatCode: 4 };
-  if (kind === 'downhole-pair') return { kind, folder: 'downhole-pair', geometry: demoPairGeometry(), options: demoPairOptions(), byteOrder: 'big', formatCode: 1 };
-  return { kind, folder: 'crosshole', geometry: demoCrossholeGeometry(), options: demoCrossholeOptions(), byteOrder: 'big', formatCode: 2 };
+  if (kind === 'downhole')
+    return {
+      kind,
+      folder: 'downhole',
+      geometry: demoDownholeGeometry(),
+      options: demoDownholeOptions(),
+      byteOrder: 'little',
+      formatCode: 4,
+    };
+  if (kind === 'downhole-pair')
+    return {
+      kind,
+      folder: 'downhole-pair',
+      geometry: demoPairGeometry(),
+      options: demoPairOptions(),
+      byteOrder: 'big',
+      formatCode: 1,
+    };
+  return {
+    kind,
+    folder: 'crosshole',
+    geometry: demoCrossholeGeometry(),
+    options: demoCrossholeOptions(),
+    byteOrder: 'big',
+    formatCode: 2,
+  };
 }
 
 export interface DemoProject {
@@ -125,7 +255,10 @@ export function makeDemoProject(kind: TestKind): DemoProject {
       files.push({ name, bytes: encodeUtf8(deviationCsv(hole)) });
     }
   }
-  const doc = newProjectDocument(result.survey, files.map((f) => f.name));
+  const doc = newProjectDocument(
+    result.survey,
+    files.map((f) => f.name),
+  );
   if (Object.keys(deviationFiles).length > 0) doc.deviationFiles = deviationFiles;
   doc.notes = `Synthetic demo survey of the invented site "${model.name}" (forward model with known arrival times; npm run make-demo). True model: sample-data/README.md.`;
   return { plan, doc, files, result };

@@ -56,10 +56,12 @@ export function validateEarthModel(model: EarthModel): void {
   model.layers.forEach((l, j) => {
     const f = (name: string) => `layers[${j}] (${l.name}).${name}`;
     const expectedTop = j === 0 ? 0 : model.layers[j - 1].topM + model.layers[j - 1].thicknessM;
-    if (Math.abs(l.topM - expectedTop) > SAME_DEPTH_TOL_M) bad(f('topM'), `is ${l.topM} m, expected ${expectedTop} m (layers must be contiguous from 0)`);
+    if (Math.abs(l.topM - expectedTop) > SAME_DEPTH_TOL_M)
+      bad(f('topM'), `is ${l.topM} m, expected ${expectedTop} m (layers must be contiguous from 0)`);
     const last = j === model.layers.length - 1;
     if (!(l.thicknessM > 0) || (!last && !Number.isFinite(l.thicknessM))) bad(f('thicknessM'), `is ${l.thicknessM}`);
-    for (const k of ['vsMps', 'vpMps', 'unitWeightKnM3', 'qS', 'qP'] as const) if (!positive(l[k])) bad(f(k), `is ${l[k]}, must be a positive number`);
+    for (const k of ['vsMps', 'vpMps', 'unitWeightKnM3', 'qS', 'qP'] as const)
+      if (!positive(l[k])) bad(f(k), `is ${l[k]}, must be a positive number`);
     if (l.vpMps <= l.vsMps) bad(f('vpMps'), `(${l.vpMps}) must exceed vsMps (${l.vsMps})`);
   });
   if (model.waterTableM !== null && !(model.waterTableM >= 0)) bad('waterTableM', `is ${model.waterTableM}`);
@@ -128,7 +130,10 @@ export function soilColumnFromModel(model: EarthModel, deepestM: number): SoilCo
     .filter((l) => l.topM < deepestM || l === model.layers[0])
     .map((l, j, arr) => ({
       topM: l.topM,
-      bottomM: j === arr.length - 1 ? Math.max(deepestM, Number.isFinite(l.thicknessM) ? l.topM + l.thicknessM : deepestM) : l.topM + l.thicknessM,
+      bottomM:
+        j === arr.length - 1
+          ? Math.max(deepestM, Number.isFinite(l.thicknessM) ? l.topM + l.thicknessM : deepestM)
+          : l.topM + l.thicknessM,
       name: l.name,
       unitWeightKnM3: l.unitWeightKnM3,
       stressExponent: l.behaviour === 'sand-like' ? 0.25 : 0.5,

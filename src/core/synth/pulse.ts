@@ -147,7 +147,7 @@ export function renderArrival(nSamples: number, dtS: number, firstSampleS: numbe
     const c = Math.cos(phase);
     const s = Math.sin(phase);
     // X(f_k) / dtS so that the inverse DFT (which divides by nfft) approximates the inverse Fourier integral.
-    let re = ((wr * c - wi * s) * gain) / dtS;
+    const re = ((wr * c - wi * s) * gain) / dtS;
     let im = ((wr * s + wi * c) * gain) / dtS;
     if (k === nfft / 2) im = 0;
     spec[2 * k] = re;

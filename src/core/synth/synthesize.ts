@@ -25,9 +25,28 @@
  * - Noise: white Gaussian, per channel, standard deviation = (peak |S| over the record's channels) / snr.
  */
 import { BorewaveError } from '../errors';
-import type { Borehole, ChannelAssignment, Component, HitDirection, RecordAssignment, Survey, TestKind, Trace, WaveRecord } from '../model';
+import type {
+  Borehole,
+  ChannelAssignment,
+  Component,
+  HitDirection,
+  RecordAssignment,
+  Survey,
+  TestKind,
+  Trace,
+  WaveRecord,
+} from '../model';
 import { traceRay } from '../survey/rays';
-import { modelSegments, soilColumnFromModel, trueQAt, trueVpAt, trueVsAt, validateEarthModel, type EarthModel, type ModelSegment } from './earth';
+import {
+  modelSegments,
+  soilColumnFromModel,
+  trueQAt,
+  trueVpAt,
+  trueVsAt,
+  validateEarthModel,
+  type EarthModel,
+  type ModelSegment,
+} from './earth';
 import { mulberry32, type Prng } from '../random';
 import { positionAlongHole } from '../survey/geometry';
 import { renderArrival, type ConstantQ } from './pulse';
@@ -199,7 +218,13 @@ function effectiveQ(segs: readonly ModelSegment[], segmentPathM: readonly number
  * Refracted ray from a source at (offsetM east of the hole, sourceDepthM) to a receiver in the hole at
  * receiverDepthM, through the model's layers (water table included for P).
  */
-export function downholePath(model: EarthModel, wave: 'S' | 'P', sourceDepthM: number, receiverDepthM: number, offsetM: number): WavePath {
+export function downholePath(
+  model: EarthModel,
+  wave: 'S' | 'P',
+  sourceDepthM: number,
+  receiverDepthM: number,
+  offsetM: number,
+): WavePath {
   const segs = modelSegments(model, wave, sourceDepthM, receiverDepthM);
   const shallow = Math.min(sourceDepthM, receiverDepthM);
   const vFallback = wave === 'S' ? trueVsAt(model, shallow) : trueVpAt(model, shallow);
@@ -271,7 +296,14 @@ function formatCoord(x: number): string {
   return String(Math.round(x * 1e6) / 1e6);
 }
 
-function renderShot(shot: ShotSpec, o: SynthOptions, rng: Prng, amplitude0: number, pRatio: number, kind: TestKind): { record: WaveRecord; truth: RecordTruth } {
+function renderShot(
+  shot: ShotSpec,
+  o: SynthOptions,
+  rng: Prng,
+  amplitude0: number,
+  pRatio: number,
+  kind: TestKind,
+): { record: WaveRecord; truth: RecordTruth } {
   const dt = o.sampleIntervalS;
   const n = o.samplesPerTrace;
   const t0 = o.firstSampleS ?? 0;
@@ -283,8 +315,16 @@ function renderShot(shot: ShotSpec, o: SynthOptions, rng: Prng, amplitude0: numb
     const pAmp0 = (amplitude0 * pRatio) / r.p.pathM;
     const att = (path: WavePath, f: number): ConstantQ | null =>
       o.attenuation && Number.isFinite(path.qEff) ? { travelTimeS: path.timeS, q: path.qEff, referenceHz: f } : null;
-    const sWave = renderArrival(n, dt, t0, { arrivalS: r.s.timeS + triggerDelayS, frequencyHz: o.sFrequencyHz, attenuation: att(r.s, o.sFrequencyHz) });
-    const pWave = renderArrival(n, dt, t0, { arrivalS: r.p.timeS + triggerDelayS, frequencyHz: o.pFrequencyHz, attenuation: att(r.p, o.pFrequencyHz) });
+    const sWave = renderArrival(n, dt, t0, {
+      arrivalS: r.s.timeS + triggerDelayS,
+      frequencyHz: o.sFrequencyHz,
+      attenuation: att(r.s, o.sFrequencyHz),
+    });
+    const pWave = renderArrival(n, dt, t0, {
+      arrivalS: r.p.timeS + triggerDelayS,
+      frequencyHz: o.pFrequencyHz,
+      attenuation: att(r.p, o.pFrequencyHz),
+    });
     const sVec = scale3(r.sMotion, shot.polarity);
     for (const comp of componentsFor(kind)) {
       const axis = r.axes[comp];
@@ -353,7 +393,12 @@ function renderShot(shot: ShotSpec, o: SynthOptions, rng: Prng, amplitude0: numb
     fileName: shot.recordId,
     format: 'seg2',
     fileStrings: { UNITS: 'METERS', TRACE_SORT: 'AS_ACQUIRED' },
-    notes: [`HIT ${hitWord}`, `DEPTH ${shot.depthM.toFixed(2)} M`, `TEST ${kind}`, 'SYNTHETIC RECORD: forward model with known arrival times'],
+    notes: [
+      `HIT ${hitWord}`,
+      `DEPTH ${shot.depthM.toFixed(2)} M`,
+      `TEST ${kind}`,
+      'SYNTHETIC RECORD: forward model with known arrival times',
+    ],
     traces,
   };
   const truth: RecordTruth = {
@@ -370,12 +415,20 @@ function renderShot(shot: ShotSpec, o: SynthOptions, rng: Prng, amplitude0: numb
 
 function checkOptions(o: SynthOptions): void {
   const bad = (field: string, problem: string): never => {
-    throw new BorewaveError('SYNTH_BAD_OPTION', `synthetic survey options: ${field} ${problem}.`, 'synthetic survey', field);
+    throw new BorewaveError(
+      'SYNTH_BAD_OPTION',
+      `synthetic survey options: ${field} ${problem}.`,
+      'synthetic survey',
+      field,
+    );
   };
   if (!(o.sampleIntervalS > 0)) bad('sampleIntervalS', `is ${o.sampleIntervalS}, must be positive`);
-  if (!(Number.isInteger(o.samplesPerTrace) && o.samplesPerTrace > 1)) bad('samplesPerTrace', `is ${o.samplesPerTrace}, must be an integer above 1`);
-  if (!(o.sFrequencyHz > 0) || o.sFrequencyHz >= 0.5 / o.sampleIntervalS) bad('sFrequencyHz', `is ${o.sFrequencyHz}, must be positive and below the Nyquist frequency`);
-  if (!(o.pFrequencyHz > 0) || o.pFrequencyHz >= 0.5 / o.sampleIntervalS) bad('pFrequencyHz', `is ${o.pFrequencyHz}, must be positive and below the Nyquist frequency`);
+  if (!(Number.isInteger(o.samplesPerTrace) && o.samplesPerTrace > 1))
+    bad('samplesPerTrace', `is ${o.samplesPerTrace}, must be an integer above 1`);
+  if (!(o.sFrequencyHz > 0) || o.sFrequencyHz >= 0.5 / o.sampleIntervalS)
+    bad('sFrequencyHz', `is ${o.sFrequencyHz}, must be positive and below the Nyquist frequency`);
+  if (!(o.pFrequencyHz > 0) || o.pFrequencyHz >= 0.5 / o.sampleIntervalS)
+    bad('pFrequencyHz', `is ${o.pFrequencyHz}, must be positive and below the Nyquist frequency`);
   if (o.snr !== null && !(o.snr > 0)) bad('snr', `is ${o.snr}, must be positive or null`);
   if (!(o.maxTriggerDelayS >= 0)) bad('maxTriggerDelayS', `is ${o.maxTriggerDelayS}`);
 }
@@ -383,7 +436,12 @@ function checkOptions(o: SynthOptions): void {
 function checkDepths(depths: number[], field: string): void {
   depths.forEach((d, i) => {
     if (!(Number.isFinite(d) && d > 0)) {
-      throw new BorewaveError('SYNTH_BAD_GEOMETRY', `synthetic geometry: ${field}[${i}] is ${d}, must be a positive depth in m.`, 'synthetic geometry', `${field}[${i}]`);
+      throw new BorewaveError(
+        'SYNTH_BAD_GEOMETRY',
+        `synthetic geometry: ${field}[${i}] is ${d}, must be a positive depth in m.`,
+        'synthetic geometry',
+        `${field}[${i}]`,
+      );
     }
   });
 }
@@ -392,7 +450,14 @@ function verticalHole(id: string): Borehole {
   return { id, collarEastM: 0, collarNorthM: 0, deviation: [] };
 }
 
-function downholeReceiver(model: EarthModel, name: string, depthM: number, sourceDepthM: number, offsetM: number, o: SynthOptions): ReceiverSpec {
+function downholeReceiver(
+  model: EarthModel,
+  name: string,
+  depthM: number,
+  sourceDepthM: number,
+  offsetM: number,
+  o: SynthOptions,
+): ReceiverSpec {
   return {
     name,
     positionM: [0, 0, depthM],
@@ -412,16 +477,35 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
     const depths = g.kind === 'downhole' ? g.depthsM : g.upperDepthsM;
     checkDepths(depths, g.kind === 'downhole' ? 'depthsM' : 'upperDepthsM');
     if (g.kind === 'downhole-pair' && !(g.receiverSpacingM > 0)) {
-      throw new BorewaveError('SYNTH_BAD_GEOMETRY', `synthetic geometry: receiverSpacingM is ${g.receiverSpacingM}, must be positive.`, 'synthetic geometry', 'receiverSpacingM');
+      throw new BorewaveError(
+        'SYNTH_BAD_GEOMETRY',
+        `synthetic geometry: receiverSpacingM is ${g.receiverSpacingM}, must be positive.`,
+        'synthetic geometry',
+        'receiverSpacingM',
+      );
     }
     const prefix = o.filePrefix ?? (g.kind === 'downhole' ? 'dh' : 'dhp');
     for (const z of depths) {
       const receivers =
         g.kind === 'downhole'
           ? [downholeReceiver(model, 'R', z, zs, g.sourceOffsetM, o)]
-          : [downholeReceiver(model, 'upper', z, zs, g.sourceOffsetM, o), downholeReceiver(model, 'lower', z + g.receiverSpacingM, zs, g.sourceOffsetM, o)];
-      for (const [hit, polarity] of [['left', 1], ['right', -1]] as const) {
-        shots.push({ recordId: recordIdFor(prefix, z, hit), depthM: z, hit, polarity, sourcePositionM: [g.sourceOffsetM, 0, zs], sourceNominalM: [g.sourceOffsetM, 0, zs], receivers });
+          : [
+              downholeReceiver(model, 'upper', z, zs, g.sourceOffsetM, o),
+              downholeReceiver(model, 'lower', z + g.receiverSpacingM, zs, g.sourceOffsetM, o),
+            ];
+      for (const [hit, polarity] of [
+        ['left', 1],
+        ['right', -1],
+      ] as const) {
+        shots.push({
+          recordId: recordIdFor(prefix, z, hit),
+          depthM: z,
+          hit,
+          polarity,
+          sourcePositionM: [g.sourceOffsetM, 0, zs],
+          sourceNominalM: [g.sourceOffsetM, 0, zs],
+          receivers,
+        });
       }
     }
     return shots;
@@ -439,10 +523,29 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
       // SV motion: the downward unit vector with its part along the ray removed.
       const down: Vec3 = [0, 0, 1];
       const sMotion = unit3(sub3(down, scale3(s.directionAtReceiver, dot(down, s.directionAtReceiver))));
-      return { name: hole.id, positionM: rec, nominalM: [hole.collarEastM, hole.collarNorthM, z], axes: receiverAxes(radial, o.receiverRotationRad ?? 0.1, o.receiverTiltRad ?? 0.05), s, p, sMotion };
+      return {
+        name: hole.id,
+        positionM: rec,
+        nominalM: [hole.collarEastM, hole.collarNorthM, z],
+        axes: receiverAxes(radial, o.receiverRotationRad ?? 0.1, o.receiverTiltRad ?? 0.05),
+        s,
+        p,
+        sMotion,
+      };
     });
-    for (const [hit, polarity] of [['up', -1], ['down', 1]] as const) {
-      shots.push({ recordId: recordIdFor(prefix, z, hit), depthM: z, hit, polarity, sourcePositionM: src, sourceNominalM: [srcHole.collarEastM, srcHole.collarNorthM, z], receivers });
+    for (const [hit, polarity] of [
+      ['up', -1],
+      ['down', 1],
+    ] as const) {
+      shots.push({
+        recordId: recordIdFor(prefix, z, hit),
+        depthM: z,
+        hit,
+        polarity,
+        sourcePositionM: src,
+        sourceNominalM: [srcHole.collarEastM, srcHole.collarNorthM, z],
+        receivers,
+      });
     }
   }
   return shots;
@@ -451,8 +554,16 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
 function assignmentFor(shot: ShotSpec, kind: TestKind): RecordAssignment {
   const channels: ChannelAssignment[] = [];
   let ch = 1;
-  for (const r of shot.receivers) for (const component of componentsFor(kind)) channels.push({ channel: ch++, component, receiver: r.name });
-  return { recordId: shot.recordId, depthM: shot.depthM, hit: shot.hit, channels, excluded: false, assignedBy: 'filename' };
+  for (const r of shot.receivers)
+    for (const component of componentsFor(kind)) channels.push({ channel: ch++, component, receiver: r.name });
+  return {
+    recordId: shot.recordId,
+    depthM: shot.depthM,
+    hit: shot.hit,
+    channels,
+    excluded: false,
+    assignedBy: 'filename',
+  };
 }
 
 /** Synthetic records, the survey that describes them and the true arrival times. Deterministic for a seed. */
@@ -477,7 +588,12 @@ export function synthesizeSurvey(model: EarthModel, geometry: SynthGeometry, o: 
   };
   let survey: Survey;
   if (geometry.kind === 'crosshole') {
-    survey = { ...base, boreholes: geometry.holes.map((h) => ({ ...h, deviation: h.deviation.map((d) => ({ ...d })) })), mainHoleId: geometry.holes[0].id, receiverHoleIds: [geometry.holes[1].id, geometry.holes[2].id] };
+    survey = {
+      ...base,
+      boreholes: geometry.holes.map((h) => ({ ...h, deviation: h.deviation.map((d) => ({ ...d })) })),
+      mainHoleId: geometry.holes[0].id,
+      receiverHoleIds: [geometry.holes[1].id, geometry.holes[2].id],
+    };
   } else {
     survey = {
       ...base,
@@ -488,16 +604,35 @@ export function synthesizeSurvey(model: EarthModel, geometry: SynthGeometry, o: 
       receiverSpacingM: geometry.kind === 'downhole-pair' ? geometry.receiverSpacingM : 0,
     };
   }
-  return { survey, records: rendered.map((r) => r.record), truth: { kind: geometry.kind, records: rendered.map((r) => r.truth) } };
+  return {
+    survey,
+    records: rendered.map((r) => r.record),
+    truth: { kind: geometry.kind, records: rendered.map((r) => r.truth) },
+  };
 }
 
 /** The record as input for the SEG-2 writer (io/seg2.ts writeSeg2); the writer sets the sampling keywords itself. */
 export function toSeg2Input(record: WaveRecord): {
   fileStrings: Record<string, string>;
   notes: string[];
-  traces: { channel: number; samples: Float32Array; sampleIntervalS: number; delayS: number; receiverLocation?: number[]; sourceLocation?: number[]; strings: Record<string, string> }[];
+  traces: {
+    channel: number;
+    samples: Float32Array;
+    sampleIntervalS: number;
+    delayS: number;
+    receiverLocation?: number[];
+    sourceLocation?: number[];
+    strings: Record<string, string>;
+  }[];
 } {
-  const own = new Set(['SAMPLE_INTERVAL', 'DELAY', 'DESCALING_FACTOR', 'CHANNEL_NUMBER', 'RECEIVER_LOCATION', 'SOURCE_LOCATION']);
+  const own = new Set([
+    'SAMPLE_INTERVAL',
+    'DELAY',
+    'DESCALING_FACTOR',
+    'CHANNEL_NUMBER',
+    'RECEIVER_LOCATION',
+    'SOURCE_LOCATION',
+  ]);
   return {
     fileStrings: { ...record.fileStrings },
     notes: [...record.notes],

@@ -63,14 +63,32 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
         for (let i = 0; i + 1 < list.length; i++) {
           const [a, b] = [list[i], list[i + 1]];
           if (b.depthM - a.depthM < 1e-6) continue;
-          pairs.push({ key: pairKey(wave, a.key, b.key), wave, kind: 'pseudo', a, b, topM: a.depthM, bottomM: b.depthM });
+          pairs.push({
+            key: pairKey(wave, a.key, b.key),
+            wave,
+            kind: 'pseudo',
+            a,
+            b,
+            topM: a.depthM,
+            bottomM: b.depthM,
+          });
         }
       }
     } else if (survey.kind === 'downhole-pair') {
       for (const up of ws.filter((s) => s.receiver === 'upper')) {
-        const low = ws.find((s) => s.receiver === 'lower' && Math.abs(s.depthM - (up.depthM + survey.receiverSpacingM)) < 1e-6);
+        const low = ws.find(
+          (s) => s.receiver === 'lower' && Math.abs(s.depthM - (up.depthM + survey.receiverSpacingM)) < 1e-6,
+        );
         if (!low) continue;
-        pairs.push({ key: pairKey(wave, up.key, low.key), wave, kind: 'true', a: up, b: low, topM: up.depthM, bottomM: low.depthM });
+        pairs.push({
+          key: pairKey(wave, up.key, low.key),
+          wave,
+          kind: 'true',
+          a: up,
+          b: low,
+          topM: up.depthM,
+          bottomM: low.depthM,
+        });
       }
     } else {
       const [nearId, farId] = survey.receiverHoleIds;
@@ -80,8 +98,14 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
         const b = ws.find((s) => s.receiver === farId && Math.abs(s.depthM - a.depthM) < 1e-6);
         if (!b) return;
         // A crosshole test depth stands for the span halfway to its neighbours.
-        const up = i > 0 ? (depths[i - 1] + a.depthM) / 2 : Math.max(0, a.depthM - (depths.length > 1 ? (depths[1] - depths[0]) / 2 : 0.5));
-        const down = i + 1 < depths.length ? (depths[i + 1] + a.depthM) / 2 : a.depthM + (depths.length > 1 ? (depths[i] - depths[i - 1]) / 2 : 0.5);
+        const up =
+          i > 0
+            ? (depths[i - 1] + a.depthM) / 2
+            : Math.max(0, a.depthM - (depths.length > 1 ? (depths[1] - depths[0]) / 2 : 0.5));
+        const down =
+          i + 1 < depths.length
+            ? (depths[i + 1] + a.depthM) / 2
+            : a.depthM + (depths.length > 1 ? (depths[i] - depths[i - 1]) / 2 : 0.5);
         pairs.push({ key: pairKey(wave, a.key, b.key), wave, kind: 'crosshole', a, b, topM: up, bottomM: down });
       });
     }
@@ -186,7 +210,15 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       const flags: string[] = [];
       if (rf.velocityMps < range[0]) flags.push('slow?');
       if (rf.velocityMps > range[1]) flags.push('fast?');
-      rows.push({ ...base, method: 'ray-fit', dtS: null, velocityMps: rf.velocityMps, velocitySdMps: rf.sdMps, chosen: false, flags: [...stationFlags, ...flags] });
+      rows.push({
+        ...base,
+        method: 'ray-fit',
+        dtS: null,
+        velocityMps: rf.velocityMps,
+        velocitySdMps: rf.sdMps,
+        chosen: false,
+        flags: [...stationFlags, ...flags],
+      });
     }
     // The chosen value: the user's choice for this interval, else the settings' method, else the fallback order.
     const wanted = edits.chosenMethod[pair.key] ?? settings.profileMethod;
@@ -199,11 +231,17 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     if (chosen && !edits.excludedIntervals.includes(pair.key)) {
       chosen.chosen = true;
       // Compared with the median of the other waveform methods, so one noisy pick does not raise the flag.
-      const others = rows.filter((r) => r !== chosen && r.method !== 'phase' && r.method !== 'ray-fit' && valid(r)).map((r) => r.velocityMps!);
+      const others = rows
+        .filter((r) => r !== chosen && r.method !== 'phase' && r.method !== 'ray-fit' && valid(r))
+        .map((r) => r.velocityMps!);
       if (others.length) {
         others.sort((x, y) => x - y);
-        const mid = others.length % 2 ? others[(others.length - 1) / 2] : (others[others.length / 2 - 1] + others[others.length / 2]) / 2;
-        if (Math.abs(mid - chosen.velocityMps!) > settings.methodDisagreementShare * chosen.velocityMps!) chosen.flags.push('methods differ');
+        const mid =
+          others.length % 2
+            ? others[(others.length - 1) / 2]
+            : (others[others.length / 2 - 1] + others[others.length / 2]) / 2;
+        if (Math.abs(mid - chosen.velocityMps!) > settings.methodDisagreementShare * chosen.velocityMps!)
+          chosen.flags.push('methods differ');
       }
     }
     out.push(...rows);

@@ -34,7 +34,10 @@ export interface RayFitResult {
 /** Ceiling velocity for a layer whose time is out of order, m/s (far above any soil or rock Vs). */
 const CEILING_VELOCITY_MPS = 1e5;
 
-export function fitLayersWithRays(input: RayFitInput, o: { maxIterations?: number; tolerance?: number } = {}): RayFitResult | null {
+export function fitLayersWithRays(
+  input: RayFitInput,
+  o: { maxIterations?: number; tolerance?: number } = {},
+): RayFitResult | null {
   const { depthsM, timesS, offsetsM, sourceDepthM } = input;
   const n = depthsM.length;
   if (n < 2) return null;
@@ -85,7 +88,13 @@ export function fitLayersWithRays(input: RayFitInput, o: { maxIterations?: numbe
   const residualsS = depthsM.map((z, i) => timesS[i] - layeredRay(model, sourceDepthM, z, offsetsM[i]).timeS);
   const rms = Math.sqrt(residualsS.reduce((s, r) => s + r * r, 0) / n);
   return {
-    layers: model.map((m, j) => ({ topM: tops[j], bottomM: depthsM[j], velocityMps: m.velocityMps, pathInLayerM: L[j * n + j], outOfOrder: outOfOrder[j] })),
+    layers: model.map((m, j) => ({
+      topM: tops[j],
+      bottomM: depthsM[j],
+      velocityMps: m.velocityMps,
+      pathInLayerM: L[j * n + j],
+      outOfOrder: outOfOrder[j],
+    })),
     iterations,
     converged,
     rmsMisfitS: rms,
@@ -140,19 +149,29 @@ function choleskySolve(l: Float64Array, b: Float64Array, n: number): Float64Arra
   return x;
 }
 
-export function fitLayerModel(input: RayFitInput, layerTopsM: number[], o: { maxIterations?: number; tolerance?: number } = {}): LayerModelFit | null {
+export function fitLayerModel(
+  input: RayFitInput,
+  layerTopsM: number[],
+  o: { maxIterations?: number; tolerance?: number } = {},
+): LayerModelFit | null {
   const { depthsM, timesS, offsetsM, sourceDepthM } = input;
   const n = depthsM.length;
   const deepest = Math.max(...depthsM);
   // Layers that hold at least one receiver depth (others cannot be resolved and are merged upward).
-  const tops = [...new Set([sourceDepthM, ...layerTopsM.filter((t) => t > sourceDepthM && t < deepest)])].sort((a, b) => a - b);
-  const receiversIn = tops.map((t, j) => depthsM.filter((z) => z > t && z <= (j + 1 < tops.length ? tops[j + 1] : Infinity)).length);
+  const tops = [...new Set([sourceDepthM, ...layerTopsM.filter((t) => t > sourceDepthM && t < deepest)])].sort(
+    (a, b) => a - b,
+  );
+  const receiversIn = tops.map(
+    (t, j) => depthsM.filter((z) => z > t && z <= (j + 1 < tops.length ? tops[j + 1] : Infinity)).length,
+  );
   const kept = tops.filter((_, j) => receiversIn[j] > 0 || j === 0);
   const m = kept.length;
   if (n < m + 1 || m < 1) return null;
   const maxIterations = o.maxIterations ?? 30;
   const tolerance = o.tolerance ?? 1e-6;
-  let slowness: Float64Array = new Float64Array(m).fill(timesS.reduce((s, t, i) => s + t / Math.hypot(offsetsM[i], depthsM[i] - sourceDepthM), 0) / n);
+  let slowness: Float64Array = new Float64Array(m).fill(
+    timesS.reduce((s, t, i) => s + t / Math.hypot(offsetsM[i], depthsM[i] - sourceDepthM), 0) / n,
+  );
   for (let j = 0; j < m; j++) slowness[j] = Math.max(slowness[j], 1 / CEILING_VELOCITY_MPS);
   const L = new Float64Array(n * m);
   let iterations = 0;
