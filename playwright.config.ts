@@ -1,6 +1,8 @@
 import { defineConfig } from '@playwright/test';
 
 const chromium = process.env.CHROMIUM_PATH || '/usr/bin/chromium';
+// E2E_PORT lets several checkouts run their browser tests side by side on one machine.
+const port = Number(process.env.E2E_PORT || 4173);
 
 export default defineConfig({
   testDir: 'e2e',
@@ -9,7 +11,7 @@ export default defineConfig({
   retries: 0,
   reporter: [['list'], ['json', { outputFile: 'reports/e2e.json' }]],
   use: {
-    baseURL: 'http://127.0.0.1:4173',
+    baseURL: `http://127.0.0.1:${port}`,
     viewport: { width: 1600, height: 1000 },
     launchOptions: {
       executablePath: chromium,
@@ -26,9 +28,8 @@ export default defineConfig({
     },
   },
   webServer: {
-    command:
-      'npx vite build && npx vite build --mode single && npx vite preview --host 127.0.0.1 --port 4173 --strictPort',
-    url: 'http://127.0.0.1:4173',
+    command: `npx vite build && npx vite build --mode single && npx vite preview --host 127.0.0.1 --port ${port} --strictPort`,
+    url: `http://127.0.0.1:${port}`,
     reuseExistingServer: false,
     timeout: 180_000,
   },
