@@ -7,6 +7,7 @@
  * on (to show onset- and correlation-based delays drifting apart with depth); the demo crosshole set;
  * and a 60-depth downhole survey for the per-edit timings (derive, Monte Carlo).
  */
+import { intervalKey, pickEditKey } from '../src/core/keys';
 import { performance } from 'node:perf_hooks';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
 import type { WaveRecord } from '../src/core/model';
@@ -204,7 +205,7 @@ function pairDelayMs(run: ReturnType<typeof runSurvey>): { inSurveyMs: number; w
   const b = s[110].working;
   const settings = defaultSettings();
   const req = {
-    pairKey: 'bench',
+    pairKey: intervalKey('S', a.stationKey, b.stationKey),
     wave: 'S' as const,
     a: a.stationKey,
     b: b.stationKey,
@@ -257,7 +258,7 @@ function perEdit() {
   const runs: number[] = [];
   const runsNoMc: number[] = [];
   for (let i = 0; i < 20; i++) {
-    edits.picks[`${station.key}|S|onset`] = t0 + i * 5e-5;
+    edits.picks[pickEditKey(station.key, 'S', 'onset')] = t0 + i * 5e-5;
     runs.push(time(() => derive(res.survey, prep, auto, edits, settings)).ms);
     runsNoMc.push(time(() => derive(res.survey, prep, auto, edits, settings, { monteCarlo: false })).ms);
   }

@@ -14,15 +14,15 @@ import { readWaveFile } from '../src/core/io/readers';
 import { readProjectArchive } from '../src/core/io/archive';
 import { runPipeline } from '../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, toCsv } from '../src/core/report/tables';
-import { pickEditKey } from '../src/core/settings';
+import { intervalKey, pickEditKey, stationKey } from '../src/core/keys';
 import type { WaveRecord } from '../src/core/model';
 import { appState, boardPixel, derivedState, SCREENS, waitProcessed } from './helpers';
 
 mkdirSync(SCREENS, { recursive: true });
 
-const STATION = 'R@10.000:H1';
+const STATION = stationKey('r0', 10, 'H1');
 const EDIT_KEY = pickEditKey(STATION, 'S', 'onset');
-const INTERVAL_ABOVE = `S:R@9.000:H1>${STATION}`;
+const INTERVAL_ABOVE = intervalKey('S', stationKey('r0', 9, 'H1'), STATION);
 
 async function download(page: Page, button: RegExp): Promise<string> {
   const [dl] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button }).click()]);
@@ -142,14 +142,18 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   // Snap: editing first peaks (key 2) with snap on (key s), a click 0.4 ms after the automatic peak of
   // the 12 m trace lands on that peak. Reference: the core's characteristicPoints (the auto-pick), to
   // within 0.05 ms (a tenth of the 0.5 ms a pick may be off; domain.md s.2).
-  const peak12 = before.picks.find((p) => p.stationKey === 'R@12.000:H1' && p.wave === 'S' && p.method === 'peak')!;
+  const peak12 = before.picks.find(
+    (p) => p.stationKey === stationKey('r0', 12, 'H1') && p.wave === 'S' && p.method === 'peak',
+  )!;
   expect(peak12, 'an automatic first-peak pick at 12 m').toBeTruthy();
   await page.keyboard.press('2');
   await page.keyboard.press('s');
   const near = await boardPixel(page, peak12.timeS * 1000 + 0.4, 12);
   await page.mouse.click(near.x, near.y);
   st = await appState(page);
-  expect(Math.abs(st.edits.picks[pickEditKey('R@12.000:H1', 'S', 'peak')] - peak12.timeS)).toBeLessThan(5e-5);
+  expect(Math.abs(st.edits.picks[pickEditKey(stationKey('r0', 12, 'H1'), 'S', 'peak')] - peak12.timeS)).toBeLessThan(
+    5e-5,
+  );
   await page.keyboard.press('z');
   await page.keyboard.press('s');
   await page.keyboard.press('1');

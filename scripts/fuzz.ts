@@ -90,8 +90,20 @@ const seedSurvey: Survey = {
   sourceOffsetM: 2,
   sourceDepthM: 0,
   receiverSpacingM: 1,
+  receiverCount: 1,
+  coneOffsetM: 0.2,
   receiverHoleIds: [],
-  records: [{ recordId: 'a.sg2', depthM: 1, hit: 'left', channels: [], excluded: false, assignedBy: 'manual' }],
+  records: [
+    {
+      recordId: 'a.sg2',
+      depthM: 1,
+      hit: 'left',
+      channels: [],
+      excluded: false,
+      depthSource: 'user',
+      hitSource: 'user',
+    },
+  ],
   soil: { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },
 };
 const archiveSeed = writeProjectArchive(newProjectDocument(seedSurvey), [{ name: 'a.sg2', bytes: seeds[0] }]);

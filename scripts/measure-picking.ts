@@ -8,10 +8,10 @@ import {
   autoPickSurvey,
   pairDelays,
   pairDelaysFromAnalysis,
-  type DelayRequest,
   type PickingSettings,
-  type WorkingTrace,
 } from '../src/core/picking/autopick';
+import type { DelayRequest, WorkingTrace } from '../src/core/model';
+import type { IntervalKey, StationKey } from '../src/core/keys';
 import { conditionTrace } from '../src/core/signal/condition';
 
 const nTraces = 2000;
@@ -40,7 +40,8 @@ for (let k = 0; k < nTraces; k++) {
     x[i] = 0.05 * rand() + (t >= 0 ? Math.sin(2 * Math.PI * 100 * t) * Math.exp(-100 * t) : 0);
   }
   traces.push({
-    stationKey: `S${k}`,
+    // Measurement-only keys (S<k>, P<k>): parsed back below, never saved.
+    stationKey: `S${k}` as StationKey,
     wave: 'S',
     samples: x,
     sampleIntervalS: dtS,
@@ -51,7 +52,14 @@ for (let k = 0; k < nTraces; k++) {
 }
 const pairs: DelayRequest[] = [];
 for (let k = 0; k + 1 < nTraces; k++) {
-  pairs.push({ pairKey: `P${k}`, wave: 'S', a: `S${k}`, b: `S${k + 1}`, minDelayS: -0.05, maxDelayS: 0.05 });
+  pairs.push({
+    pairKey: `P${k}` as IntervalKey,
+    wave: 'S',
+    a: `S${k}` as StationKey,
+    b: `S${k + 1}` as StationKey,
+    minDelayS: -0.05,
+    maxDelayS: 0.05,
+  });
 }
 const settings: PickingSettings = {
   onsetMethod: 'aic',

@@ -20,7 +20,8 @@ import {
   siteJson,
   toCsv,
 } from '../core/report/tables';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
+import { hasDirectVelocities } from '../core/catalogue/testKinds';
 import type { CliIo } from './inspect';
 import type { UnitSystem } from '../core/units';
 
@@ -102,14 +103,14 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
   writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
   writeFileSync(join(out, 'layers.csv'), toCsv(layersTable(result.derived, units)));
-  if (project.survey.kind === 'crosshole')
+  if (hasDirectVelocities(project.survey.kind))
     writeFileSync(join(out, 'direct.csv'), toCsv(directTable(result.derived, units)));
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
   const v = result.derived.site.vs30;
   io.stdout.write(
     `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.profileMethod}), ` +
       (v ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m` : 'no time-averaged Vs') +
-      `; wrote picks.csv, intervals.csv, profile.csv, layers.csv, ${project.survey.kind === 'crosshole' ? 'direct.csv, ' : ''}site.json to ${out}\n`,
+      `; wrote picks.csv, intervals.csv, profile.csv, layers.csv, ${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
   );
   return strict && issues.length ? 3 : 0;
 }

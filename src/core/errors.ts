@@ -2,9 +2,121 @@
  * Typed errors: every failure names the file (or item), the field and the problem, so the user can
  * find it. Readers throw BorewaveError; callers that must keep going turn it into an ErrorInfo.
  */
+/** Every stable machine code the program gives (one list: readers, project opener, pipeline, worker). */
+export type ErrorCode =
+  | 'ARCHIVE_BAD_ENTRY_NAME'
+  | 'ARCHIVE_CORRUPT'
+  | 'ARCHIVE_DUPLICATE_FILE'
+  | 'ARCHIVE_ENTRY_TOO_LARGE'
+  | 'ARCHIVE_FILE_MISSING'
+  | 'ARCHIVE_NOT_ZIP'
+  | 'ARCHIVE_NO_PROJECT'
+  | 'ARCHIVE_TOO_LARGE'
+  | 'ARCHIVE_TOO_MANY_ENTRIES'
+  | 'AUTOSAVE_READ'
+  | 'CANCELLED'
+  | 'COMPARISON_COLUMNS'
+  | 'COMPARISON_DEPTH_REPEATED'
+  | 'COMPARISON_EMPTY'
+  | 'COMPARISON_ROW'
+  | 'DELAY_BAND'
+  | 'DELAY_BOUNDS'
+  | 'DELAY_EMPTY'
+  | 'DELAY_NO_SIGNAL'
+  | 'DEVIATION_BAD'
+  | 'DEVIATION_EMPTY'
+  | 'DEVIATION_IMPOSSIBLE'
+  | 'DEVIATION_NEGATIVE_DEPTH'
+  | 'DEVIATION_NOT_INCREASING'
+  | 'DEVIATION_NOT_MONOTONIC'
+  | 'DEVIATION_NOT_NUMERIC'
+  | 'DEVIATION_RAGGED_ROW'
+  | 'DEVIATION_TOO_FEW_COLUMNS'
+  | 'FFT_SIZE'
+  | 'FILE_EMPTY'
+  | 'FILE_NOT_READABLE'
+  | 'FILTER_CORNERS'
+  | 'FILTER_ORDER'
+  | 'FILTER_RATE'
+  | 'FILTER_SOS'
+  | 'INTERNAL'
+  | 'MC_DRAWS'
+  | 'MC_NO_INTERVALS'
+  | 'METHOD_DRIFT'
+  | 'PAIR_BOUNDS'
+  | 'PAIR_MISSING_STATION'
+  | 'PAIR_SAMPLE_INTERVAL'
+  | 'PICK_DUPLICATE_STATION'
+  | 'PICK_MIN_FRACTION'
+  | 'PICK_ONSET_INDEX'
+  | 'PICK_STALTA_SETTINGS'
+  | 'PICK_TRACE'
+  | 'PICK_WINDOW'
+  | 'PROJECT_BAD_FIELD'
+  | 'PROJECT_BAD_JSON'
+  | 'PROJECT_FILE_MISSING'
+  | 'RAYLEIGH_POISSON'
+  | 'RECORD_MISSING'
+  | 'RECORD_NO_CHANNEL'
+  | 'RECORD_NO_DEPTH'
+  | 'SEG2_ABSURD_SAMPLE_COUNT'
+  | 'SEG2_BAD_BLOCK_ID'
+  | 'SEG2_BAD_DATA_SIZE'
+  | 'SEG2_BAD_FORMAT_CODE'
+  | 'SEG2_BAD_KEYWORD_VALUE'
+  | 'SEG2_BAD_POINTER_BLOCK'
+  | 'SEG2_BAD_SAMPLE_COUNT'
+  | 'SEG2_BAD_SAMPLE_INTERVAL'
+  | 'SEG2_BAD_STRING'
+  | 'SEG2_BAD_TERMINATOR'
+  | 'SEG2_EMPTY_FILE'
+  | 'SEG2_NONFINITE_SAMPLE'
+  | 'SEG2_POINTER_PAST_END'
+  | 'SEG2_STRING_TOO_LONG'
+  | 'SEG2_TOO_MANY_TRACES'
+  | 'SEG2_TRUNCATED'
+  | 'SIGNAL_LENGTH_MISMATCH'
+  | 'SIGNAL_SAMPLE_INTERVAL'
+  | 'SIGNAL_TOO_SHORT'
+  | 'SITE_VS30'
+  | 'SOIL_GAP'
+  | 'SOIL_NO_LAYERS'
+  | 'SOIL_OVERLAP'
+  | 'SOIL_POISSON'
+  | 'SOIL_STRESS_EXPONENT'
+  | 'SOIL_THICKNESS'
+  | 'SOIL_UNIT_WEIGHT'
+  | 'SOIL_WATER_TABLE'
+  | 'SOIL_WATER_UNIT_WEIGHT'
+  | 'STACK_EMPTY'
+  | 'STATION_BAD_SAMPLE_INTERVAL'
+  | 'STATION_EXCLUDED'
+  | 'STATION_MIXED_SAMPLING'
+  | 'STATION_ZERO_DISTANCE'
+  | 'STIFFNESS_INPUT'
+  | 'STIFFNESS_INTERVAL'
+  | 'STRESS_DEPTH'
+  | 'SURVEY_UNKNOWN_HOLE'
+  | 'SYNTH_BAD_GEOMETRY'
+  | 'SYNTH_BAD_MODEL'
+  | 'SYNTH_BAD_OPTION'
+  | 'TAPER_FRACTION'
+  | 'TEXT_EMPTY'
+  | 'TEXT_IRREGULAR_TIME'
+  | 'TEXT_NOT_NUMERIC'
+  | 'TEXT_RAGGED_ROW'
+  | 'TEXT_TOO_FEW_COLUMNS'
+  | 'TEXT_TOO_FEW_ROWS'
+  | 'UNKNOWN_FORMAT'
+  | 'VS1_PA'
+  | 'VS1_STRESS'
+  | 'VSZ_DEPTH'
+  | 'VSZ_VELOCITY'
+  | 'WORKER_FAILED';
+
 export interface ErrorInfo {
   /** Stable machine code, e.g. SEG2_POINTER_PAST_END, TEXT_RAGGED_ROW. */
-  code: string;
+  code: ErrorCode;
   /** One sentence for a person: what is wrong and where. */
   message: string;
   /** File name or item (record id, borehole id) the problem is in. */
@@ -14,10 +126,10 @@ export interface ErrorInfo {
 }
 
 export class BorewaveError extends Error {
-  readonly code: string;
+  readonly code: ErrorCode;
   readonly file?: string;
   readonly field?: string;
-  constructor(code: string, message: string, file?: string, field?: string) {
+  constructor(code: ErrorCode, message: string, file?: string, field?: string) {
     super(message);
     this.name = 'BorewaveError';
     this.code = code;

@@ -42,7 +42,17 @@ export interface WaveRecord {
 
 // ---------------------------------------------------------------- survey
 
-export type TestKind = 'downhole' | 'downhole-pair' | 'crosshole';
+export type TestKind = 'downhole' | 'downhole-pair' | 'crosshole' | 'seismic-cone';
+
+/**
+ * Where a placed value (depth, hit, component, receiver) came from, highest precedence first
+ * (docs/project-format.md): user > log (record log) > filename > header > data (inferred from the
+ * waveforms) > default (the test kind's default).
+ */
+export type ValueSource = 'user' | 'log' | 'filename' | 'header' | 'data' | 'default';
+
+import type { IntervalKey, ReceiverSlot, StationKey } from './keys';
+import type { PickFlag } from './flags';
 
 /** Direction of the hit. Reversed pairs: left/right (horizontal beam), up/down (vertical hammer in a hole). */
 export type HitDirection = 'left' | 'right' | 'up' | 'down' | 'none';
@@ -69,24 +79,26 @@ export interface Borehole {
 export interface ChannelAssignment {
   channel: number;
   component: Component;
-  /**
-   * Receiver: for downhole 'R' (single receiver); for two-receiver downhole 'upper' | 'lower';
-   * for crosshole the borehole id of the receiver hole.
-   */
-  receiver: string;
+  /** Receiver slot in the test kind's layout (src/core/catalogue/testKinds.ts): r0, r1 ... never a hole name. */
+  receiver: ReceiverSlot;
 }
 
 /** How one record (file) is placed in the survey. */
 export interface RecordAssignment {
   recordId: string;
-  /** Receiver depth below ground, m (two-receiver downhole: depth of the upper receiver; crosshole: test depth). null = unknown. */
+  /**
+   * LOGGED depth below ground, m: receiver depth (downhole), upper receiver (two receivers), TIP depth
+   * (seismic cone), test depth (crosshole). null = unknown. Receiver depths: catalogue receiverDepthM.
+   */
   depthM: number | null;
   hit: HitDirection;
   channels: ChannelAssignment[];
   /** User excluded the whole record. */
   excluded: boolean;
-  /** Where depth/hit came from: 'header' | 'filename' | 'manual'. */
-  assignedBy: 'header' | 'filename' | 'manual';
+  /** Where the depth came from. */
+  depthSource: ValueSource;
+  /** Where the hit direction came from. */
+  hitSource: ValueSource;
 }
 
 export interface SoilLayer {
@@ -111,14 +123,18 @@ export interface SoilColumn {
 export interface Survey {
   name: string;
   kind: TestKind;
+  /** Receivers in use (seismic cone: 1 or 2; other kinds fixed by the kind catalogue). */
+  receiverCount: number;
   boreholes: Borehole[];
   /** Downhole: the receiver hole id. Crosshole: the source hole id. */
   mainHoleId: string;
   /** Downhole: horizontal source offset from the receiver hole collar, m, and source depth (usually 0). */
   sourceOffsetM: number;
   sourceDepthM: number;
-  /** Two-receiver downhole: vertical spacing between the upper and lower receivers, m. */
+  /** Two receivers (probe or cone): vertical spacing between the upper and lower receivers, m. */
   receiverSpacingM: number;
+  /** Seismic cone: the (lower) receiver sits this far above the logged tip depth, m. */
+  coneOffsetM: number;
   /** Crosshole: receiver holes in order of distance from the source hole (near, far). */
   receiverHoleIds: string[];
   records: RecordAssignment[];
@@ -135,8 +151,8 @@ export type PickOrigin = 'auto' | 'edited' | 'excluded';
 
 /** A time pick on one station's working trace. */
 export interface Pick {
-  /** Station key (see survey/stations): receiver + depth + component. */
-  stationKey: string;
+  /** Station key (src/core/keys.ts): receiver slot + logged depth + component. */
+  stationKey: StationKey;
   wave: Wave;
   method: PickMethod;
   /** Time after trigger, s. NaN never leaves the core: a failed pick is absent with a flag instead. */
@@ -148,19 +164,45 @@ export interface Pick {
   uncertaintyS: number;
   /** Polarity of the feature (+1 peak, -1 trough) where it applies. */
   polarity?: 1 | -1;
-  flags: string[];
+  flags: PickFlag[];
 }
 
 export type DelayMethod = 'xcorr' | 'phase';
 
 /** A delay between two stations' working traces (b later than a by delayS). */
 export interface PairDelay {
-  pairKey: string;
+  pairKey: IntervalKey;
   wave: Wave;
   method: DelayMethod;
   delayS: number;
   /** Normalised correlation coefficient at the peak (xcorr) or mean coherence over the band (phase). */
   coefficient: number;
   uncertaintyS: number;
-  flags: string[];
+  flags: PickFlag[];
+}
+
+/** One station's conditioned working trace: what the pickers read. */
+export interface WorkingTrace {
+  stationKey: StationKey;
+  wave: Wave;
+  /** Already conditioned samples. */
+  samples: Float64Array;
+  sampleIntervalS: number;
+  /** Time of sample 0 after the trigger, s. */
+  delayS: number;
+  /** Arrival search window after the trigger, s (from geometry and plausible velocities). */
+  searchStartS: number;
+  searchEndS: number;
+}
+
+/** A delay to measure between two stations' working traces. */
+export interface DelayRequest {
+  pairKey: IntervalKey;
+  wave: Wave;
+  /** Station keys: b is expected later than a. */
+  a: StationKey;
+  b: StationKey;
+  /** Bounds on the delay of b after a, s (cycle-skip guard). */
+  minDelayS: number;
+  maxDelayS: number;
 }

@@ -10,21 +10,33 @@
  */
 import { toErrorInfo, type ErrorInfo } from './errors';
 import type { PairDelay, Pick, Survey, Wave, WaveRecord } from './model';
+import type { Settings, UserEdits } from './settings';
 import {
+  intervalKey,
   pickEditKey,
   stationWaveKey,
+  type IntervalKey,
+  type StationKey,
+  type StationWaveKey,
+} from './keys';
+import {
+  EDITABLE_METHODS,
+  editableMethodOf,
+  isOnsetPick,
+  methodApplies,
+  methodInfo,
+  pickMethodForEdit,
   type EditablePickMethod,
   type IntervalMethod,
-  type Settings,
-  type UserEdits,
-} from './settings';
+} from './catalogue/methods';
+import { FIT_SLOT, hasDepthTimeFits, hasDirectVelocities, hasSuccessiveDepths } from './catalogue/testKinds';
+import { DOUBTFUL_VP_FLAGS, type IntervalFlag } from './flags';
 import { autoPickSurvey, pairDelays, type AutoPickResult, type PickingSettings } from './picking/autopick';
 import { buildStations, type Station } from './survey/stations';
 import { horizontalDistanceM } from './survey/geometry';
 import {
   delayRequests,
   intervalValues,
-  pairKey,
   pairStations,
   type IntervalValue,
   type StationPair,
@@ -92,13 +104,13 @@ export function autoPick(
 function bridgingPairs(
   survey: Survey,
   prepared: Prepared,
-  excluded: ReadonlySet<string>,
+  excluded: ReadonlySet<StationWaveKey>,
   settings: Settings,
   issues: ErrorInfo[],
 ): { pairs: StationPair[]; delays: PairDelay[] } {
   const pairs: StationPair[] = [];
   const delays: PairDelay[] = [];
-  if (survey.kind !== 'downhole' || !excluded.size) return { pairs, delays };
+  if (!hasSuccessiveDepths(survey) || !excluded.size) return { pairs, delays };
   const existing = new Set(prepared.pairs.map((p) => p.key));
   for (const wave of ['S', 'P'] as Wave[]) {
     const kept = prepared.stations.filter((s) => s.wave === wave && !excluded.has(stationWaveKey(s.key, wave)));
@@ -107,7 +119,7 @@ function bridgingPairs(
       const list = kept.filter((s) => s.receiver === r).sort((a, b) => a.depthM - b.depthM);
       for (let i = 0; i + 1 < list.length; i++) {
         const [a, b] = [list[i], list[i + 1]];
-        const key = pairKey(wave, a.key, b.key);
+        const key = intervalKey(wave, a.key, b.key);
         if (existing.has(key) || b.depthM - a.depthM < 1e-6) continue;
         const pair: StationPair = { key, wave, kind: 'pseudo', a, b, topM: a.depthM, bottomM: b.depthM };
         pairs.push(pair);
@@ -125,15 +137,15 @@ function bridgingPairs(
 }
 
 export interface DirectVelocity {
-  stationKey: string;
-  receiver: string;
+  stationKey: StationKey;
+  receiver: Station['receiver'];
   wave: Wave;
   depthM: number;
   pathM: number;
   timeS: number;
   velocityMps: number | null;
   velocitySdMps: number | null;
-  flags: string[];
+  flags: IntervalFlag[];
 }
 
 /**
@@ -147,16 +159,16 @@ function directVelocities(
   picks: readonly Pick[],
   settings: Settings,
 ): DirectVelocity[] {
-  if (survey.kind !== 'crosshole') return [];
-  const onset = new Map<string, Pick>();
+  if (!hasDirectVelocities(survey.kind)) return [];
+  const onset = new Map<StationWaveKey, Pick>();
   for (const p of picks)
-    if (p.origin !== 'excluded' && editableMethodOf(p) === 'onset') onset.set(stationWaveKey(p.stationKey, p.wave), p);
+    if (p.origin !== 'excluded' && isOnsetPick(p)) onset.set(stationWaveKey(p.stationKey, p.wave), p);
   const out: DirectVelocity[] = [];
   for (const s of stations) {
     const p = onset.get(stationWaveKey(s.key, s.wave));
     if (!p) continue;
     const dt = p.timeS - settings.triggerDelayS;
-    const flags = [...p.flags];
+    const flags: IntervalFlag[] = [...p.flags];
     let v: number | null = null;
     let sd: number | null = null;
     if (!(dt > 0)) flags.push('non-positive time');
@@ -184,8 +196,8 @@ function directVelocities(
 
 /** One row of the travel-time view: direct times at one station. */
 export interface TravelTimeRow {
-  stationKey: string;
-  receiver: string;
+  stationKey: StationKey;
+  receiver: Station['receiver'];
   wave: Wave;
   depthM: number;
   pathM: number;
@@ -207,7 +219,7 @@ export interface LayerFit {
 }
 
 export interface ProfileRow extends StiffnessRow {
-  intervalKey: string;
+  intervalKey: IntervalKey;
   method: IntervalMethod;
   vpMethod: IntervalMethod | null;
   vpSdMps: number | null;
@@ -239,18 +251,10 @@ export interface Derived {
   issues: ErrorInfo[];
 }
 
-const ONSET_METHODS = new Set(['aic', 'stalta', 'manual']);
-
-function editableMethodOf(p: Pick): EditablePickMethod | null {
-  if (ONSET_METHODS.has(p.method)) return 'onset';
-  if (p.method === 'peak' || p.method === 'trough' || p.method === 'zero-crossing') return p.method;
-  return null;
-}
-
 /** Applies the user's pick edits and exclusions to the automatic picks. */
 export function effectivePicks(stations: readonly Station[], auto: readonly Pick[], edits: UserEdits): Pick[] {
   const excluded = new Set(edits.excludedStations);
-  const byStation = new Map<string, Pick[]>();
+  const byStation = new Map<StationWaveKey, Pick[]>();
   for (const p of auto) {
     const k = stationWaveKey(p.stationKey, p.wave);
     byStation.set(k, [...(byStation.get(k) ?? []), p]);
@@ -259,7 +263,7 @@ export function effectivePicks(stations: readonly Station[], auto: readonly Pick
   for (const s of stations) {
     const k = stationWaveKey(s.key, s.wave);
     const picks = (byStation.get(k) ?? []).map((p) => ({ ...p, flags: [...p.flags] }));
-    for (const m of ['onset', 'peak', 'trough', 'zero-crossing'] as EditablePickMethod[]) {
+    for (const m of EDITABLE_METHODS) {
       const t = edits.picks[pickEditKey(s.key, s.wave, m)];
       if (t === undefined || !Number.isFinite(t)) continue;
       const existing = picks.find((p) => editableMethodOf(p) === m);
@@ -271,7 +275,7 @@ export function effectivePicks(stations: readonly Station[], auto: readonly Pick
         picks.push({
           stationKey: s.key,
           wave: s.wave,
-          method: m === 'onset' ? 'manual' : m,
+          method: pickMethodForEdit(m),
           timeS: t,
           origin: 'edited',
           snr: 0,
@@ -288,7 +292,7 @@ export function effectivePicks(stations: readonly Station[], auto: readonly Pick
 }
 
 function travelTimeRows(survey: Survey, stations: readonly Station[], picks: readonly Pick[]): TravelTimeRow[] {
-  const byStation = new Map<string, Pick[]>();
+  const byStation = new Map<StationWaveKey, Pick[]>();
   for (const p of picks)
     byStation.set(stationWaveKey(p.stationKey, p.wave), [
       ...(byStation.get(stationWaveKey(p.stationKey, p.wave)) ?? []),
@@ -302,8 +306,9 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
       const zs = s.sourcePos[2];
       times[m] = {
         timeS: p.timeS,
-        correctedS:
-          survey.kind === 'crosshole' ? p.timeS : correctedTimeS(p.timeS, zs, s.receiverPos[2], s.straightPathM),
+        correctedS: !hasDepthTimeFits(survey.kind)
+          ? p.timeS
+          : correctedTimeS(p.timeS, zs, s.receiverPos[2], s.straightPathM),
         origin: p.origin,
       };
     }
@@ -333,10 +338,10 @@ function layerModelFor(
   picks: readonly Pick[],
   settings: Settings,
 ): LayerModelFit | null {
-  if (survey.kind === 'crosshole') return null;
+  if (!hasDepthTimeFits(survey.kind)) return null;
   const onset = new Map(
     picks
-      .filter((p) => p.wave === 'S' && p.origin !== 'excluded' && editableMethodOf(p) === 'onset')
+      .filter((p) => p.wave === 'S' && p.origin !== 'excluded' && isOnsetPick(p))
       .map((p) => [p.stationKey, p.timeS]),
   );
   const pts = stations
@@ -362,12 +367,11 @@ function layerFits(
   settings: Settings,
   method: EditablePickMethod,
 ): LayerFit[] {
-  if (survey.kind === 'crosshole') return [];
+  if (!hasDepthTimeFits(survey.kind)) return [];
   const bounds = layerBoundaries(survey, settings, Math.max(0, ...rows.map((r) => r.depthM)));
   const fits: LayerFit[] = [];
   for (const wave of ['S', 'P'] as Wave[]) {
-    const receiver = survey.kind === 'downhole-pair' ? 'upper' : undefined;
-    const ws = rows.filter((r) => r.wave === wave && (!receiver || r.receiver === receiver) && r.times[method]);
+    const ws = rows.filter((r) => r.wave === wave && r.receiver === FIT_SLOT && r.times[method]);
     for (let i = 0; i + 1 < bounds.length; i++) {
       const inLayer = ws.filter((r) => r.depthM >= bounds[i] - 1e-9 && r.depthM <= bounds[i + 1] + 1e-9);
       const fit = fitLine(
@@ -410,7 +414,7 @@ function directTimesFor(
   const pickOf = (s: Station, m: EditablePickMethod) => pickIndex.get(`${s.key}|${m}`);
   const pairInto = new Map(pairs.filter((q) => q.wave === 'S').map((q) => [q.b.key, q]));
   const delayOf = new Map(delays.filter((x) => x.method === method).map((x) => [x.pairKey, x]));
-  if (method === 'xcorr' || method === 'phase') {
+  if (methodInfo(method).kind === 'delay') {
     const out: { station: Station; timeS: number; timeSdS: number }[] = [];
     let t: number | null = null;
     for (const s of list) {
@@ -432,7 +436,7 @@ function directTimesFor(
     }
     return out;
   }
-  const m: EditablePickMethod = method === 'ray-fit' ? 'onset' : method;
+  const m: EditablePickMethod = methodInfo(method).editable ? (method as EditablePickMethod) : 'onset';
   const withPicks = list
     .map((s) => ({ station: s, pick: pickOf(s, m) }))
     .filter((x) => x.pick && Number.isFinite(x.pick.timeS));
@@ -449,10 +453,11 @@ function rayFitFor(
   picks: readonly Pick[],
   delays: readonly PairDelay[],
   settings: Settings,
-): { result: RayFitResult | null; byPair: Map<string, { velocityMps: number; sdMps: number }> } {
-  const byPair = new Map<string, { velocityMps: number; sdMps: number }>();
-  if (survey.kind !== 'downhole' || !settings.rayFit) return { result: null, byPair };
-  const method = settings.profileMethod === 'ray-fit' ? 'xcorr' : settings.profileMethod;
+): { result: RayFitResult | null; byPair: Map<IntervalKey, { velocityMps: number; sdMps: number }> } {
+  const byPair = new Map<IntervalKey, { velocityMps: number; sdMps: number }>();
+  if (!hasSuccessiveDepths(survey) || !methodApplies('ray-fit', survey.kind) || !settings.rayFit)
+    return { result: null, byPair };
+  const method = methodInfo(settings.profileMethod).kind === 'model' ? 'xcorr' : settings.profileMethod;
   const direct = directTimesFor(prepared.stations, prepared.pairs, picks, delays, method);
   if (direct.length < 2) return { result: null, byPair };
   const result = fitLayersWithRays({
@@ -473,17 +478,6 @@ function rayFitFor(
   }
   return { result, byPair };
 }
-
-/** P-interval flags that keep its Vp out of Poisson's ratio and the moduli. */
-const DOUBTFUL_VP_FLAGS = new Set([
-  'low correlation',
-  'at lag bound',
-  'outside lag bound',
-  'slow?',
-  'fast?',
-  'low snr',
-  'no onset',
-]);
 
 function profileRows(
   survey: Survey,
@@ -696,12 +690,12 @@ export function derive(
       field: 'excluded',
     });
   }
-  const picksByStation = new Map<string, Pick[]>();
+  const picksByStation = new Map<StationKey, Pick[]>();
   for (const p of picks) {
     if (p.origin === 'excluded') continue;
     picksByStation.set(p.stationKey, [...(picksByStation.get(p.stationKey) ?? []), p]);
   }
-  const delaysByPair = new Map<string, PairDelay[]>();
+  const delaysByPair = new Map<IntervalKey, PairDelay[]>();
   for (const d of allDelays) delaysByPair.set(d.pairKey, [...(delaysByPair.get(d.pairKey) ?? []), d]);
   const kept = prepared.stations.filter((st) => !excluded.has(stationWaveKey(st.key, st.wave)));
   const ray = rayFitFor(survey, { ...prepared, stations: kept, pairs }, picks, allDelays, settings);

@@ -2,23 +2,11 @@
  * Processing settings and user edits: everything besides the survey and the waveforms that decides the
  * result. Both are plain JSON (they go into project.json and the autosave).
  */
-import type { Wave } from './model';
 
-/**
- * How an interval's travel-time difference is obtained: differences of like picks (onset, first peak,
- * first trough, zero crossing after the first peak), the cross-correlation or phase-slope delay between
- * the two traces, or (downhole) the refracted-ray layer fit of the direct times.
- */
-export type IntervalMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing' | 'xcorr' | 'phase' | 'ray-fit';
-export const INTERVAL_METHODS: IntervalMethod[] = [
-  'xcorr',
-  'onset',
-  'peak',
-  'trough',
-  'zero-crossing',
-  'phase',
-  'ray-fit',
-];
+import type { IntervalMethod, OnsetPicker } from './catalogue/methods';
+import type { IntervalKey, PickEditKey, StationWaveKey } from './keys';
+
+export type { EditablePickMethod, IntervalMethod } from './catalogue/methods';
 
 export type Vs30RuleSetting = 'no-extrapolation' | 'extend-deepest';
 
@@ -37,7 +25,7 @@ export interface Settings {
   bandpassP: BandpassSetting | null;
   /** Use the difference (S) / sum (P) of reversed hits when both directions exist. */
   useReversedHits: boolean;
-  onsetMethod: 'aic' | 'stalta';
+  onsetMethod: OnsetPicker;
   staS: number;
   ltaS: number;
   staLtaThreshold: number;
@@ -96,28 +84,17 @@ export function defaultSettings(): Settings {
   };
 }
 
-/** Pick methods a user can correct by hand ('onset' = the station's first-arrival pick). */
-export type EditablePickMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing';
-
 export interface UserEdits {
   /** Hand-set pick times, s after trigger. Key: pickEditKey(stationKey, wave, method). */
-  picks: Record<string, number>;
+  picks: Record<PickEditKey, number>;
   /** Stations (stationWaveKey) the user excluded: none of their picks or intervals count. */
-  excludedStations: string[];
+  excludedStations: StationWaveKey[];
   /** Per interval key: the method whose value goes into the profile. */
-  chosenMethod: Record<string, IntervalMethod>;
+  chosenMethod: Record<IntervalKey, IntervalMethod>;
   /** Interval keys left out of the profile. */
-  excludedIntervals: string[];
+  excludedIntervals: IntervalKey[];
 }
 
 export function emptyEdits(): UserEdits {
   return { picks: {}, excludedStations: [], chosenMethod: {}, excludedIntervals: [] };
-}
-
-export function stationWaveKey(stationKey: string, wave: Wave): string {
-  return `${stationKey}|${wave}`;
-}
-
-export function pickEditKey(stationKey: string, wave: Wave, method: EditablePickMethod): string {
-  return `${stationKey}|${wave}|${method}`;
 }

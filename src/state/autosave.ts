@@ -10,8 +10,8 @@
  */
 import { create } from 'zustand';
 import { createStore, del, delMany, get, getMany, keys, set, type UseStore } from 'idb-keyval';
-import type { ErrorInfo } from '../core/errors';
-import type { ProjectDocument } from '../core/io/archive';
+import { toErrorInfo, type ErrorInfo } from '../core/errors';
+import { validateProjectDocument, type ProjectDocument } from '../core/io/archive';
 import type { UnitSystem } from '../core/units';
 import type { NamedBytes } from '../worker/protocol';
 import { ioLane } from '../worker/client';
@@ -220,15 +220,18 @@ export async function restoreSession(): Promise<ErrorInfo | null> {
     return e as ErrorInfo;
   }
   const present = new Set(files.map((f) => f.name));
-  applyProject(
-    offer.doc,
-    { files, parsed, missing: offer.doc.files.filter((n) => !present.has(n)) },
-    'the saved session',
-    {
-      namePattern: offer.namePattern,
-      unitSystem: offer.unitSystem,
-    },
-  );
+  let doc: ProjectDocument;
+  try {
+    // A session saved by an older version is migrated like an archive (same rules, same numbers).
+    doc = validateProjectDocument(offer.doc, 'the saved session');
+  } catch (e) {
+    useApp.setState({ loadProgress: null });
+    return toErrorInfo(e, 'the saved session');
+  }
+  applyProject(doc, { files, parsed, missing: doc.files.filter((n) => !present.has(n)) }, 'the saved session', {
+    namePattern: offer.namePattern,
+    unitSystem: offer.unitSystem,
+  });
   useAutosave.setState({ offer: null });
   enableAutosave();
   return null;

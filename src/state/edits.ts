@@ -6,18 +6,13 @@
 import type { Wave } from '../core/model';
 import { toErrorInfo, type ErrorInfo } from '../core/errors';
 import { parseComparisonCsv, type ComparisonProfile } from '../core/stiffness/comparison';
-import {
-  pickEditKey,
-  stationWaveKey,
-  type EditablePickMethod,
-  type IntervalMethod,
-  type Settings,
-  type UserEdits,
-} from '../core/settings';
+import type { Settings, UserEdits } from '../core/settings';
+import type { EditablePickMethod, IntervalMethod } from '../core/catalogue/methods';
+import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core/keys';
 import { amend, commit, useApp, useResults, type Snapshot } from './store';
 
 /** Interval keys that use the station (as either end). */
-export function intervalsOfStation(stationKey: string, wave: Wave): string[] {
+export function intervalsOfStation(stationKey: StationKey, wave: Wave): IntervalKey[] {
   const prepared = useResults.getState().prepared;
   if (!prepared) return [];
   return prepared.pairs
@@ -27,7 +22,7 @@ export function intervalsOfStation(stationKey: string, wave: Wave): string[] {
 
 function withPick(
   edits: UserEdits,
-  stationKey: string,
+  stationKey: StationKey,
   wave: Wave,
   method: EditablePickMethod,
   timeS: number,
@@ -40,21 +35,21 @@ function withPick(
 export const PICK_NOTICE = 'Interval now uses your picks: the profile follows this edit (undo with z).';
 
 /** Sets a hand pick (one undo step). */
-export function setPick(stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): void {
+export function setPick(stationKey: StationKey, wave: Wave, method: EditablePickMethod, timeS: number): void {
   commit((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS) }), PICK_NOTICE);
 }
 
 /** Starts a drag: one undo step now, later moves amend it. */
-export function beginPickDrag(stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): void {
+export function beginPickDrag(stationKey: StationKey, wave: Wave, method: EditablePickMethod, timeS: number): void {
   setPick(stationKey, wave, method, timeS);
 }
 
-export function movePickDrag(stationKey: string, wave: Wave, method: EditablePickMethod, timeS: number): void {
+export function movePickDrag(stationKey: StationKey, wave: Wave, method: EditablePickMethod, timeS: number): void {
   amend((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS) }));
 }
 
 /** Removes the hand pick of a method (back to the automatic one). */
-export function clearPick(stationKey: string, wave: Wave, method: EditablePickMethod): void {
+export function clearPick(stationKey: StationKey, wave: Wave, method: EditablePickMethod): void {
   const key = pickEditKey(stationKey, wave, method);
   if (!(key in useApp.getState().edits.picks)) return;
   commit((s) => {
@@ -65,7 +60,7 @@ export function clearPick(stationKey: string, wave: Wave, method: EditablePickMe
 }
 
 /** Excludes the station (all its picks and intervals), or restores it. */
-export function toggleStationExcluded(stationKey: string, wave: Wave): void {
+export function toggleStationExcluded(stationKey: StationKey, wave: Wave): void {
   const k = stationWaveKey(stationKey, wave);
   const was = useApp.getState().edits.excludedStations.includes(k);
   commit(
@@ -80,7 +75,7 @@ export function toggleStationExcluded(stationKey: string, wave: Wave): void {
 }
 
 /** Method for one interval (null = follow the profile method). */
-export function setIntervalMethod(intervalKey: string, method: IntervalMethod | null): void {
+export function setIntervalMethod(intervalKey: IntervalKey, method: IntervalMethod | null): void {
   commit((s) => {
     const chosen = { ...s.edits.chosenMethod };
     if (method === null) delete chosen[intervalKey];
@@ -89,7 +84,7 @@ export function setIntervalMethod(intervalKey: string, method: IntervalMethod | 
   });
 }
 
-export function toggleIntervalExcluded(intervalKey: string): void {
+export function toggleIntervalExcluded(intervalKey: IntervalKey): void {
   commit((s) => {
     const ex = s.edits.excludedIntervals;
     return {

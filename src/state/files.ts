@@ -9,7 +9,7 @@ import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
 import { readDeviationTable } from '../core/io/deviation';
 import { defaultSettings, emptyEdits } from '../core/settings';
 import { ioLane } from '../worker/client';
-import { newSurvey } from './defaults';
+import { blankSurvey } from '../core/catalogue/testKinds';
 import type { NamedBytes, OpenedArchive, ParsedFile } from '../worker/protocol';
 import { clearRaw, rawFiles, rawRecords } from './raw';
 import {
@@ -72,7 +72,7 @@ function placeNew(newRecords: WaveRecord[]): void {
   replaceWithoutHistory((s) => {
     const ids = new Set(newRecords.map((r) => r.id));
     const kept = s.survey.records.filter((r) => !ids.has(r.recordId));
-    const added = assignRecords(newRecords, s.survey.kind, useApp.getState().namePattern, s.survey.receiverHoleIds);
+    const added = assignRecords(newRecords, s.survey, useApp.getState().namePattern);
     return { survey: { ...s.survey, records: [...kept, ...added] } };
   });
 }
@@ -163,7 +163,7 @@ export function applyProject(
   const unplaced = [...rawRecords.values()].filter((r) => !placed.has(r.id));
   const s = useApp.getState();
   const added: RecordAssignment[] = unplaced.length
-    ? assignRecords(unplaced, doc.survey.kind, extra.namePattern ?? s.namePattern, doc.survey.receiverHoleIds)
+    ? assignRecords(unplaced, doc.survey, extra.namePattern ?? s.namePattern)
     : [];
   useResults.setState({
     prepared: null,
@@ -294,7 +294,7 @@ export function reassignAll(): void {
   commit((snap) => ({
     survey: {
       ...snap.survey,
-      records: assignRecords([...recs, ...loose], snap.survey.kind, s.namePattern, snap.survey.receiverHoleIds),
+      records: assignRecords([...recs, ...loose], snap.survey, s.namePattern),
     },
   }));
 }
@@ -309,7 +309,7 @@ export function startFresh(): void {
     status: { state: 'idle', stage: '', done: 0, total: 0 },
   });
   useApp.setState((st) => ({
-    survey: newSurvey(st.survey.kind),
+    survey: blankSurvey(st.survey.kind),
     settings: defaultSettings(),
     edits: emptyEdits(),
     comparison: null,

@@ -4,6 +4,7 @@
  * a short pause. Soil layers, the profile method and other derive-only inputs do not re-run it.
  */
 import type { Survey } from '../core/model';
+import type { ErrorCode } from '../core/errors';
 import type { Settings } from '../core/settings';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
@@ -67,7 +68,7 @@ export async function runProcessing(): Promise<void> {
       return false;
     });
   } catch (e) {
-    const err = e as { code?: string; message?: string };
+    const err = e as { code?: ErrorCode; message?: string };
     if (err.code === 'CANCELLED') return;
     runningKey = null;
     useResults.setState({

@@ -3,6 +3,7 @@
  * of survey/settings/edits goes through commit() so it can be undone. Derived results are not stored
  * here (see derived.ts); worker results (working traces, automatic picks) sit in useResults.
  */
+import type { IntervalKey, StationKey } from '../core/keys';
 import { create } from 'zustand';
 import type { ErrorInfo } from '../core/errors';
 import type { Survey, TestKind, Wave } from '../core/model';
@@ -12,7 +13,7 @@ import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
 import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
 import type { ComparisonProfile } from '../core/stiffness/comparison';
-import { newSurvey } from './defaults';
+import { blankSurvey } from '../core/catalogue/testKinds';
 
 export interface Snapshot {
   survey: Survey;
@@ -47,9 +48,9 @@ export interface ViewState {
   /** Receiver shown on the Trace board ('' = all). */
   receiver: string;
   editMethod: EditablePickMethod;
-  selectedStation: string | null;
-  hoveredInterval: string | null;
-  selectedInterval: string | null;
+  selectedStation: StationKey | null;
+  hoveredInterval: IntervalKey | null;
+  selectedInterval: IntervalKey | null;
   tool: TraceTool;
   snap: boolean;
   fill: boolean;
@@ -111,7 +112,7 @@ export function initialView(): ViewState {
 
 export function initialState(kind: TestKind = 'downhole'): Omit<AppState, 'view'> & { view: ViewState } {
   return {
-    survey: newSurvey(kind),
+    survey: blankSurvey(kind),
     settings: defaultSettings(),
     edits: emptyEdits(),
     comparison: null,

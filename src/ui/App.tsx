@@ -6,7 +6,7 @@ import { memo, useDeferredValue, useEffect, useRef } from 'react';
 import type { Derived } from '../core/pipeline';
 import type { UnitSystem } from '../core/units';
 import type { Survey, Wave } from '../core/model';
-import type { EditablePickMethod, Settings } from '../core/settings';
+import type { Settings } from '../core/settings';
 import { STANDARD_NAMES } from '../core/stiffness/site';
 import { EXPORT_CAUTIONS } from '../core/report/tables';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
@@ -15,7 +15,8 @@ import { clearPick, setPick, toggleStationExcluded } from '../state/edits';
 import { loadFiles, startFresh } from '../state/files';
 import { cancelProcessing, runProcessing } from '../state/processing';
 import { dismissMessage, redo, setUnitSystem, setView, undo, useApp, useResults } from '../state/store';
-import { TEST_KIND_NAMES } from '../state/defaults';
+import { EDITABLE_METHODS, methodInfo } from '../core/catalogue/methods';
+import { kindInfo } from '../core/catalogue/testKinds';
 import { GeometryPane } from './Geometry';
 import { PairCheck } from './PairCheck';
 import { boardStations, effectiveReceiver, pickFor } from './picks';
@@ -26,9 +27,6 @@ import { TraceBoard } from './TraceBoard';
 import { TravelTime } from './TravelTime';
 import { warmHardwareWebgl } from './gl';
 import { fmt, label, useUnits } from './units';
-import { METHOD_WORDS } from './picks';
-
-const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
 
 function isTyping(t: EventTarget | null): boolean {
   const el = t as HTMLElement | null;
@@ -63,7 +61,7 @@ export function handleKey(e: KeyboardEvent): void {
     return;
   }
   if (key >= '1' && key <= '4') {
-    setView({ editMethod: EDIT_METHODS[Number(key) - 1] });
+    setView({ editMethod: EDITABLE_METHODS[Number(key) - 1] });
     return;
   }
   if (key === 'p') return setView({ tool: 'pick' });
@@ -165,7 +163,7 @@ function TopBar() {
       <span className="survey-name" title="Survey name (edit in Geometry)">
         {survey.name}
       </span>
-      <span className="kind">{TEST_KIND_NAMES[survey.kind]}</span>
+      <span className="kind">{kindInfo(survey.kind).label}</span>
       <span className="seg" role="group" aria-label="Units">
         <button
           className={units === 'SI' ? 'on' : ''}
@@ -318,13 +316,13 @@ const PrintBody = memo(function PrintBody({
     <div className="print-summary" aria-hidden="true">
       <h1>{survey.name}</h1>
       <p>
-        {TEST_KIND_NAMES[survey.kind]} · {survey.records.filter((r) => !r.excluded).length} records · printed{' '}
+        {kindInfo(survey.kind).label} · {survey.records.filter((r) => !r.excluded).length} records · printed{' '}
         {new Date().toLocaleString()}
       </p>
       <h2>Settings</h2>
       <p>
-        Profile method: {METHOD_WORDS[settings.profileMethod]} · onset picker: {settings.onsetMethod} · reversed hits:{' '}
-        {settings.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
+        Profile method: {methodInfo(settings.profileMethod).label} · onset picker: {settings.onsetMethod} · reversed
+        hits: {settings.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
         {settings.bandpassS ? `${settings.bandpassS.lowHz}-${settings.bandpassS.highHz} Hz` : 'none'} · source offset{' '}
         {fmt('depth', units, survey.sourceOffsetM)} {dep} · water table{' '}
         {survey.soil.waterTableM === null ? 'none' : `${fmt('depth', units, survey.soil.waterTableM)} ${dep}`}
@@ -354,7 +352,7 @@ const PrintBody = memo(function PrintBody({
               <td>{fmt('velocity', units, r.vpMps)}</td>
               <td>{fmt('modulus', units, r.gmaxKpa)}</td>
               <td>{fmt('velocity', units, r.vs1Mps)}</td>
-              <td className="text">{METHOD_WORDS[r.method]}</td>
+              <td className="text">{methodInfo(r.method).label}</td>
               <td className="text">{r.flags.join(', ')}</td>
             </tr>
           ))}

@@ -12,20 +12,39 @@ import type {
   RecordAssignment,
   SoilLayer,
   TestKind,
+  ValueSource,
 } from '../core/model';
 import type { BandpassSetting, Settings } from '../core/settings';
 import { STRESS_EXPONENT_CHOICES } from '../core/stiffness/normalise';
-import { DEFAULT_NAME_PATTERN, defaultChannels } from '../core/survey/assign';
+import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
+import { applyPaste } from '../core/survey/paste';
+import type { ReceiverSlot } from '../core/keys';
+import {
+  changeKind,
+  kindInfo,
+  receiverCountOf,
+  receiverLabel,
+  receiverSlots,
+  surfaceSource,
+  TEST_KIND_CATALOGUE,
+} from '../core/catalogue/testKinds';
 import { rawRecords } from '../state/raw';
 import { updateSettings, updateSurvey } from '../state/edits';
 import { loadDeviation, reassignAll } from '../state/files';
-import { newSurvey, TEST_KIND_NAMES } from '../state/defaults';
 import { setNamePattern, useApp } from '../state/store';
 import { fmt, label, parseDisplay, useUnits } from './units';
 import type { QuantityKind, UnitSystem } from '../core/units';
 
 const HITS: HitDirection[] = ['left', 'right', 'up', 'down', 'none'];
 const COMPONENTS: Component[] = ['H1', 'H2', 'V'];
+const SOURCE_WORDS: Record<ValueSource, string> = {
+  user: 'you',
+  log: 'record log',
+  filename: 'file name',
+  header: 'header',
+  data: 'waveforms',
+  default: 'default',
+};
 
 /** Text field that commits on Enter or leaving the field (one undo step per entry, not per key). */
 function Field({
@@ -111,39 +130,24 @@ function NumField({
   );
 }
 
-/**
- * A new test kind: holes and receivers from the blank survey of that kind when the current ones do not
- * fit, and every record's channels given the kind's default meaning (core: defaultChannels). Depths and
- * hits are kept.
- */
-function changeKind(kind: TestKind): void {
-  updateSurvey((s) => {
-    const blank = newSurvey(kind);
-    const holesFit =
-      kind === 'crosshole'
-        ? s.boreholes.length >= 3 && s.receiverHoleIds.length >= 2
-        : s.boreholes.some((h) => h.id === s.mainHoleId);
-    const geometry = holesFit
-      ? {}
-      : {
-          boreholes: blank.boreholes,
-          mainHoleId: blank.mainHoleId,
-          receiverHoleIds: blank.receiverHoleIds,
-          sourceOffsetM: blank.sourceOffsetM,
-        };
-    const receiverHoleIds = holesFit ? s.receiverHoleIds : blank.receiverHoleIds;
-    const records = s.records.map((r) => {
-      const rec = rawRecords.get(r.recordId);
-      return rec ? { ...r, channels: defaultChannels(kind, rec, receiverHoleIds) } : r;
-    });
-    return { ...s, ...geometry, kind, records };
-  });
+/** A new test kind (core: changeKind keeps what fits and resets channel meanings). */
+function changeKindTo(kind: TestKind): void {
+  updateSurvey((s) => changeKind(s, kind, (id) => rawRecords.get(id)?.traces.map((t) => t.channel) ?? null));
 }
 
 function setRecord(id: string, patch: Partial<RecordAssignment>): void {
   updateSurvey((s) => ({
     ...s,
-    records: s.records.map((r) => (r.recordId === id ? { ...r, ...patch, assignedBy: 'manual' } : r)),
+    records: s.records.map((r) =>
+      r.recordId === id
+        ? {
+            ...r,
+            ...patch,
+            ...('depthM' in patch ? { depthSource: 'user' as const } : {}),
+            ...('hit' in patch ? { hitSource: 'user' as const } : {}),
+          }
+        : r,
+    ),
   }));
 }
 
@@ -158,86 +162,10 @@ function setChannel(id: string, channel: number, patch: Partial<ChannelAssignmen
   }));
 }
 
-const HIT_WORDS: Record<string, HitDirection> = {
-  l: 'left',
-  left: 'left',
-  r: 'right',
-  right: 'right',
-  u: 'up',
-  up: 'up',
-  d: 'down',
-  down: 'down',
-  '': 'none',
-  none: 'none',
-  '-': 'none',
-};
-
-/**
- * Applies pasted spreadsheet rows: record name (or row order when no name matches), depth in display
- * units, hit, then optional component / receiver pairs per channel. Returns a summary for the user.
- */
-export function applyPaste(
-  text: string,
-  records: RecordAssignment[],
-  units: UnitSystem,
-): { records: RecordAssignment[]; changed: number; problems: string[] } {
-  const rows = text
-    .replace(/\r/g, '')
-    .split('\n')
-    .filter((l) => l.trim() !== '')
-    .map((l) => l.split('\t'));
-  const out = records.map((r) => ({ ...r, channels: r.channels.map((c) => ({ ...c })) }));
-  const problems: string[] = [];
-  const byName = new Map(out.map((r, i) => [r.recordId.toLowerCase(), i]));
-  const named = rows.some((r) => byName.has((r[0] ?? '').trim().toLowerCase()));
-  let changed = 0;
-  rows.forEach((cells, n) => {
-    let idx: number | undefined;
-    let c = cells;
-    if (named) {
-      idx = byName.get((cells[0] ?? '').trim().toLowerCase());
-      c = cells.slice(1);
-      if (idx === undefined) {
-        if (n > 0 || !/depth|record|file/i.test(cells.join(' ')))
-          problems.push(`Row ${n + 1}: no record named "${cells[0]}".`);
-        return;
-      }
-    } else {
-      idx = n;
-      if (idx >= out.length) {
-        problems.push(`Row ${n + 1}: more rows than records.`);
-        return;
-      }
-    }
-    const r = out[idx];
-    const depth = parseDisplay('depth', units, c[0] ?? '');
-    if ((c[0] ?? '').trim() !== '') {
-      if (depth === null || depth < 0) problems.push(`Row ${n + 1}: depth "${c[0]}" is not a number.`);
-      else r.depthM = depth;
-    }
-    if (c[1] !== undefined && c[1].trim() !== '') {
-      const h = HIT_WORDS[c[1].trim().toLowerCase()];
-      if (h) r.hit = h;
-      else problems.push(`Row ${n + 1}: hit "${c[1]}" is not left, right, up, down or none.`);
-    }
-    for (let k = 0; 2 + 2 * k < c.length && k < r.channels.length; k++) {
-      const comp = c[2 + 2 * k]?.trim().toUpperCase();
-      const rx = c[3 + 2 * k]?.trim();
-      if (comp && (COMPONENTS as string[]).includes(comp)) r.channels[k].component = comp as Component;
-      else if (comp) problems.push(`Row ${n + 1}: component "${comp}" is not H1, H2 or V.`);
-      if (rx) r.channels[k].receiver = rx;
-    }
-    r.assignedBy = 'manual';
-    changed++;
-  });
-  return { records: out, changed, problems };
-}
-
 function RecordsTable({ units }: { units: UnitSystem }) {
   const survey = useApp((s) => s.survey);
   const [pasteNote, setPasteNote] = useState<string | null>(null);
-  const receivers =
-    survey.kind === 'downhole' ? ['R'] : survey.kind === 'downhole-pair' ? ['upper', 'lower'] : survey.receiverHoleIds;
+  const receivers = receiverSlots(survey);
   const maxCh = Math.max(0, ...survey.records.map((r) => r.channels.length));
   const dep = label('depth', units);
   return (
@@ -247,7 +175,10 @@ function RecordsTable({ units }: { units: UnitSystem }) {
         const text = e.clipboardData.getData('text/plain');
         if (!text.includes('\t') && !text.includes('\n')) return;
         e.preventDefault();
-        const res = applyPaste(text, survey.records, units);
+        const res = applyPaste(text, survey.records, units, (typed) => {
+          const t = typed.toLowerCase();
+          return receiverSlots(survey).find((k) => k === t || receiverLabel(survey, k).toLowerCase() === t) ?? null;
+        });
         if (res.changed) updateSurvey((s) => ({ ...s, records: res.records }));
         setPasteNote(`${res.changed} rows applied.${res.problems.length ? ' ' + res.problems.join(' ') : ''}`);
       }}
@@ -301,7 +232,7 @@ function RecordsTable({ units }: { units: UnitSystem }) {
                   aria-label={`Use ${r.recordId}`}
                 />
               </td>
-              <td className="muted">{r.assignedBy === 'filename' ? 'file name' : r.assignedBy}</td>
+              <td className="muted">{SOURCE_WORDS[r.depthSource]}</td>
               {r.channels.map((c) => (
                 <td key={c.channel} className="chan">
                   <select
@@ -316,11 +247,13 @@ function RecordsTable({ units }: { units: UnitSystem }) {
                   @
                   <select
                     value={c.receiver}
-                    onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value })}
+                    onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value as ReceiverSlot })}
                     aria-label={`Receiver of channel ${c.channel}`}
                   >
                     {[...new Set([...receivers, c.receiver])].map((k) => (
-                      <option key={k}>{k}</option>
+                      <option key={k} value={k}>
+                        {receiverLabel(survey, k)}
+                      </option>
                     ))}
                   </select>
                 </td>
@@ -710,15 +643,15 @@ export function GeometryPane() {
         </label>
         <label>
           Test{' '}
-          <select value={survey.kind} onChange={(e) => changeKind(e.target.value as TestKind)} aria-label="Test kind">
-            {(Object.keys(TEST_KIND_NAMES) as TestKind[]).map((k) => (
-              <option key={k} value={k}>
-                {TEST_KIND_NAMES[k]}
+          <select value={survey.kind} onChange={(e) => changeKindTo(e.target.value as TestKind)} aria-label="Test kind">
+            {TEST_KIND_CATALOGUE.map((k) => (
+              <option key={k.id} value={k.id}>
+                {k.label}
               </option>
             ))}
           </select>
         </label>
-        {survey.kind !== 'crosshole' ? (
+        {surfaceSource(survey.kind) ? (
           <>
             <label>
               Receiver hole{' '}
@@ -751,7 +684,35 @@ export function GeometryPane() {
                 ariaLabel="Source depth"
               />
             </label>
-            {survey.kind === 'downhole-pair' && (
+            {kindInfo(survey.kind).receiverCounts.length > 1 && (
+              <label>
+                Receivers{' '}
+                <select
+                  value={receiverCountOf(survey)}
+                  onChange={(e) => updateSurvey((s) => ({ ...s, receiverCount: Number(e.target.value) }))}
+                  aria-label="Receivers"
+                >
+                  {kindInfo(survey.kind).receiverCounts.map((n) => (
+                    <option key={n} value={n}>
+                      {n}
+                    </option>
+                  ))}
+                </select>
+              </label>
+            )}
+            {kindInfo(survey.kind).tipLogged && (
+              <label>
+                Receiver above tip ({label('depth', units)}){' '}
+                <QtyField
+                  kind="depth"
+                  units={units}
+                  si={survey.coneOffsetM}
+                  onCommit={(v) => v !== null && v >= 0 && updateSurvey((s) => ({ ...s, coneOffsetM: v }))}
+                  ariaLabel="Cone receiver offset"
+                />
+              </label>
+            )}
+            {receiverCountOf(survey) === 2 && (
               <label>
                 Receiver spacing ({label('depth', units)}){' '}
                 <QtyField

@@ -3,13 +3,14 @@
  * back by the chosen travel-time difference, with the cross-correlation coefficient from the core; and
  * the reversed hits of the selected station overlaid (first direction solid, second dashed).
  */
+import { methodInfo } from '../core/catalogue/methods';
 import { useMemo } from 'react';
-import { reversedDirections } from '../core/survey/stations';
+import { reversedDirections } from '../core/catalogue/testKinds';
 import { useDerived } from '../state/derived';
 import { rawRecords } from '../state/raw';
 import { useApp, useResults } from '../state/store';
 import { decimateMinMax, mean, peakAbs } from './decimate';
-import { focusInterval, METHOD_WORDS } from './picks';
+import { focusInterval } from './picks';
 import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
 import { fmt, label, useUnits } from './units';
 
@@ -160,7 +161,7 @@ export function PairCheck() {
         {pair && chosen ? (
           <>
             {fmt('depth', units, pair.topM)}–{fmt('depth', units, pair.bottomM)} {label('depth', units)} ·{' '}
-            {METHOD_WORDS[chosen.method]} Δt = {chosen.dtS !== null ? (chosen.dtS * 1000).toFixed(3) : '–'} ms ·
+            {methodInfo(chosen.method).label} Δt = {chosen.dtS !== null ? (chosen.dtS * 1000).toFixed(3) : '–'} ms ·
             cross-correlation r = {xcorr ? xcorr.coefficient.toFixed(3) : '–'}
           </>
         ) : (

@@ -3,7 +3,8 @@
  * comparison table (every method's interval velocity, the one used, flags as short words).
  */
 import { memo, useMemo, useRef, useState } from 'react';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
+import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core/catalogue/methods';
+import type { IntervalKey, StationKey } from '../core/keys';
 import type { IntervalValue } from '../core/velocity/intervals';
 import type { ComparisonResult, ProfileRow } from '../core/pipeline';
 import type { ComparisonProfile } from '../core/stiffness/comparison';
@@ -18,7 +19,6 @@ import {
   updateSettings,
 } from '../state/edits';
 import { setView, useApp } from '../state/store';
-import { METHOD_SHORT, METHOD_WORDS } from './picks';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { fromDisplay } from '../core/units';
 import { disp, fmt, label, useUnits } from './units';
@@ -263,7 +263,7 @@ const TOP_AXIS = {
 };
 
 interface IntervalGroup {
-  key: string;
+  key: IntervalKey;
   topM: number;
   bottomM: number;
   byMethod: Partial<Record<IntervalMethod, IntervalValue>>;
@@ -285,7 +285,7 @@ function groups(intervals: readonly IntervalValue[], wave: 'S' | 'P'): IntervalG
 interface RowProps {
   /** Everything the row shows, as one string: the row redraws only when it changes. */
   sig: string;
-  groupKey: string;
+  groupKey: IntervalKey;
   top: string;
   bottom: string;
   cells: { method: IntervalMethod; chosen: boolean; text: string }[];
@@ -296,7 +296,7 @@ interface RowProps {
   methods: IntervalMethod[];
   profileMethod: IntervalMethod;
   depLabel: string;
-  stationB: string | null;
+  stationB: StationKey | null;
   compare: { other: string; diff: string } | null;
   showCompare: boolean;
   flags: string;
@@ -337,10 +337,10 @@ const IntervalRow = memo(
             onChange={(e) => setIntervalMethod(p.groupKey, e.target.value ? (e.target.value as IntervalMethod) : null)}
             aria-label={`Method for ${p.top}-${p.bottom} ${p.depLabel}`}
           >
-            <option value="">({METHOD_SHORT[p.profileMethod]})</option>
+            <option value="">({methodInfo(p.profileMethod).shortLabel})</option>
             {p.methods.map((m) => (
               <option key={m} value={m}>
-                {METHOD_SHORT[m]}
+                {methodInfo(m).shortLabel}
               </option>
             ))}
           </select>
@@ -453,7 +453,7 @@ export function IntervalsTable() {
           >
             {INTERVAL_METHODS.map((m) => (
               <option key={m} value={m}>
-                {METHOD_WORDS[m]}
+                {methodInfo(m).label}
               </option>
             ))}
           </select>
@@ -483,8 +483,8 @@ export function IntervalsTable() {
               {/* Flags before the method columns so they stay in view in the narrow Profile pane. */}
               <th className="text">Flags</th>
               {methods.map((m) => (
-                <th key={m} title={METHOD_WORDS[m]}>
-                  {METHOD_SHORT[m]} ({v})
+                <th key={m} title={methodInfo(m).label}>
+                  {methodInfo(m).shortLabel} ({v})
                 </th>
               ))}
               <th>Used</th>

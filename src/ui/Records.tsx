@@ -3,10 +3,10 @@
  * every file with its status and, for a file that cannot be read, its error in plain words.
  */
 import { useRef, useState } from 'react';
-import type { TestKind } from '../core/model';
 import { loadFiles, openDemo, removeFile } from '../state/files';
 import { setView, useApp, type RecordMeta } from '../state/store';
-import { TEST_KIND_NAMES } from '../state/defaults';
+import { kindInfo } from '../core/catalogue/testKinds';
+import { DEMO_KINDS } from '../core/synth/demo';
 import { fmt, useUnits } from './units';
 
 export async function filesFromList(list: FileList | File[]): Promise<{ name: string; bytes: Uint8Array }[]> {
@@ -93,9 +93,9 @@ export function RecordsPane() {
       )}
       <div className="demo">
         Open the demo survey:{' '}
-        {(['downhole', 'downhole-pair', 'crosshole'] as TestKind[]).map((k) => (
+        {DEMO_KINDS.map((k) => (
           <button key={k} onClick={() => void openDemo(k)} data-demo={k}>
-            {TEST_KIND_NAMES[k]}
+            {kindInfo(k).label}
           </button>
         ))}
       </div>

@@ -3,6 +3,7 @@
  * questions each standard asks beyond Vs30, cautions) and Export (tables from core/report, plots as
  * images, the project archive, a printable summary).
  */
+import { hasDirectVelocities } from '../core/catalogue/testKinds';
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
 import {
   directTable,
@@ -233,7 +234,7 @@ export function ExportSheet() {
         <button disabled={!ready} onClick={() => csv('layers')}>
           Layer fits: straight-line and refracted-ray (CSV)
         </button>
-        {surveyKind === 'crosshole' && (
+        {hasDirectVelocities(surveyKind) && (
           <button disabled={!ready} onClick={() => csv('direct')}>
             Direct velocities, source to each receiver (CSV)
           </button>

@@ -3,12 +3,15 @@
  * (auto = hollow circle, edited = filled circle with a dark rim, excluded = small grey cross), click to
  * place a pick on the nearest trace, drag to move it, keys to nudge (see KeyboardHelp).
  */
+import { EDITABLE_METHODS, methodInfo } from '../core/catalogue/methods';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Wave } from '../core/model';
 import type { EditablePickMethod } from '../core/settings';
+import type { TestKind } from '../core/model';
+import type { IntervalKey } from '../core/keys';
 import type { Station } from '../core/survey/stations';
-import { reversedDirections } from '../core/survey/stations';
-import { stationWaveKey } from '../core/settings';
+import { reversedDirections } from '../core/catalogue/testKinds';
+import { stationWaveKey } from '../core/keys';
 import { currentDerived, useDerived } from '../state/derived';
 import type { IntervalValue } from '../core/velocity/intervals';
 import { beginPickDrag, movePickDrag } from '../state/edits';
@@ -16,7 +19,7 @@ import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
 import { snapTimeS } from '../core/picking/snap';
 import { decimateMinMax, dropFlatRuns, mean, medianStep, peakAbs } from './decimate';
-import { boardStations, effectiveReceiver, pickFor, receiversOf, METHOD_WORDS } from './picks';
+import { boardStations, effectiveReceiver, pickFor, receiversOf } from './picks';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { disp, label, useUnits } from './units';
 import { hardwareWebgl } from './gl';
@@ -27,7 +30,6 @@ export const WEBGL_TRACE_THRESHOLD = 40;
 /** Excluded-pick cross: a grey dark enough to see on the wiggles, still clearly not a pick colour. */
 const EXCLUDED_GREY = '#616e7c';
 
-const EDIT_METHODS: EditablePickMethod[] = ['onset', 'peak', 'trough', 'zero-crossing'];
 const BOARD_CONFIG = { doubleClick: 'reset' };
 const OVERLAY_CONFIG = { staticPlot: true, responsive: true };
 
@@ -58,7 +60,7 @@ interface WiggleInput {
   gain: number;
   fill: boolean;
   hitView: 'working' | 'both';
-  kind: 'downhole' | 'downhole-pair' | 'crosshole';
+  kind: TestKind;
   gl: boolean;
   colour: string;
   /** A third of a pixel in depth units: flat runs closer than this to a straight line are not drawn point by point. */
@@ -234,7 +236,7 @@ function intervalAtDepth(
   stations: readonly Station[],
   depthOf: (s: Station) => number,
   y: number,
-): string | null {
+): IntervalKey | null {
   const onBoard = new Map(stations.map((s) => [s.key, depthOf(s)]));
   for (const r of intervals) {
     if (r.wave !== wave || !r.chosen) continue;
@@ -592,9 +594,9 @@ export function TraceBoard() {
             onChange={(e) => setView({ editMethod: e.target.value as EditablePickMethod })}
             aria-label="Pick method being edited"
           >
-            {EDIT_METHODS.map((m, i) => (
+            {EDITABLE_METHODS.map((m, i) => (
               <option key={m} value={m}>
-                {i + 1} {METHOD_WORDS[m]}
+                {i + 1} {methodInfo(m).label}
               </option>
             ))}
           </select>

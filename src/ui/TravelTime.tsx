@@ -2,11 +2,13 @@
  * Travel time: direct times against depth for one pick method, raw (hollow) and slant-corrected
  * (filled), with the core's layer fits drawn as lines over each layer's stations.
  */
+import { methodInfo } from '../core/catalogue/methods';
+import { receiverLabel, receiverSlots } from '../core/catalogue/testKinds';
+import type { ReceiverSlot } from '../core/keys';
 import { useMemo } from 'react';
 import { useDerived } from '../state/derived';
 import { useApp, useResults } from '../state/store';
 import { effectiveReceiver } from './picks';
-import { METHOD_WORDS } from './picks';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, type PlotData } from './plot';
 import { disp, fmt, label, useUnits } from './units';
 
@@ -18,6 +20,7 @@ export function TravelTime() {
   const wave = view.wave;
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
   const stations = useResults((s) => s.prepared?.stations);
+  const survey = useApp((s) => s.survey);
   const receiver = effectiveReceiver(stations ?? [], wave, view.receiver);
   // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw this plot.
   const travelTimes = d?.travelTimes;
@@ -133,8 +136,11 @@ export function TravelTime() {
     <section className="strip-pane" aria-label="Travel time">
       <h2>Travel time</h2>
       <div className="pane-note">
-        {METHOD_WORDS[method]} picks, {wave} wave{receiver !== '*' && receiver !== 'R' ? `, receiver ${receiver}` : ''}:
-        ○ time after trigger · ● slant-corrected · lines: layer fits
+        {methodInfo(method).label} picks, {wave} wave
+        {receiver !== '*' && receiverSlots(survey).length > 1
+          ? `, ${receiverLabel(survey, receiver as ReceiverSlot)}`
+          : ''}
+        : ○ time after trigger · ● slant-corrected · lines: layer fits
         {layerModel && wave === 'S' && method === 'onset'
           ? ` (line = straight slant paths; ray = refracted rays, RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)`
           : ''}

@@ -1,18 +1,15 @@
 /** Small view helpers about picks and stations (lookups only; nothing here computes a pick). */
 import type { Pick, Wave } from '../core/model';
-import type { EditablePickMethod } from '../core/settings';
+import { pickIsMethod, type EditablePickMethod } from '../core/catalogue/methods';
 import type { Station } from '../core/survey/stations';
 import type { Derived } from '../core/pipeline';
+import { slotIndex, type IntervalKey, type StationKey } from '../core/keys';
 
-const ONSET = new Set(['aic', 'stalta', 'manual']);
-
-export function isMethod(p: Pick, m: EditablePickMethod): boolean {
-  return m === 'onset' ? ONSET.has(p.method) : p.method === m;
-}
+export const isMethod = pickIsMethod;
 
 export function pickFor(
   picks: readonly Pick[],
-  stationKey: string,
+  stationKey: StationKey,
   wave: Wave,
   m: EditablePickMethod,
 ): Pick | undefined {
@@ -26,18 +23,16 @@ export function boardStations(stations: readonly Station[], wave: Wave, receiver
     .sort((a, b) => a.depthM - b.depthM || a.receiver.localeCompare(b.receiver));
 }
 
-/** Receivers with stations of the wave, in survey order: upper before lower, near hole before far. */
-export function receiversOf(stations: readonly Station[], wave: Wave): string[] {
+/** Receivers with stations of the wave, in slot order: upper before lower, near hole before far. */
+export function receiversOf(stations: readonly Station[], wave: Wave): Station['receiver'][] {
   const list = [...new Set(stations.filter((s) => s.wave === wave).map((s) => s.receiver))];
-  const rank = (r: string) => (r === 'upper' || r === 'R' ? 0 : r === 'lower' ? 1 : 2);
-  const firstDepth = (r: string) => Math.min(...stations.filter((s) => s.receiver === r).map((s) => s.straightPathM));
-  return list.sort((a, b) => rank(a) - rank(b) || firstDepth(a) - firstDepth(b));
+  return list.sort((a, b) => slotIndex(a) - slotIndex(b));
 }
 
 /** The receiver shown when the user has not chosen one: the first receiver that has stations. */
 export function effectiveReceiver(stations: readonly Station[], wave: Wave, chosen: string): string {
   const list = receiversOf(stations, wave);
-  if (chosen === '*' || list.includes(chosen)) return chosen;
+  if (chosen === '*' || (list as string[]).includes(chosen)) return chosen;
   return list[0] ?? '*';
 }
 
@@ -47,9 +42,10 @@ export function focusInterval(
   selectedInterval: string | null,
   selectedStation: string | null,
   wave: Wave,
-): string | null {
+): IntervalKey | null {
   if (!d) return null;
-  if (selectedInterval && d.intervals.some((r) => r.key === selectedInterval)) return selectedInterval;
+  const sel = selectedInterval ? d.intervals.find((r) => r.key === selectedInterval) : undefined;
+  if (sel) return sel.key;
   if (selectedStation) {
     const r =
       d.intervals.find((x) => x.wave === wave && x.stationB === selectedStation) ??
@@ -58,23 +54,3 @@ export function focusInterval(
   }
   return d.intervals.find((x) => x.wave === wave && x.chosen)?.key ?? null;
 }
-
-export const METHOD_WORDS: Record<string, string> = {
-  onset: 'onset',
-  peak: 'first peak',
-  trough: 'first trough',
-  'zero-crossing': 'zero crossing',
-  xcorr: 'cross-correlation',
-  phase: 'phase slope',
-  'ray-fit': 'ray fit',
-};
-
-export const METHOD_SHORT: Record<string, string> = {
-  onset: 'Onset',
-  peak: 'Peak',
-  trough: 'Trough',
-  'zero-crossing': 'Zero x',
-  xcorr: 'X-corr',
-  phase: 'Phase',
-  'ray-fit': 'Ray fit',
-};

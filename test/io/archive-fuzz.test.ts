@@ -18,6 +18,8 @@ const survey: Survey = {
   sourceOffsetM: 0,
   sourceDepthM: 0,
   receiverSpacingM: 0,
+  receiverCount: 2,
+  coneOffsetM: 0.2,
   receiverHoleIds: ['B', 'C'],
   records: [],
   soil: { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },

@@ -1,12 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import {
-  autoPickStation,
-  autoPickSurvey,
-  pairDelays,
-  type DelayRequest,
-  type PickingSettings,
-  type WorkingTrace,
-} from '../../src/core/picking/autopick';
+import { autoPickStation, autoPickSurvey, pairDelays, type PickingSettings } from '../../src/core/picking/autopick';
+import type { DelayRequest, WorkingTrace } from '../../src/core/model';
+import { intervalKey, stationKey } from '../../src/core/keys';
 import { pickUncertaintyS } from '../../src/core/picking/quality';
 import { gaussianNoise, onsetPulse } from './helpers';
 
@@ -33,7 +28,7 @@ function station(z: number, snr: number, seed: number, amplitude = 1): WorkingTr
   for (let i = 0; i < n; i++) x[i] += noise[i];
   const t = onsetS(z);
   return {
-    stationKey: `R@${z}`,
+    stationKey: stationKey('r0', z, 'H1'),
     wave: 'S',
     samples: x,
     sampleIntervalS: dt,
@@ -46,15 +41,22 @@ function station(z: number, snr: number, seed: number, amplitude = 1): WorkingTr
 
 const aic: PickingSettings = { onsetMethod: 'aic', staS: 0.003, ltaS: 0.03, staLtaThreshold: 3, phaseBandHz: null };
 
+/** Depths of each pair, by its key. */
+const depthsOfPair = new Map<string, [number, number]>();
+
 function pairsFor(zs: number[]): DelayRequest[] {
   const out: DelayRequest[] = [];
   for (let i = 0; i + 1 < zs.length; i++) {
     const dr = Math.hypot(offsetM, zs[i + 1]) - Math.hypot(offsetM, zs[i]);
+    depthsOfPair.set(intervalKey('S', stationKey('r0', zs[i], 'H1'), stationKey('r0', zs[i + 1], 'H1')), [
+      zs[i],
+      zs[i + 1],
+    ]);
     out.push({
-      pairKey: `${zs[i]}-${zs[i + 1]}`,
+      pairKey: intervalKey('S', stationKey('r0', zs[i], 'H1'), stationKey('r0', zs[i + 1], 'H1')),
       wave: 'S',
-      a: `R@${zs[i]}`,
-      b: `R@${zs[i + 1]}`,
+      a: stationKey('r0', zs[i], 'H1'),
+      b: stationKey('r0', zs[i + 1], 'H1'),
       minDelayS: dr / 1500,
       maxDelayS: dr / 50,
     });
@@ -121,7 +123,7 @@ describe('autoPickStation', () => {
 
   it('throws a BorewaveError naming the station when the search window misses the trace', () => {
     const t = { ...station(5, 20, 1), searchStartS: 1, searchEndS: 2 };
-    expect(() => autoPickStation(t, aic)).toThrow(/R@5/);
+    expect(() => autoPickStation(t, aic)).toThrow(/r0@5000/);
   });
 });
 
@@ -134,7 +136,7 @@ describe('pairDelays and autoPickSurvey', () => {
     expect(res.problems).toEqual([]);
     expect(res.delays.length).toBe(pairs.length);
     for (const d of res.delays) {
-      const [z1, z2] = d.pairKey.split('-').map(Number);
+      const [z1, z2] = depthsOfPair.get(d.pairKey)!;
       const want = onsetS(z2) - onsetS(z1);
       expect(d.method).toBe('xcorr');
       expect(Math.abs(d.delayS - want)).toBeLessThan(4 * d.uncertaintyS);
@@ -152,7 +154,7 @@ describe('pairDelays and autoPickSurvey', () => {
     const phase = res.delays.filter((d) => d.method === 'phase');
     expect(phase.length).toBe(pairs.length);
     for (const d of phase) {
-      const [z1, z2] = d.pairKey.split('-').map(Number);
+      const [z1, z2] = depthsOfPair.get(d.pairKey)!;
       const err = Math.abs(d.delayS - (onsetS(z2) - onsetS(z1)));
       expect(err).toBeLessThan(4 * d.uncertaintyS);
       expect(err / dt).toBeLessThan(2);
@@ -174,11 +176,14 @@ describe('pairDelays and autoPickSurvey', () => {
   });
 
   it('reports a bad trace and a pair with a missing station in problems and goes on with the rest', () => {
-    const bad = { ...traces[0], stationKey: 'broken', searchStartS: 5, searchEndS: 6 };
-    const reqs = [...pairs.slice(0, 2), { ...pairs[0], pairKey: 'x', a: 'nowhere' }];
+    const broken = stationKey('r0', 99, 'H1');
+    const nowhere = stationKey('r0', 98, 'H1');
+    const x = intervalKey('S', nowhere, broken);
+    const bad = { ...traces[0], stationKey: broken, searchStartS: 5, searchEndS: 6 };
+    const reqs = [...pairs.slice(0, 2), { ...pairs[0], pairKey: x, a: nowhere }];
     const calls: [number, number][] = [];
     const res = autoPickSurvey([bad, ...traces.slice(0, 3)], reqs, aic, (done, total) => calls.push([done, total]));
-    expect(res.problems.map((p) => p.file)).toEqual(['broken', 'x']);
+    expect(res.problems.map((p) => p.file)).toEqual([broken, x]);
     expect(res.problems[1].code).toBe('PAIR_MISSING_STATION');
     expect(res.delays.length).toBe(2);
     expect(calls[calls.length - 1]).toEqual([7, 7]);

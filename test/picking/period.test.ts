@@ -32,17 +32,21 @@ describe('dominant period from the main lobe (zero crossings around the largest 
   });
 });
 
-import { pairDelays, type WorkingTrace } from '../../src/core/picking/autopick';
+import { pairDelays } from '../../src/core/picking/autopick';
+import type { WorkingTrace } from '../../src/core/model';
+import { intervalKey, stationKey, type StationKey } from '../../src/core/keys';
 
 describe('pair delay with bounds narrower than one sample (very short path difference)', () => {
   it('still searches one sample either side instead of failing', () => {
     const dt = 5e-5;
+    const A = stationKey('r0', 1, 'H1');
+    const B = stationKey('r0', 2, 'H1');
     const pulse = (t0: number) =>
       Float64Array.from({ length: 2048 }, (_, i) => {
         const a = (Math.PI * 100 * (i * dt - t0)) ** 2;
         return (1 - 2 * a) * Math.exp(-a);
       });
-    const mk = (key: string, t0: number): WorkingTrace => ({
+    const mk = (key: StationKey, t0: number): WorkingTrace => ({
       stationKey: key,
       wave: 'S',
       samples: pulse(t0),
@@ -52,9 +56,9 @@ describe('pair delay with bounds narrower than one sample (very short path diffe
       searchEndS: 0.09,
     });
     const [d] = pairDelays(
-      mk('a', 0.03),
-      mk('b', 0.03001),
-      { pairKey: 'p', wave: 'S', a: 'a', b: 'b', minDelayS: 0.000012, maxDelayS: 0.00003 },
+      mk(A, 0.03),
+      mk(B, 0.03001),
+      { pairKey: intervalKey('S', A, B), wave: 'S', a: A, b: B, minDelayS: 0.000012, maxDelayS: 0.00003 },
       { onsetMethod: 'aic', staS: 0.001, ltaS: 0.01, staLtaThreshold: 4, phaseBandHz: null },
     );
     // true delay 0.01 ms = 0.2 sample (analytic shift)

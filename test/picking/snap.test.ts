@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { snapTimeS } from '../../src/core/picking/snap';
-import type { WorkingTrace } from '../../src/core/picking/autopick';
+import type { WorkingTrace } from '../../src/core/model';
+import { stationKey } from '../../src/core/keys';
 
 // A Ricker wavelet centred at t0 (closed form): peak at t0, zero crossings at t0 +- 1/(pi f sqrt 2),
 // troughs at t0 +- sqrt(1.5)/(pi f).
@@ -12,7 +13,7 @@ const samples = Float64Array.from({ length: 4000 }, (_, i) => {
   return (1 - 2 * a) * Math.exp(-a);
 });
 const trace: WorkingTrace = {
-  stationKey: 'R@1.000:H1',
+  stationKey: stationKey('r0', 1, 'H1'),
   wave: 'S',
   samples,
   sampleIntervalS: dt,

@@ -6,7 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { runPipeline, derive } from '../../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, siteJson, toCsv } from '../../src/core/report/tables';
-import { defaultSettings, emptyEdits, pickEditKey } from '../../src/core/settings';
+import { defaultSettings, emptyEdits } from '../../src/core/settings';
+import { pickEditKey, stationKey, stationWaveKey } from '../../src/core/keys';
 import { demoCrossholeGeometry, demoEarthModel, synthesizeSurvey, type SynthResult } from '../../src/core/synth';
 
 const opts = {
@@ -86,7 +87,7 @@ describe('bad geometry is named; the rest of the survey still computes', () => {
     for (const r of res.survey.records) if (r.depthM === 1) r.depthM = 0; // the user typed 0 for the first depth
     const out = run(res);
     const problem = out.derived.issues.find((i) => i.code === 'STATION_ZERO_DISTANCE');
-    expect(problem?.file).toContain('@0.000');
+    expect(problem?.file).toBe(stationKey('r0', 0, 'H1'));
     expect(out.derived.intervals.some((r) => r.wave === 'S' && r.chosen && r.velocityMps! > 0)).toBe(true);
   });
   it('a deviation table that is not monotonic is reported for its hole, which is taken as vertical', () => {
@@ -181,7 +182,7 @@ describe('excluding a depth in a one-receiver downhole survey bridges it', () =>
     const first = run(res);
     const st = first.prepared.stations.find((s) => s.wave === 'S' && s.depthM === 4)!;
     const edits = emptyEdits();
-    edits.excludedStations.push(`${st.key}|S`);
+    edits.excludedStations.push(stationWaveKey(st.key, 'S'));
     const d = derive(res.survey, first.prepared, first.auto, edits, defaultSettings());
     const note = d.issues.find((i) => i.code === 'STATION_EXCLUDED')!;
     expect(note.message).toContain('3-4 m, 4-5 m are replaced by 3-5 m');
@@ -194,10 +195,10 @@ describe('excluding a depth in a one-receiver downhole survey bridges it', () =>
     expect(xc.flags).toContain('bridges excluded station');
     // The bridged xcorr delay equals the sum of the two original delays within a sample (same traces, linear delays).
     const d34 = first.auto.delays.find(
-      (x) => x.method === 'xcorr' && x.pairKey.includes('R@3.000') && x.pairKey.includes('R@4.000'),
+      (x) => x.method === 'xcorr' && x.pairKey.includes('r0@3000:') && x.pairKey.includes('r0@4000:'),
     )!.delayS;
     const d45 = first.auto.delays.find(
-      (x) => x.method === 'xcorr' && x.pairKey.includes('R@4.000') && x.pairKey.includes('R@5.000'),
+      (x) => x.method === 'xcorr' && x.pairKey.includes('r0@4000:') && x.pairKey.includes('r0@5000:'),
     )!.delayS;
     expect(Math.abs(xc.dtS! - (d34 + d45))).toBeLessThan(5e-5);
   });

@@ -3,6 +3,7 @@ import { zipSync, strToU8 } from 'fflate';
 import { newProjectDocument, readProjectArchive, writeProjectArchive } from '../../src/core/io/archive';
 import { BorewaveError } from '../../src/core/errors';
 import type { Survey } from '../../src/core/model';
+import { pickEditKey, stationKey } from '../../src/core/keys';
 
 const survey: Survey = {
   name: 'Test',
@@ -12,15 +13,27 @@ const survey: Survey = {
   sourceOffsetM: 2,
   sourceDepthM: 0,
   receiverSpacingM: 1,
+  receiverCount: 1,
+  coneOffsetM: 0.2,
   receiverHoleIds: [],
-  records: [{ recordId: 'a.sg2', depthM: 1, hit: 'left', channels: [], excluded: false, assignedBy: 'manual' }],
+  records: [
+    {
+      recordId: 'a.sg2',
+      depthM: 1,
+      hit: 'left',
+      channels: [],
+      excluded: false,
+      depthSource: 'user',
+      hitSource: 'user',
+    },
+  ],
   soil: { layers: [], waterTableM: 2, waterUnitWeightKnM3: 9.81 },
 };
 
 describe('project archive (design.md contract: project.json + original files in one zip, via fflate)', () => {
   it('round trip keeps the document and the file bytes exactly', () => {
     const doc = newProjectDocument(survey);
-    doc.edits.picks['R@1.000:H1|S|onset'] = 0.0123;
+    doc.edits.picks[pickEditKey(stationKey('r0', 1, 'H1'), 'S', 'onset')] = 0.0123;
     const bytes = new Uint8Array([0x55, 0x3a, 1, 2, 3]);
     const zip = writeProjectArchive(doc, [{ name: 'a.sg2', bytes }]);
     const back = readProjectArchive(zip, 'p.zip');

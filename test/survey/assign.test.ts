@@ -59,14 +59,14 @@ describe('record placement from SEG-2 headers (Pullan 1990 keywords RECEIVER_LOC
   it('headers win over the name; a record with neither is left for the user', () => {
     const [a, b] = assignRecords(
       [rec('dh_d3.0_L.sg2', {}, [0, 0, 4]), rec('mystery.sg2')],
-      'downhole',
+      { kind: 'downhole', receiverCount: 1 },
       DEFAULT_NAME_PATTERN,
     );
     expect(a.depthM).toBe(4);
-    expect(a.assignedBy).toBe('header');
+    expect(a.depthSource).toBe('header');
     expect(a.hit).toBe('left');
     expect(b.depthM).toBeNull();
-    expect(b.assignedBy).toBe('manual');
+    expect(b.depthSource).toBe('default');
     expect(a.channels.map((c) => c.component)).toEqual(['H1', 'H2', 'V']);
   });
 });

@@ -268,10 +268,10 @@ describe('crosshole through deviated holes (straight ray at the layer velocity o
     expect(survey.mainHoleId).toBe('B1');
     expect(survey.receiverHoleIds).toEqual(['B2', 'B3']);
     expect(survey.records[0].channels.map((c) => `${c.channel}:${c.receiver}:${c.component}`)).toEqual([
-      '1:B2:V',
-      '2:B2:H1',
-      '3:B3:V',
-      '4:B3:H1',
+      '1:r0:V',
+      '2:r0:H1',
+      '3:r1:V',
+      '4:r1:H1',
     ]);
   });
 });
@@ -303,14 +303,7 @@ describe('two-receiver downhole and the survey description', () => {
       'dhp_d6.0_L.sg2',
       'dhp_d6.0_R.sg2',
     ]);
-    expect(survey.records[0].channels.map((c) => c.receiver)).toEqual([
-      'upper',
-      'upper',
-      'upper',
-      'lower',
-      'lower',
-      'lower',
-    ]);
+    expect(survey.records[0].channels.map((c) => c.receiver)).toEqual(['r0', 'r0', 'r0', 'r1', 'r1', 'r1']);
   });
 
   it('survey soil column: layers from the model, stress exponent 0.5 clay / 0.25 sand (domain.md section 4), Poisson 0.3', () => {

@@ -8,9 +8,11 @@ import { BorewaveError } from '../errors';
 import type { Survey } from '../model';
 import type { ComparisonProfile } from '../stiffness/comparison';
 import { defaultSettings, emptyEdits, type Settings, type UserEdits } from '../settings';
+import { isTestKind, TEST_KINDS } from '../catalogue/testKinds';
+import { migrateV1SurveyAndEdits } from './project/migrate';
 
 export const PROJECT_FORMAT = 'borewave-project';
-export const PROJECT_VERSION = 1;
+export const PROJECT_VERSION = 2;
 
 export interface ProjectDocument {
   format: typeof PROJECT_FORMAT;
@@ -88,17 +90,20 @@ export function validateProjectDocument(raw: unknown, archiveName: string): Proj
     throw new BorewaveError('PROJECT_BAD_FIELD', `project.json: ${field} ${problem}.`, archiveName, field);
   };
   if (typeof raw !== 'object' || raw === null) fail('(document)', 'is not a JSON object');
-  const d = raw as Record<string, unknown>;
+  let d = raw as Record<string, unknown>;
   if (d.format !== PROJECT_FORMAT) fail('format', `is "${String(d.format)}", expected "${PROJECT_FORMAT}"`);
   if (typeof d.version !== 'number' || d.version > PROJECT_VERSION)
     fail('version', `${String(d.version)} is not supported (this program reads up to ${PROJECT_VERSION})`);
   const s = d.survey as Record<string, unknown> | undefined;
   if (!s || typeof s !== 'object') fail('survey', 'is missing');
-  if (!['downhole', 'downhole-pair', 'crosshole'].includes(String(s!.kind)))
-    fail('survey.kind', `"${String(s!.kind)}" is not downhole, downhole-pair or crosshole`);
+  if (!isTestKind(s!.kind)) fail('survey.kind', `"${String(s!.kind)}" is not one of ${TEST_KINDS.join(', ')}`);
   if (!Array.isArray(s!.records)) fail('survey.records', 'is not a list');
   if (!Array.isArray(s!.boreholes)) fail('survey.boreholes', 'is not a list');
   if (!Array.isArray(d.files)) fail('files', 'is not a list');
+  if (d.version === 1) {
+    d = structuredClone(d);
+    migrateV1SurveyAndEdits(d);
+  }
   const settings = { ...defaultSettings(), ...((d.settings as object) ?? {}) } as Settings;
   const edits = { ...emptyEdits(), ...((d.edits as object) ?? {}) } as UserEdits;
   return { ...(d as unknown as ProjectDocument), settings, edits };

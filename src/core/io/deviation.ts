@@ -3,14 +3,14 @@
  * from the collar. Header optional; metres unless a header cell names feet (0.3048 m/ft exactly,
  * international foot, NIST SP 811). Separators, comments and decimal comma as for waveform text.
  */
-import { BorewaveError } from '../errors';
+import { BorewaveError, type ErrorCode } from '../errors';
 import type { DeviationStation } from '../model';
 import { allowsDecimalComma, headerTokens, isHeaderRow, parseCell, splitTextRows } from './text';
 
 /** International foot in metres, exact by definition (NIST SP 811). */
 export const METRES_PER_FOOT = 0.3048;
 
-function fail(code: string, message: string, file: string, field?: string): never {
+function fail(code: ErrorCode, message: string, file: string, field?: string): never {
   throw new BorewaveError(code, `${file}: ${message}`, file, field);
 }
 

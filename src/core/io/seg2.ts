@@ -7,7 +7,7 @@
  * Every declared size and pointer is checked against the file length before anything is allocated
  * or read, so a corrupt header fails with a typed error instead of allocating or reading past the end.
  */
-import { BorewaveError } from '../errors';
+import { BorewaveError, type ErrorCode } from '../errors';
 import type { ByteOrder, Trace, WaveRecord } from '../model';
 import { decodeUtf8, encodeUtf8 } from './bytes';
 
@@ -26,7 +26,7 @@ interface Terminators {
   lineTerminator: string;
 }
 
-function fail(code: string, message: string, file: string, field?: string): never {
+function fail(code: ErrorCode, message: string, file: string, field?: string): never {
   throw new BorewaveError(code, `${file}: ${message}`, file, field);
 }
 

@@ -4,7 +4,7 @@
  * comment lines start with # or //; the header row is optional. Quoted cells are handled by papaparse.
  */
 import Papa from 'papaparse';
-import { BorewaveError } from '../errors';
+import { BorewaveError, type ErrorCode } from '../errors';
 import type { Trace, WaveRecord } from '../model';
 
 export type Separator = ',' | ';' | '\t' | 'whitespace';
@@ -126,7 +126,7 @@ function checkRegularTime(time: Float64Array, decimals: number, data: TextRow[],
   }
 }
 
-function fail(code: string, message: string, file: string, field?: string): never {
+function fail(code: ErrorCode, message: string, file: string, field?: string): never {
   throw new BorewaveError(code, `${file}: ${message}`, file, field);
 }
 

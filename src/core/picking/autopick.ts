@@ -16,36 +16,13 @@
  * Per pair (pairDelays): see pairWindows for the window rule.
  */
 import { BorewaveError, toErrorInfo, type ErrorInfo } from '../errors';
-import type { PairDelay, Pick, PickMethod, Wave } from '../model';
+import type { PickFlag } from '../flags';
+import type { DelayRequest, PairDelay, Pick, PickMethod, Wave, WorkingTrace } from '../model';
 import { cosineTaper } from '../signal/filter';
 import { correlationDelay, phaseSlopeDelay } from './delay';
 import { characteristicPoints, spectrumSummary } from './features';
 import { aicOnsetIndex, staLtaOnsetIndex } from './onset';
 import { delayUncertaintyS, pickUncertaintyS, signalToNoise } from './quality';
-
-export interface WorkingTrace {
-  stationKey: string;
-  wave: Wave;
-  /** Already conditioned samples. */
-  samples: Float64Array;
-  sampleIntervalS: number;
-  /** Time of sample 0 after the trigger, s. */
-  delayS: number;
-  /** Arrival search window after the trigger, s (from geometry and plausible velocities). */
-  searchStartS: number;
-  searchEndS: number;
-}
-
-export interface DelayRequest {
-  pairKey: string;
-  wave: Wave;
-  /** Station keys: b is expected later than a. */
-  a: string;
-  b: string;
-  /** Bounds on the delay of b after a, s (cycle-skip guard). */
-  minDelayS: number;
-  maxDelayS: number;
-}
 
 export interface PickingSettings {
   onsetMethod: 'aic' | 'stalta';
@@ -183,10 +160,10 @@ export function analyseStation(t: WorkingTrace, s: PickingSettings): StationAnal
   const uncertaintyS = pickUncertaintyS(snr, dt, periodS);
   const cp = characteristicPoints(x, anchor, dt, t.delayS, { searchS: span * dt });
 
-  const common: string[] = [];
+  const common: PickFlag[] = [];
   if (snr < LOW_SNR) common.push('low snr');
   if (onset.index === null) common.push('no onset');
-  const make = (method: PickMethod, timeS: number, polarity: 1 | -1, extra: string[] = []): Pick => ({
+  const make = (method: PickMethod, timeS: number, polarity: 1 | -1, extra: PickFlag[] = []): Pick => ({
     stationKey: t.stationKey,
     wave: t.wave,
     method,
@@ -311,7 +288,7 @@ export function pairDelaysFromAnalysis(
     );
   }
   const w = pairWindows(a, b, req);
-  const common: string[] = [];
+  const common: PickFlag[] = [];
   if (a.onsetIdx === null || b.onsetIdx === null) common.push('no onset');
   let lagLoS = req.minDelayS - w.offsetS;
   let lagHiS = req.maxDelayS - w.offsetS;

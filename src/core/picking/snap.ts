@@ -5,7 +5,8 @@
  */
 import { aicOnsetIndex } from './onset';
 import { characteristicPoints } from './features';
-import { lobePeriodS, type WorkingTrace } from './autopick';
+import type { WorkingTrace } from '../model';
+import { lobePeriodS } from './autopick';
 import type { EditablePickMethod } from '../settings';
 
 export function snapTimeS(w: WorkingTrace, method: EditablePickMethod, timeS: number): number {

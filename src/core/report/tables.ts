@@ -4,6 +4,7 @@
  * cell: they become empty cells and the row carries a flag. Cells a spreadsheet would run as a formula
  * are neutralised in toCsv(). Every export carries the cautions.
  */
+import type { Flag } from '../flags';
 import Papa from 'papaparse';
 import type { Station } from '../survey/stations';
 import type { Derived, ProfileRow } from '../pipeline';
@@ -82,7 +83,7 @@ export function picksTable(stations: readonly Station[], d: Derived, system: Uni
   ];
   const rows: Cell[][] = d.picks.map((p) => {
     const s = byKey.get(p.stationKey);
-    const flags = [...p.flags];
+    const flags: Flag[] = [...p.flags];
     if (!Number.isFinite(p.timeS)) flags.push('no value');
     return [
       p.stationKey,
@@ -125,7 +126,7 @@ export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const rows: Cell[][] = d.intervals.map((r) => {
     const v = u.value('velocity', r.velocityMps, 2);
     const sd = u.value('velocity', r.velocitySdMps, 2);
-    const flags = [...r.flags];
+    const flags: Flag[] = [...r.flags];
     if (v === null && !flags.length) flags.push('no value');
     return [
       u.value('depth', r.topM, 3),

@@ -11,7 +11,8 @@
  * File-name pattern: `{depth}` a number in metres (decimal point, comma or 'p'), `{depth_ft}` in feet,
  * `{hit}` one of L R U D / left right up down, `*` anything; other characters literal; case ignored.
  */
-import type { ChannelAssignment, HitDirection, RecordAssignment, TestKind, WaveRecord } from '../model';
+import type { HitDirection, RecordAssignment, Survey, ValueSource, WaveRecord } from '../model';
+import { defaultChannels } from '../catalogue/testKinds';
 
 export const DEFAULT_NAME_PATTERN = '*d{depth}_{hit}.*';
 const FT_TO_M = 0.3048;
@@ -103,31 +104,10 @@ export function placeFromHeaders(rec: WaveRecord): { depthM: number | null; hit:
   return { depthM: depthM !== null && Number.isFinite(depthM) && depthM >= 0 ? depthM : null, hit };
 }
 
-/**
- * Default channel meaning per test kind (common practice for our demo layouts; editable in Geometry):
- * downhole 1-3 = H1 H2 V of receiver R; two-receiver 1-3 upper, 4-6 lower; crosshole per receiver hole
- * (near, far) two channels each: V then H1.
- */
-export function defaultChannels(
-  kind: TestKind,
-  rec: WaveRecord,
-  receiverHoleIds: readonly string[],
-): ChannelAssignment[] {
-  const comps = ['H1', 'H2', 'V'] as const;
-  return rec.traces.map((t, i) => {
-    if (kind === 'downhole') return { channel: t.channel, component: comps[i % 3], receiver: 'R' };
-    if (kind === 'downhole-pair')
-      return { channel: t.channel, component: comps[i % 3], receiver: i < 3 ? 'upper' : 'lower' };
-    const hole = receiverHoleIds[Math.min(Math.floor(i / 2), receiverHoleIds.length - 1)] ?? 'near';
-    return { channel: t.channel, component: i % 2 === 0 ? 'V' : 'H1', receiver: hole };
-  });
-}
-
 export function assignRecords(
   records: readonly WaveRecord[],
-  kind: TestKind,
+  survey: Pick<Survey, 'kind' | 'receiverCount'>,
   pattern: string,
-  receiverHoleIds: readonly string[] = [],
 ): RecordAssignment[] {
   const compiled = compileNamePattern(pattern);
   return records.map((rec) => {
@@ -135,15 +115,20 @@ export function assignRecords(
     const fromName = placeFromName(rec.fileName, compiled);
     const depthM = fromHeader.depthM ?? fromName.depthM;
     const hit = fromHeader.hit ?? fromName.hit ?? 'none';
-    const assignedBy: RecordAssignment['assignedBy'] =
-      fromHeader.depthM !== null ? 'header' : fromName.depthM !== null ? 'filename' : 'manual';
+    const depthSource: ValueSource =
+      fromHeader.depthM !== null ? 'header' : fromName.depthM !== null ? 'filename' : 'default';
+    const hitSource: ValueSource = fromHeader.hit ? 'header' : fromName.hit ? 'filename' : 'default';
     return {
       recordId: rec.id,
       depthM,
       hit,
-      channels: defaultChannels(kind, rec, receiverHoleIds),
+      channels: defaultChannels(
+        survey,
+        rec.traces.map((t) => t.channel),
+      ),
       excluded: false,
-      assignedBy,
+      depthSource,
+      hitSource,
     };
   });
 }

@@ -5,11 +5,20 @@
  * (common practice; Robertson et al. 1986 for the reversed-hit idea (from memory)).
  */
 import { BorewaveError, toErrorInfo, type ErrorInfo } from '../errors';
-import type { Component, HitDirection, Survey, TestKind, Wave, WaveRecord } from '../model';
+import type { Component, HitDirection, Survey, Wave, WaveRecord, WorkingTrace } from '../model';
 import type { Settings } from '../settings';
+import type { StationFlag } from '../flags';
+import { stationKey, type ReceiverSlot, type StationKey } from '../keys';
+import {
+  componentFor,
+  holesUsed,
+  receiverDepthM,
+  receiverHole,
+  reversedDirections,
+  surfaceSource,
+} from '../catalogue/testKinds';
 import { conditionTrace } from '../signal/condition';
 import { reversedDifference, reversedSum, stackTraces } from '../signal/stack';
-import type { WorkingTrace } from '../picking/autopick';
 import { distanceM, findHole, positionAlongHole, validateDeviation, type Vec3 } from './geometry';
 
 export interface StationHit {
@@ -19,10 +28,13 @@ export interface StationHit {
 }
 
 export interface Station {
-  key: string;
-  receiver: string;
-  /** Receiver depth along the hole, m (the depth the user assigned). */
+  key: StationKey;
+  /** Receiver slot (r0, r1 ...) in the test kind's layout. */
+  receiver: ReceiverSlot;
+  /** Receiver depth along the hole, m (from the logged depth by the kind catalogue's receiverDepthM). */
   depthM: number;
+  /** Logged depth of the records, m (the station key's depth; the cone's tip depth). */
+  loggedDepthM: number;
   component: Component;
   wave: Wave;
   receiverPos: Vec3;
@@ -32,41 +44,17 @@ export interface Station {
   hits: StationHit[];
   workingKind: 'difference' | 'sum' | 'stack' | 'single';
   working: WorkingTrace;
-  flags: string[];
-}
-
-/** Component that carries each wave for each test kind (common practice: horizontal beam -> SH on the
- * horizontal along the beam, P on the vertical; vertical hits in a crosshole -> SV on the vertical,
- * P on the radial horizontal). */
-export function componentFor(kind: TestKind, wave: Wave): Component {
-  if (kind === 'crosshole') return wave === 'S' ? 'V' : 'H1';
-  return wave === 'S' ? 'H1' : 'V';
-}
-
-/** The two directions that reverse the shear wave: first minus second is the difference trace. */
-export function reversedDirections(kind: TestKind): [HitDirection, HitDirection] {
-  return kind === 'crosshole' ? ['up', 'down'] : ['left', 'right'];
-}
-
-export function stationKey(receiver: string, depthM: number, component: Component): string {
-  return `${receiver}@${depthM.toFixed(3)}:${component}`;
-}
-
-/** Receiver depth of a channel's receiver for a record depth. */
-export function receiverDepthM(survey: Survey, receiver: string, recordDepthM: number): number {
-  return survey.kind === 'downhole-pair' && receiver === 'lower'
-    ? recordDepthM + survey.receiverSpacingM
-    : recordDepthM;
+  flags: StationFlag[];
 }
 
 /** Positions of the receiver and the source for one station. */
 export function stationPositions(
   survey: Survey,
-  receiver: string,
+  receiver: ReceiverSlot,
   depthM: number,
 ): { receiverPos: Vec3; sourcePos: Vec3; beyondSurvey: boolean } {
-  if (survey.kind === 'crosshole') {
-    const rx = positionAlongHole(findHole(survey.boreholes, receiver), depthM);
+  if (!surfaceSource(survey.kind)) {
+    const rx = positionAlongHole(findHole(survey.boreholes, receiverHole(survey, receiver)), depthM);
     const sx = positionAlongHole(findHole(survey.boreholes, survey.mainHoleId), depthM);
     return { receiverPos: rx.pos, sourcePos: sx.pos, beyondSurvey: rx.beyondSurvey || sx.beyondSurvey };
   }
@@ -115,7 +103,14 @@ export function buildStations(
     }
   });
   survey = { ...survey, boreholes };
-  type Group = { receiver: string; depthM: number; component: Component; wave: Wave; hits: StationHit[] };
+  type Group = {
+    receiver: ReceiverSlot;
+    depthM: number;
+    loggedDepthM: number;
+    component: Component;
+    wave: Wave;
+    hits: StationHit[];
+  };
   const groups = new Map<string, Group>();
   const waves: Wave[] = ['S', 'P'];
   for (const ra of survey.records) {
@@ -152,21 +147,24 @@ export function buildStations(
           continue;
         }
         const depthM = receiverDepthM(survey, ch.receiver, ra.depthM);
-        const key = stationKey(ch.receiver, depthM, comp);
+        const key = stationKey(ch.receiver, ra.depthM, comp);
         const gk = `${key}|${wave}`;
         let g = groups.get(gk);
-        if (!g) groups.set(gk, (g = { receiver: ch.receiver, depthM, component: comp, wave, hits: [] }));
+        if (!g)
+          groups.set(
+            gk,
+            (g = { receiver: ch.receiver, depthM, loggedDepthM: ra.depthM, component: comp, wave, hits: [] }),
+          );
         g.hits.push({ recordId: ra.recordId, channel: ch.channel, hit: ra.hit });
       }
     }
   }
   const stations: Station[] = [];
   for (const g of groups.values()) {
-    const key = stationKey(g.receiver, g.depthM, g.component);
+    const key = stationKey(g.receiver, g.loggedDepthM, g.component);
     try {
-      const st = buildStation(survey, records, settings, g.receiver, g.depthM, g.component, g.wave, g.hits);
-      const holesUsed = survey.kind === 'crosshole' ? [g.receiver, survey.mainHoleId] : [survey.mainHoleId];
-      if (holesUsed.some((h) => badHoles.has(h))) st.flags.push('deviation table rejected');
+      const st = buildStation(survey, records, settings, g);
+      if (holesUsed(survey, g.receiver).some((h) => badHoles.has(h))) st.flags.push('deviation table rejected');
       stations.push(st);
     } catch (e) {
       issues.push(toErrorInfo(e, key));
@@ -174,7 +172,9 @@ export function buildStations(
   }
   stations.sort(
     (a, b) =>
-      (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.receiver.localeCompare(b.receiver) || a.depthM - b.depthM,
+      (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) ||
+      a.receiver.localeCompare(b.receiver, 'en', { numeric: true }) ||
+      a.depthM - b.depthM,
   );
   return { stations, issues };
 }
@@ -183,14 +183,18 @@ function buildStation(
   survey: Survey,
   records: ReadonlyMap<string, WaveRecord>,
   settings: Settings,
-  receiver: string,
-  depthM: number,
-  component: Component,
-  wave: Wave,
-  hits: StationHit[],
+  g: {
+    receiver: ReceiverSlot;
+    depthM: number;
+    loggedDepthM: number;
+    component: Component;
+    wave: Wave;
+    hits: StationHit[];
+  },
 ): Station {
-  const key = stationKey(receiver, depthM, component);
-  const flags: string[] = [];
+  const { receiver, depthM, loggedDepthM, component, wave, hits } = g;
+  const key = stationKey(receiver, loggedDepthM, component);
+  const flags: StationFlag[] = [];
   const traces = hits.map((h) => records.get(h.recordId)!.traces.find((t) => t.channel === h.channel)!);
   const dtS = traces[0].sampleIntervalS;
   const delayS = traces[0].delayS;
@@ -247,6 +251,7 @@ function buildStation(
     key,
     receiver,
     depthM,
+    loggedDepthM,
     component,
     wave,
     receiverPos,

@@ -3,6 +3,8 @@
  * clay, sands and gravels on weathered mudstone. Numbers are ours, chosen inside the typical ranges
  * of shared/domain.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
  */
+import { TEST_KINDS } from '../catalogue/testKinds';
+import { BorewaveError } from '../errors';
 import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/archive';
 import { writeSeg2 } from '../io/seg2';
 import { encodeUtf8 } from '../io/bytes';
@@ -201,33 +203,40 @@ export interface DemoPlan {
   formatCode: 1 | 2 | 4;
 }
 
-export function demoPlan(kind: TestKind): DemoPlan {
-  if (kind === 'downhole')
-    return {
-      kind,
-      folder: 'downhole',
-      geometry: demoDownholeGeometry(),
-      options: demoDownholeOptions(),
-      byteOrder: 'little',
-      formatCode: 4,
-    };
-  if (kind === 'downhole-pair')
-    return {
-      kind,
-      folder: 'downhole-pair',
-      geometry: demoPairGeometry(),
-      options: demoPairOptions(),
-      byteOrder: 'big',
-      formatCode: 1,
-    };
-  return {
-    kind,
+const DEMO_PLANS: Partial<Record<TestKind, () => DemoPlan>> = {
+  downhole: () => ({
+    kind: 'downhole',
+    folder: 'downhole',
+    geometry: demoDownholeGeometry(),
+    options: demoDownholeOptions(),
+    byteOrder: 'little',
+    formatCode: 4,
+  }),
+  'downhole-pair': () => ({
+    kind: 'downhole-pair',
+    folder: 'downhole-pair',
+    geometry: demoPairGeometry(),
+    options: demoPairOptions(),
+    byteOrder: 'big',
+    formatCode: 1,
+  }),
+  crosshole: () => ({
+    kind: 'crosshole',
     folder: 'crosshole',
     geometry: demoCrossholeGeometry(),
     options: demoCrossholeOptions(),
     byteOrder: 'big',
     formatCode: 2,
-  };
+  }),
+};
+
+/** Test kinds that have a demo survey, in catalogue order. */
+export const DEMO_KINDS: readonly TestKind[] = TEST_KINDS.filter((k) => DEMO_PLANS[k]);
+
+export function demoPlan(kind: TestKind): DemoPlan {
+  const plan = DEMO_PLANS[kind];
+  if (!plan) throw new BorewaveError('SYNTH_BAD_OPTION', `There is no demo survey of kind ${kind}.`, 'demo', 'kind');
+  return plan();
 }
 
 export interface DemoProject {

@@ -24,6 +24,8 @@
  *   every arrival of that record (recorded time = travel time + delay, as in V = D/(t - t0)).
  * - Noise: white Gaussian, per channel, standard deviation = (peak |S| over the record's channels) / snr.
  */
+import { receiverSlot } from '../keys';
+import { DEFAULT_CONE_OFFSET_M } from '../catalogue/testKinds';
 import { BorewaveError } from '../errors';
 import type {
   Borehole,
@@ -554,15 +556,17 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
 function assignmentFor(shot: ShotSpec, kind: TestKind): RecordAssignment {
   const channels: ChannelAssignment[] = [];
   let ch = 1;
-  for (const r of shot.receivers)
-    for (const component of componentsFor(kind)) channels.push({ channel: ch++, component, receiver: r.name });
+  shot.receivers.forEach((_, i) => {
+    for (const component of componentsFor(kind)) channels.push({ channel: ch++, component, receiver: receiverSlot(i) });
+  });
   return {
     recordId: shot.recordId,
     depthM: shot.depthM,
     hit: shot.hit,
     channels,
     excluded: false,
-    assignedBy: 'filename',
+    depthSource: 'filename',
+    hitSource: 'filename',
   };
 }
 
@@ -582,6 +586,8 @@ export function synthesizeSurvey(model: EarthModel, geometry: SynthGeometry, o: 
     sourceDepthM: 0,
     sourceOffsetM: 0,
     receiverSpacingM: 0,
+    receiverCount: geometry.kind === 'downhole' ? 1 : 2,
+    coneOffsetM: DEFAULT_CONE_OFFSET_M,
     receiverHoleIds: [] as string[],
     records: shots.map((s) => assignmentFor(s, geometry.kind)),
     soil: soilColumnFromModel(model, deepestM),

@@ -1,23 +1,34 @@
 /**
  * Pairs of stations and their interval velocities by every method.
  *
- * Pairing rules (ASTM D7400 downhole, D4428 crosshole; shared/domain.md s.2):
- * - downhole (one receiver, successive hits): successive depths of the same receiver -> pseudo interval;
- * - two-receiver downhole: the upper and lower receiver of the same hit -> true interval;
- * - crosshole: the near and far receiver holes at the same depth -> crosshole interval.
+ * Pairing rules (ASTM D7400 downhole, D4428 crosshole; docs/methods.md), chosen by the test-kind
+ * catalogue (src/core/catalogue/testKinds.ts, pairingRule):
+ * - successive (one receiver: downhole, cone): successive depths of the same receiver -> pseudo interval;
+ * - same-hit (two receivers: probe, cone): the upper and lower receiver of the same hit -> true interval;
+ * - same-depth (crosshole): the near and far receiver holes at the same depth -> crosshole interval.
  * Interval V = (L_b - L_a)/(t_b - t_a), L the straight source-receiver distance (slant distance for a
  * surface source; 3-D distance between deviated positions for crosshole).
  */
-import type { PairDelay, Pick, Survey, Wave } from '../model';
-import type { IntervalMethod, Settings, UserEdits } from '../settings';
-import type { DelayRequest } from '../picking/autopick';
+import type { DelayRequest, PairDelay, Pick, Survey, Wave } from '../model';
+import type { Settings, UserEdits } from '../settings';
 import type { Station } from '../survey/stations';
+import type { IntervalFlag } from '../flags';
+import { intervalKey, type IntervalKey, type StationKey } from '../keys';
+import { pairingRule } from '../catalogue/testKinds';
+import {
+  DELAY_METHODS,
+  FALLBACK_ORDER,
+  PICK_INTERVAL_METHODS,
+  methodInfo,
+  pickIsMethod,
+  type IntervalMethod,
+} from '../catalogue/methods';
 import { intervalVelocityMps, intervalVelocitySdMps } from './formulas';
 
 export type IntervalKind = 'pseudo' | 'true' | 'crosshole';
 
 export interface StationPair {
-  key: string;
+  key: IntervalKey;
   wave: Wave;
   kind: IntervalKind;
   a: Station;
@@ -28,11 +39,11 @@ export interface StationPair {
 }
 
 export interface IntervalValue {
-  key: string;
+  key: IntervalKey;
   wave: Wave;
   kind: IntervalKind;
-  stationA: string;
-  stationB: string;
+  stationA: StationKey;
+  stationB: StationKey;
   topM: number;
   bottomM: number;
   pathAM: number;
@@ -43,19 +54,16 @@ export interface IntervalValue {
   velocityMps: number | null;
   velocitySdMps: number | null;
   chosen: boolean;
-  flags: string[];
-}
-
-export function pairKey(wave: Wave, a: string, b: string): string {
-  return `${wave}:${a}>${b}`;
+  flags: IntervalFlag[];
 }
 
 /** Pairs for the survey's test kind (excluded stations already removed by the caller). */
 export function pairStations(survey: Survey, stations: readonly Station[]): StationPair[] {
   const pairs: StationPair[] = [];
+  const rule = pairingRule(survey);
   for (const wave of ['S', 'P'] as Wave[]) {
     const ws = stations.filter((s) => s.wave === wave);
-    if (survey.kind === 'downhole') {
+    if (rule === 'successive') {
       const byReceiver = new Map<string, Station[]>();
       for (const s of ws) byReceiver.set(s.receiver, [...(byReceiver.get(s.receiver) ?? []), s]);
       for (const list of byReceiver.values()) {
@@ -64,7 +72,7 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
           const [a, b] = [list[i], list[i + 1]];
           if (b.depthM - a.depthM < 1e-6) continue;
           pairs.push({
-            key: pairKey(wave, a.key, b.key),
+            key: intervalKey(wave, a.key, b.key),
             wave,
             kind: 'pseudo',
             a,
@@ -74,14 +82,12 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
           });
         }
       }
-    } else if (survey.kind === 'downhole-pair') {
-      for (const up of ws.filter((s) => s.receiver === 'upper')) {
-        const low = ws.find(
-          (s) => s.receiver === 'lower' && Math.abs(s.depthM - (up.depthM + survey.receiverSpacingM)) < 1e-6,
-        );
+    } else if (rule === 'same-hit') {
+      for (const up of ws.filter((s) => s.receiver === 'r0')) {
+        const low = ws.find((s) => s.receiver === 'r1' && Math.abs(s.loggedDepthM - up.loggedDepthM) < 1e-6);
         if (!low) continue;
         pairs.push({
-          key: pairKey(wave, up.key, low.key),
+          key: intervalKey(wave, up.key, low.key),
           wave,
           kind: 'true',
           a: up,
@@ -91,11 +97,10 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
         });
       }
     } else {
-      const [nearId, farId] = survey.receiverHoleIds;
-      const near = ws.filter((s) => s.receiver === nearId).sort((x, y) => x.depthM - y.depthM);
+      const near = ws.filter((s) => s.receiver === 'r0').sort((x, y) => x.depthM - y.depthM);
       const depths = near.map((s) => s.depthM);
       near.forEach((a, i) => {
-        const b = ws.find((s) => s.receiver === farId && Math.abs(s.depthM - a.depthM) < 1e-6);
+        const b = ws.find((s) => s.receiver === 'r1' && Math.abs(s.depthM - a.depthM) < 1e-6);
         if (!b) return;
         // A crosshole test depth stands for the span halfway to its neighbours.
         const up =
@@ -106,7 +111,7 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
           i + 1 < depths.length
             ? (depths[i + 1] + a.depthM) / 2
             : a.depthM + (depths.length > 1 ? (depths[i] - depths[i - 1]) / 2 : 0.5);
-        pairs.push({ key: pairKey(wave, a.key, b.key), wave, kind: 'crosshole', a, b, topM: up, bottomM: down });
+        pairs.push({ key: intervalKey(wave, a.key, b.key), wave, kind: 'crosshole', a, b, topM: up, bottomM: down });
       });
     }
   }
@@ -122,24 +127,13 @@ export function delayRequests(pairs: readonly StationPair[], settings: Settings)
   });
 }
 
-const PICK_METHOD_OF: Partial<Record<IntervalMethod, (p: Pick) => boolean>> = {
-  onset: (p) => p.method === 'aic' || p.method === 'stalta' || p.method === 'manual',
-  peak: (p) => p.method === 'peak',
-  trough: (p) => p.method === 'trough',
-  'zero-crossing': (p) => p.method === 'zero-crossing',
-};
-
-/** Fallback order when the chosen method has no value for an interval (common practice: like-for-like
- * whole-pulse measures first, onset last). */
-const FALLBACK: IntervalMethod[] = ['xcorr', 'zero-crossing', 'peak', 'trough', 'onset', 'phase'];
-
 export interface IntervalInputs {
   pairs: StationPair[];
   /** Effective picks (auto with user edits applied; excluded ones removed). */
-  picksByStation: Map<string, Pick[]>;
-  delaysByPair: Map<string, PairDelay[]>;
+  picksByStation: Map<StationKey, Pick[]>;
+  delaysByPair: Map<IntervalKey, PairDelay[]>;
   /** Ray-fit interval velocities by pair key (downhole), when computed. */
-  rayFit: Map<string, { velocityMps: number; sdMps: number }>;
+  rayFit: Map<IntervalKey, { velocityMps: number; sdMps: number }>;
   settings: Settings;
   edits: UserEdits;
 }
@@ -164,9 +158,9 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     const dL = pair.b.straightPathM - pair.a.straightPathM;
     const rows: IntervalValue[] = [];
     const range = pair.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
-    const stationFlags = [...new Set([...pair.a.flags, ...pair.b.flags])];
-    const finish = (method: IntervalMethod, dtS: number | null, dtSdS: number, extraFlags: string[]) => {
-      const flags = [...new Set([...stationFlags, ...extraFlags])];
+    const stationFlags: IntervalFlag[] = [...new Set([...pair.a.flags, ...pair.b.flags])];
+    const finish = (method: IntervalMethod, dtS: number | null, dtSdS: number, extraFlags: IntervalFlag[]) => {
+      const flags: IntervalFlag[] = [...new Set([...stationFlags, ...extraFlags])];
       let v: number | null = null;
       let sd: number | null = null;
       if (dtS !== null) {
@@ -185,19 +179,18 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     };
     const pa = inp.picksByStation.get(pair.a.key) ?? [];
     const pb = inp.picksByStation.get(pair.b.key) ?? [];
-    for (const m of ['onset', 'peak', 'trough', 'zero-crossing'] as IntervalMethod[]) {
-      const sel = PICK_METHOD_OF[m]!;
-      const a = pa.find(sel);
-      const b = pb.find(sel);
+    for (const m of PICK_INTERVAL_METHODS) {
+      const a = pa.find((p) => pickIsMethod(p, m));
+      const b = pb.find((p) => pickIsMethod(p, m));
       if (!a || !b) {
         finish(m, null, 0, ['no pick']);
         continue;
       }
-      const flags = [...new Set([...a.flags, ...b.flags])].filter((f) => f !== 'edited');
+      const flags: IntervalFlag[] = [...new Set([...a.flags, ...b.flags])].filter((f) => f !== 'edited');
       if (a.origin === 'edited' || b.origin === 'edited') flags.push('edited');
       finish(m, b.timeS - a.timeS, Math.hypot(a.uncertaintyS, b.uncertaintyS), flags);
     }
-    for (const m of ['xcorr', 'phase'] as const) {
+    for (const m of DELAY_METHODS) {
       const d = (inp.delaysByPair.get(pair.key) ?? []).find((x) => x.method === m);
       if (!d) {
         if (m === 'xcorr' || settings.phaseBandHz) finish(m, null, 0, ['no delay']);
@@ -207,7 +200,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     }
     const rf = inp.rayFit.get(pair.key);
     if (rf) {
-      const flags: string[] = [];
+      const flags: IntervalFlag[] = [];
       if (rf.velocityMps < range[0]) flags.push('slow?');
       if (rf.velocityMps > range[1]) flags.push('fast?');
       rows.push({
@@ -225,14 +218,14 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     const valid = (r: IntervalValue) => r.velocityMps !== null;
     let chosen = rows.find((r) => r.method === wanted && valid(r));
     if (!chosen) {
-      chosen = FALLBACK.map((m) => rows.find((r) => r.method === m && valid(r))).find(Boolean);
+      chosen = FALLBACK_ORDER.map((m) => rows.find((r) => r.method === m && valid(r))).find(Boolean);
       if (chosen) chosen.flags.push(`fallback from ${wanted}`);
     }
     if (chosen && !edits.excludedIntervals.includes(pair.key)) {
       chosen.chosen = true;
       // Compared with the median of the other waveform methods, so one noisy pick does not raise the flag.
       const others = rows
-        .filter((r) => r !== chosen && r.method !== 'phase' && r.method !== 'ray-fit' && valid(r))
+        .filter((r) => r !== chosen && methodInfo(r.method).inDisagreementCheck && valid(r))
         .map((r) => r.velocityMps!);
       if (others.length) {
         others.sort((x, y) => x - y);
