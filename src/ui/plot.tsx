@@ -3,7 +3,7 @@
  * callers so unchanged traces are not recomputed), and a registry of plot divs for image export.
  */
 import { useEffect, useRef } from 'react';
-import Plotly from 'plotly.js-dist-min';
+import Plotly from 'plotly.js-strict-dist-min';
 
 export type PlotData = Record<string, unknown>;
 export type PlotLayout = Record<string, unknown>;
