@@ -3,7 +3,27 @@
  * Sample arrays are typed arrays, never arrays of objects per sample.
  */
 
+import type { ErrorInfo } from './errors';
+
 export type ByteOrder = 'little' | 'big';
+
+/**
+ * How the time of sample 0 was built from the header (SEG-2): delayS = delayKeywordS + skewS, or,
+ * when the trigger-sample keywords set the pre-trigger, -triggerIndex * dt + skewS.
+ * See docs/seg2-vendor-keywords.md for the meaning and sign adopted.
+ */
+export interface TimeBase {
+  /** DELAY as written, s (0 when absent). */
+  delayKeywordS: number;
+  /** SKEW applied, s (0 when absent). */
+  skewS: number;
+  /** 0-based index of the trigger sample from TRIGGER_SAMPLE_NO / FIRST_SAMPLE_NO, or null. */
+  triggerIndex: number | null;
+  /** What set the pre-trigger part: 'DELAY' or 'TRIGGER_SAMPLE_NO'. */
+  delaySource: 'DELAY' | 'TRIGGER_SAMPLE_NO';
+  /** delayS minus DELAY: the shift this reader applied beyond the standard's DELAY, s. */
+  shiftS: number;
+}
 
 /** One channel of one recorded hit. */
 export interface Trace {
@@ -19,8 +39,12 @@ export interface Trace {
   receiverLocation?: number[];
   /** SOURCE_LOCATION numbers as written in the file. */
   sourceLocation?: number[];
-  /** Trace-level keyword strings, raw values (unknown keywords kept). */
+  /** Trace-level keyword strings, raw values (unknown keywords kept; a repeated keyword: its last value). */
   strings: Record<string, string>;
+  /** Keywords written more than once in the trace block: every value in file order. */
+  stringLists?: Record<string, string[]>;
+  /** SEG-2: how delayS was built from DELAY, SKEW and the trigger-sample keywords. */
+  timeBase?: TimeBase;
 }
 
 /** One file: one hit (or one stacked set of hits) recorded on one or more channels. */
@@ -33,9 +57,13 @@ export interface WaveRecord {
   byteOrder?: ByteOrder;
   /** SEG-2 data format code of the first trace (1 int16, 2 int32, 3 20-bit float, 4 float32, 5 float64). */
   formatCode?: number;
-  /** File-level keyword strings (SEG-2), raw values. */
+  /** File-level keyword strings (SEG-2), raw values (a repeated keyword: its last value). */
   fileStrings: Record<string, string>;
-  /** NOTE lines (file level), split on the declared line terminator. */
+  /** File-level keywords written more than once: every value in file order (e.g. two NOTE strings). */
+  fileStringLists?: Record<string, string[]>;
+  /** Problems that did not stop the reading (revision, preamble lines skipped ...), shown to the user. */
+  warnings?: ErrorInfo[];
+  /** NOTE lines (file level, every NOTE string), split on the declared line terminator. */
   notes: string[];
   traces: Trace[];
 }

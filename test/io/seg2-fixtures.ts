@@ -34,6 +34,8 @@ export interface FixtureTrace {
 
 export interface FixtureSpec {
   order: Order;
+  /** Revision number in bytes 2-3 (default 1, the only one the standard defines). */
+  revision?: number;
   /** Pointer slots in the trace-pointer sub-block (M = 4 * slots); default = number of traces. */
   pointerSlots?: number;
   /** String terminator characters (1 or 2 bytes), default [0x00]. */
@@ -70,7 +72,7 @@ export function buildSeg2(spec: FixtureSpec): Uint8Array {
   const fileStrings = stringBlock(spec.fileStrings, st, o);
   const header: number[] = [
     ...uint(0x3a55, 2, o), // bytes 0-1: file descriptor block id
-    ...uint(1, 2, o), // 2-3: revision number 1
+    ...uint(spec.revision ?? 1, 2, o), // 2-3: revision number
     ...uint(M, 2, o), // 4-5: M, size of trace pointer sub-block
     ...uint(spec.traces.length, 2, o), // 6-7: N, number of traces
     st.length,
@@ -104,4 +106,45 @@ export function buildSeg2(spec: FixtureSpec): Uint8Array {
   const pointerBlock = pointers.flatMap((p) => uint(p, 4, o));
   while (pointerBlock.length < M) pointerBlock.push(0); // spare slots
   return Uint8Array.from([...header, ...pointerBlock, ...fileStrings, ...blocks]);
+}
+
+/** int16 samples as little-endian hex words (two's complement), e.g. [1, -2] -> ['01 00', 'fe ff']. */
+export function int16Hex(values: number[]): string[] {
+  return values.map((v) => {
+    const u = v < 0 ? v + 65536 : v;
+    return `${(u & 0xff).toString(16).padStart(2, '0')} ${(u >> 8).toString(16).padStart(2, '0')}`;
+  });
+}
+
+/**
+ * A 24-channel spread record as a seismograph writes it: one file, 24 trace blocks, each with its own
+ * CHANNEL_NUMBER and RECEIVER_LOCATION (1 m apart), the instrument's SKEW and trigger sample number,
+ * file-level NOTE written twice (an operator note and the hit direction). Format 1 (int16), 8 samples.
+ */
+export function spreadRecord24(order: Order): Uint8Array {
+  const traces: FixtureTrace[] = [];
+  for (let c = 1; c <= 24; c++) {
+    traces.push({
+      strings: [
+        `CHANNEL_NUMBER ${c}`,
+        `RECEIVER_LOCATION 0 0 ${c}`,
+        'SAMPLE_INTERVAL 0.000125',
+        'SKEW -0.00006',
+        'TRIGGER_SAMPLE_NO 3',
+        'FIRST_SAMPLE_NO 1',
+        'SCALE_UNIT MV',
+        'DESCALING_FACTOR 1',
+      ],
+      formatCode: 1,
+      sampleCount: 8,
+      data: sampleBytes(int16Hex([0, 0, c, -c, 2 * c, -2 * c, 0, 0]), order),
+    });
+  }
+  return buildSeg2({
+    order,
+    pointerSlots: 256, // instruments reserve many spare pointer slots
+    lineTerminator: [0x0d, 0x0a],
+    fileStrings: ['UNITS METERS', 'NOTE operator: crew B, calm wind', 'NOTE hit left', 'SOURCE_LOCATION 2 0 0'],
+    traces,
+  });
 }

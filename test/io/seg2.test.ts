@@ -157,7 +157,7 @@ describe('SEG-2 strings', () => {
   const traceStrings = [
     'CHANNEL_NUMBER 7',
     'SAMPLE_INTERVAL   0.00025  ', // several spaces around the value
-    'DELAY -0.002',
+    'DELAY -0.0005', // pre-trigger of the whole 2-sample record (the longest allowed)
     'RECEIVER_LOCATION 0.0  0.0   5.5',
     'SOURCE_LOCATION 2.0 0 0',
     'STACK 4',
@@ -190,7 +190,7 @@ describe('SEG-2 strings', () => {
       const t = r.traces[0];
       expect(t.channel).toBe(7);
       expect(t.sampleIntervalS).toBe(0.00025);
-      expect(t.delayS).toBe(-0.002); // trace DELAY overrides file DELAY 0.5
+      expect(t.delayS).toBe(-0.0005); // trace DELAY overrides file DELAY 0.5
       expect(t.receiverLocation).toEqual([0, 0, 5.5]);
       expect(t.sourceLocation).toEqual([2, 0, 0]);
       expect(t.strings.STACK).toBe('4');

@@ -7,8 +7,8 @@
  * Every declared size and pointer is checked against the file length before anything is allocated
  * or read, so a corrupt header fails with a typed error instead of allocating or reading past the end.
  */
-import { BorewaveError, type ErrorCode } from '../errors';
-import type { ByteOrder, Trace, WaveRecord } from '../model';
+import { BorewaveError, type ErrorCode, type ErrorInfo } from '../errors';
+import type { ByteOrder, TimeBase, Trace, WaveRecord } from '../model';
 import { decodeUtf8, encodeUtf8 } from './bytes';
 
 /** File descriptor block id (Pullan 1990). */
@@ -61,8 +61,9 @@ function readStringList(
   term: Terminators,
   file: string,
   where: string,
-): Record<string, string> {
+): StringList {
   const out: Record<string, string> = {};
+  const all: Record<string, string[]> = {};
   let off = start;
   while (off + 2 <= end) {
     const len = view.getUint16(off, little);
@@ -80,10 +81,22 @@ function readStringList(
     if (cut >= 0) text = text.slice(0, cut);
     text = text.replace(/\0+$/, '');
     const [keyword, value] = splitKeyword(text);
-    if (keyword) out[keyword] = value;
+    if (keyword) {
+      out[keyword] = value;
+      if (!Object.hasOwn(all, keyword)) all[keyword] = [];
+      all[keyword].push(value);
+    }
     off += len;
   }
-  return out;
+  const lists: Record<string, string[]> = {};
+  for (const [k, v] of Object.entries(all)) if (v.length > 1) lists[k] = v;
+  return { last: out, lists };
+}
+
+/** A string sub-block: the last value of each keyword, and every value of keywords written more than once. */
+interface StringList {
+  last: Record<string, string>;
+  lists: Record<string, string[]>;
 }
 
 function terminatorAt(bytes: Uint8Array, lenOffset: number, file: string, field: string): string {
@@ -96,19 +109,70 @@ function terminatorAt(bytes: Uint8Array, lenOffset: number, file: string, field:
 
 // ------------------------------------------------------------------ keyword values
 
+/**
+ * A plain decimal number (optional sign, digits, optional fraction, optional exponent). Hexadecimal
+ * ("0x10"), "Infinity", "NaN", binary or octal prefixes and empty text are refused: Pullan (1990)
+ * writes numbers as decimal ASCII text.
+ */
+const DECIMAL_RE = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d{1,3})?$/;
+
+/** Strict decimal number, or NaN when the text is not one (or overflows). */
+export function strictDecimal(text: string): number {
+  if (!DECIMAL_RE.test(text)) return NaN;
+  const x = Number(text);
+  return Number.isFinite(x) ? x : NaN;
+}
+
 function parseNumbers(value: string, keyword: string, file: string, where: string): number[] {
   const parts = value.split(/[\s,;]+/).filter((p) => p.length > 0);
-  const nums = parts.map(Number);
-  if (parts.length === 0 || nums.some((x) => !Number.isFinite(x))) {
-    fail('SEG2_BAD_KEYWORD_VALUE', `${where}: ${keyword} "${value}" is not a list of numbers`, file, keyword);
+  const nums = parts.map(strictDecimal);
+  const bad = parts.find((_, i) => Number.isNaN(nums[i]));
+  if (parts.length === 0 || bad !== undefined) {
+    fail(
+      'SEG2_BAD_KEYWORD_VALUE',
+      `${where}: ${keyword} "${value}" is not a list of decimal numbers${bad !== undefined ? ` ("${bad}")` : ''}`,
+      file,
+      keyword,
+    );
   }
   return nums;
 }
 
-function parseOneNumber(value: string, keyword: string, file: string, where: string): number {
-  const nums = parseNumbers(value, keyword, file, where);
-  return nums[0];
+/** First number of a keyword value, checked to lie in [min, max]. */
+function parseBounded(
+  value: string,
+  keyword: string,
+  file: string,
+  where: string,
+  min: number,
+  max: number,
+  what: string,
+): number {
+  const x = parseNumbers(value, keyword, file, where)[0];
+  if (!(x >= min && x <= max)) {
+    fail(
+      'SEG2_IMPLAUSIBLE_VALUE',
+      `${where}: ${keyword} "${value}" is outside the plausible range ${min} to ${max} ${what}`,
+      file,
+      keyword,
+    );
+  }
+  return x;
 }
+
+/** Plausible ranges (common practice for seismographs; wider than any borehole survey needs). */
+export const SEG2_LIMITS = {
+  /** Sample interval, s: 0.1 microsecond (10 MHz) to 1 s. */
+  sampleIntervalS: [1e-7, 1] as const,
+  /** Positive DELAY (recording starts after the trigger), s. */
+  maxPositiveDelayS: 100,
+  /** Receiver and source coordinates, file units (m or ft). */
+  maxAbsLocation: 1e6,
+  /** DESCALING_FACTOR magnitude. */
+  descaling: [1e-30, 1e30] as const,
+  /** CHANNEL_NUMBER. */
+  maxChannel: 65535,
+};
 
 /** NOTE text split into lines on the declared line terminator (also CR/LF), blank lines dropped. */
 export function splitNoteLines(note: string, lineTerminator: string): string[] {
@@ -255,7 +319,7 @@ function checkTraceBlock(
 
 /**
  * Read a SEG-2 file (either byte order, data formats 1-5). Throws BorewaveError naming the file,
- * the field and the problem.
+ * the field and the problem; problems that do not stop the reading are in record.warnings.
  */
 export function readSeg2(bytes: Uint8Array, fileName: string): WaveRecord {
   const file = fileName;
@@ -275,8 +339,22 @@ export function readSeg2(bytes: Uint8Array, fileName: string): WaveRecord {
     fail('SEG2_TRUNCATED', `the file has ${n} bytes, fewer than the 32-byte file descriptor`, file, 'file descriptor');
   const little = byteOrder === 'little';
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const warnings: ErrorInfo[] = [];
+  const revision = view.getUint16(2, little);
+  if (revision !== 1) {
+    // Pullan (1990) defines revision 1 only; later revisions are read as revision 1.
+    warnings.push({
+      code: 'SEG2_REVISION',
+      message: `${file}: revision number ${revision}; the standard defines revision 1, read as revision 1`,
+      file,
+      field: 'revision number',
+    });
+  }
   const pointerBlockBytes = view.getUint16(4, little);
   const traceCount = view.getUint16(6, little);
+  if (traceCount === 0) {
+    fail('SEG2_NO_TRACES', 'the file descriptor declares 0 traces: there is no waveform to read', file, 'trace count');
+  }
   if (4 * traceCount > pointerBlockBytes) {
     fail(
       'SEG2_BAD_POINTER_BLOCK',
@@ -315,19 +393,72 @@ export function readSeg2(bytes: Uint8Array, fileName: string): WaveRecord {
 
   const fileStringsStart = FILE_HEADER_BYTES + pointerBlockBytes;
   const firstTrace = pointers.filter((p) => p >= fileStringsStart).reduce((a, b) => Math.min(a, b), n);
-  const fileStrings = readStringList(view, bytes, fileStringsStart, firstTrace, little, term, file, 'file');
-  const notes = fileStrings.NOTE !== undefined ? splitNoteLines(fileStrings.NOTE, term.lineTerminator) : [];
+  const fileList = readStringList(view, bytes, fileStringsStart, firstTrace, little, term, file, 'file');
+  const fileStrings = fileList.last;
+  const noteTexts = fileList.lists.NOTE ?? (fileStrings.NOTE !== undefined ? [fileStrings.NOTE] : []);
+  const notes = noteTexts.flatMap((t) => splitNoteLines(t, term.lineTerminator));
 
   const traces: Trace[] = blocks.map((b, i) => readTrace(view, bytes, b, i, little, term, fileStrings, file));
+  const seen = new Map<number, number>();
+  traces.forEach((t, i) => {
+    const first = seen.get(t.channel);
+    if (first !== undefined) {
+      fail(
+        'SEG2_DUPLICATE_CHANNEL',
+        `traces ${first + 1} and ${i + 1} both carry CHANNEL_NUMBER ${t.channel}; channels must be unique to map them to receivers`,
+        file,
+        'CHANNEL_NUMBER',
+      );
+    }
+    seen.set(t.channel, i);
+  });
   return {
     id: fileName,
     fileName,
     format: 'seg2',
     byteOrder,
-    formatCode: blocks.length > 0 ? blocks[0].formatCode : undefined,
+    formatCode: blocks[0].formatCode,
     fileStrings,
+    ...(Object.keys(fileList.lists).length > 0 ? { fileStringLists: fileList.lists } : {}),
     notes,
     traces,
+    ...(warnings.length > 0 ? { warnings } : {}),
+  };
+}
+
+/**
+ * Time of sample 0 after the trigger from the header. Pullan (1990) defines DELAY (s, negative =
+ * recording started before the trigger). SKEW, TRIGGER_SAMPLE_NO and FIRST_SAMPLE_NO are not in the
+ * standard; instruments write them. ASSUMPTIONS (reasoning in docs/seg2-vendor-keywords.md):
+ * - SKEW (s) is added to the time of every sample: t_i = DELAY + SKEW + i*dt. A negative SKEW
+ *   (the usual sign: a converter or filter latency) moves every sample earlier.
+ * - TRIGGER_SAMPLE_NO is the number of the sample taken at the trigger, counted from FIRST_SAMPLE_NO
+ *   (1 when absent), so sample 0 lies (TRIGGER_SAMPLE_NO - FIRST_SAMPLE_NO) samples before the trigger.
+ *   It sets the pre-trigger part only when DELAY is absent or 0; a non-zero DELAY that disagrees by
+ *   more than half a sample is an error (SEG2_TRIGGER_CONFLICT): the trigger time would be a guess.
+ */
+export function seg2TimeBase(
+  kw: { delay?: number; skew?: number; triggerSampleNo?: number; firstSampleNo?: number },
+  sampleIntervalS: number,
+): { delayS: number; timeBase: TimeBase; conflict: boolean } {
+  const delayKeywordS = kw.delay ?? 0;
+  const skewS = kw.skew ?? 0;
+  const triggerIndex = kw.triggerSampleNo !== undefined ? kw.triggerSampleNo - (kw.firstSampleNo ?? 1) : null;
+  let pre = delayKeywordS;
+  let delaySource: TimeBase['delaySource'] = 'DELAY';
+  let conflict = false;
+  if (triggerIndex !== null) {
+    const fromTrigger = -triggerIndex * sampleIntervalS;
+    if (delayKeywordS === 0) {
+      pre = fromTrigger;
+      delaySource = 'TRIGGER_SAMPLE_NO';
+    } else if (Math.abs(delayKeywordS - fromTrigger) > 0.5 * sampleIntervalS) conflict = true;
+  }
+  const delayS = pre + skewS;
+  return {
+    delayS,
+    conflict,
+    timeBase: { delayKeywordS, skewS, triggerIndex, delaySource, shiftS: delayS - delayKeywordS },
   };
 }
 
@@ -342,7 +473,7 @@ function readTrace(
   file: string,
 ): Trace {
   const where = `trace ${index + 1}`;
-  const strings = readStringList(
+  const list = readStringList(
     view,
     bytes,
     b.pointer + TRACE_HEADER_BYTES,
@@ -352,36 +483,113 @@ function readTrace(
     file,
     where,
   );
+  const strings = list.last;
   // Trace values override file values of the same keyword.
   const merged: Record<string, string> = { ...fileStrings, ...strings };
+  const has = (k: string) => Object.hasOwn(merged, k);
 
   const siText = merged.SAMPLE_INTERVAL;
-  const sampleIntervalS = siText === undefined ? NaN : Number(siText.split(/\s+/)[0]);
-  if (!(sampleIntervalS > 0) || !Number.isFinite(sampleIntervalS)) {
+  const siRaw = siText === undefined ? NaN : strictDecimal(siText.split(/\s+/)[0]);
+  const [siMin, siMax] = SEG2_LIMITS.sampleIntervalS;
+  if (!(siRaw >= siMin && siRaw <= siMax)) {
     fail(
       'SEG2_BAD_SAMPLE_INTERVAL',
-      `${where}: SAMPLE_INTERVAL is ${siText === undefined ? 'missing' : `"${siText}"`}; it must be a positive number of seconds`,
+      `${where}: SAMPLE_INTERVAL is ${siText === undefined ? 'missing' : `"${siText}"`}; it must be a decimal number of seconds from ${siMin} to ${siMax}`,
       file,
       'SAMPLE_INTERVAL',
     );
   }
-  const delayS = merged.DELAY !== undefined ? parseOneNumber(merged.DELAY, 'DELAY', file, where) : 0;
-  const descaling =
-    merged.DESCALING_FACTOR !== undefined
-      ? parseOneNumber(merged.DESCALING_FACTOR, 'DESCALING_FACTOR', file, where)
-      : 1;
-  const channel =
-    merged.CHANNEL_NUMBER !== undefined
-      ? parseOneNumber(merged.CHANNEL_NUMBER, 'CHANNEL_NUMBER', file, where)
-      : index + 1;
-  const receiverLocation =
-    merged.RECEIVER_LOCATION !== undefined
-      ? parseNumbers(merged.RECEIVER_LOCATION, 'RECEIVER_LOCATION', file, where)
-      : undefined;
-  const sourceLocation =
-    merged.SOURCE_LOCATION !== undefined
-      ? parseNumbers(merged.SOURCE_LOCATION, 'SOURCE_LOCATION', file, where)
-      : undefined;
+  const sampleIntervalS = siRaw;
+  const recordS = b.sampleCount * sampleIntervalS;
+  const delay = has('DELAY')
+    ? parseBounded(
+        merged.DELAY,
+        'DELAY',
+        file,
+        where,
+        -recordS,
+        SEG2_LIMITS.maxPositiveDelayS,
+        `s (a pre-trigger delay cannot exceed the ${b.sampleCount}-sample record, ${recordS} s)`,
+      )
+    : undefined;
+  const skew = has('SKEW')
+    ? parseBounded(merged.SKEW, 'SKEW', file, where, -recordS, recordS, `s (at most the record length, ${recordS} s)`)
+    : undefined;
+  const firstSampleNo = has('FIRST_SAMPLE_NO')
+    ? parseBounded(
+        merged.FIRST_SAMPLE_NO,
+        'FIRST_SAMPLE_NO',
+        file,
+        where,
+        0,
+        1,
+        '(the first sample is numbered 0 or 1)',
+      )
+    : undefined;
+  const triggerSampleNo = has('TRIGGER_SAMPLE_NO')
+    ? parseBounded(
+        merged.TRIGGER_SAMPLE_NO,
+        'TRIGGER_SAMPLE_NO',
+        file,
+        where,
+        firstSampleNo ?? 1,
+        (firstSampleNo ?? 1) + b.sampleCount - 1,
+        '(a sample of this trace)',
+      )
+    : undefined;
+  for (const [k, v] of [
+    ['FIRST_SAMPLE_NO', firstSampleNo],
+    ['TRIGGER_SAMPLE_NO', triggerSampleNo],
+  ] as const) {
+    if (v !== undefined && !Number.isInteger(v))
+      fail('SEG2_BAD_KEYWORD_VALUE', `${where}: ${k} "${merged[k]}" is not a whole sample number`, file, k);
+  }
+  const [dMin, dMax] = SEG2_LIMITS.descaling;
+  const descaling = has('DESCALING_FACTOR')
+    ? parseNumbers(merged.DESCALING_FACTOR, 'DESCALING_FACTOR', file, where)[0]
+    : 1;
+  if (!(Math.abs(descaling) >= dMin && Math.abs(descaling) <= dMax)) {
+    fail(
+      'SEG2_IMPLAUSIBLE_VALUE',
+      `${where}: DESCALING_FACTOR "${merged.DESCALING_FACTOR}" must be non-zero with a magnitude from ${dMin} to ${dMax}`,
+      file,
+      'DESCALING_FACTOR',
+    );
+  }
+  const channel = has('CHANNEL_NUMBER')
+    ? parseBounded(merged.CHANNEL_NUMBER, 'CHANNEL_NUMBER', file, where, 0, SEG2_LIMITS.maxChannel, '')
+    : index + 1;
+  if (!Number.isInteger(channel)) {
+    fail(
+      'SEG2_BAD_CHANNEL',
+      `${where}: CHANNEL_NUMBER "${merged.CHANNEL_NUMBER}" is not a whole number`,
+      file,
+      'CHANNEL_NUMBER',
+    );
+  }
+  const location = (k: 'RECEIVER_LOCATION' | 'SOURCE_LOCATION') => {
+    if (!has(k)) return undefined;
+    const xs = parseNumbers(merged[k], k, file, where);
+    if (xs.some((x) => Math.abs(x) > SEG2_LIMITS.maxAbsLocation))
+      fail(
+        'SEG2_IMPLAUSIBLE_VALUE',
+        `${where}: ${k} "${merged[k]}" has a coordinate beyond ${SEG2_LIMITS.maxAbsLocation}`,
+        file,
+        k,
+      );
+    return xs;
+  };
+  const receiverLocation = location('RECEIVER_LOCATION');
+  const sourceLocation = location('SOURCE_LOCATION');
+  const { delayS, timeBase, conflict } = seg2TimeBase({ delay, skew, triggerSampleNo, firstSampleNo }, sampleIntervalS);
+  if (conflict) {
+    fail(
+      'SEG2_TRIGGER_CONFLICT',
+      `${where}: DELAY "${merged.DELAY}" s and TRIGGER_SAMPLE_NO "${merged.TRIGGER_SAMPLE_NO}" (first sample ${firstSampleNo ?? 1}) place the trigger more than half a sample apart`,
+      file,
+      'TRIGGER_SAMPLE_NO',
+    );
+  }
 
   const raw = decodeSamples(view, b.pointer + b.headerBytes, b.sampleCount, b.formatCode, little);
   const samples = new Float32Array(raw.length);
@@ -398,6 +606,8 @@ function readTrace(
     }
   }
   const trace: Trace = { channel, samples, sampleIntervalS, delayS, strings };
+  if (Object.keys(list.lists).length > 0) trace.stringLists = list.lists;
+  if (skew !== undefined || triggerSampleNo !== undefined) trace.timeBase = timeBase;
   if (receiverLocation) trace.receiverLocation = receiverLocation;
   if (sourceLocation) trace.sourceLocation = sourceLocation;
   return trace;

@@ -92,7 +92,14 @@ export function placeFromHeaders(rec: WaveRecord): { depthM: number | null; hit:
   const units = (rec.fileStrings.UNITS ?? '').trim().toUpperCase();
   const scale = units.startsWith('FEET') || units === 'FT' ? FT_TO_M : 1;
   const depthM = loc.length ? loc[loc.length - 1] * scale : null;
-  const texts = [...rec.notes, ...Object.values(t?.strings ?? {}), rec.fileStrings.SOURCE ?? ''];
+  // Every value of a repeated keyword is searched (two NOTE strings: an operator note and "hit left").
+  const texts = [
+    ...rec.notes,
+    ...Object.values(t?.strings ?? {}),
+    ...Object.values(t?.stringLists ?? {}).flat(),
+    ...(rec.fileStringLists?.SOURCE ?? []),
+    rec.fileStrings.SOURCE ?? '',
+  ];
   let hit: HitDirection | null = null;
   for (const s of texts) {
     const m = /\b(?:hit|blow|direction)\s*[:=]?\s*(left|right|up|down|l|r|u|d)\b/i.exec(s);
