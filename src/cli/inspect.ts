@@ -1,32 +1,67 @@
 /**
- * `inspect <files...> [--json]`: per file its format, byte order, data format, traces, samples,
- * sample interval, delay, positions, min/max/RMS per trace, or its error. Exit code 1 when any file
- * failed. The per-file work is summarizeOutcome (src/core/io/readers.ts); this file only reads and prints.
+ * `inspect <files...> [--json] [--sample-interval-s <s>]`: per file its format, byte order, data
+ * format, record id, traces, samples, sample interval, delay and the shift applied by SKEW / trigger
+ * sample keywords, positions, min/max/RMS per trace, text layout (time unit and column, where the
+ * sample interval came from, preamble lines), warnings, or its error. Exit code 1 when any file
+ * failed. Relative paths are read from the caller's folder (io.cwd). The per-file work is
+ * summarizeOutcome (src/core/io/readers.ts); this file only reads and prints.
  */
 import { readFile } from 'node:fs/promises';
-import { basename } from 'node:path';
-import { readWaveFile, summarizeOutcome, type FileSummary } from '../core/io/readers';
+import { dirname, resolve } from 'node:path';
+import { type FileSummary, readWaveFile, summarizeOutcome, type WaveReadOptions } from '../core/io/readers';
+import { splitPath, uniqueRecordIds } from '../core/io/record-ids';
 
 export interface CliIo {
   stdout: { write(text: string): unknown };
   stderr: { write(text: string): unknown };
+  /** Folder relative paths are resolved against (the caller's folder; default process.cwd()). */
+  cwd?: string;
 }
 
-const USAGE = 'usage: inspect <files...> [--json]\n';
+/** A path given on the command line, resolved against the caller's folder. */
+export function cliPath(io: CliIo, path: string): string {
+  return resolve(io.cwd ?? process.cwd(), path);
+}
+
+const USAGE = 'usage: inspect <files...> [--json] [--sample-interval-s <seconds>]\n';
 
 export async function runInspect(args: string[], io: CliIo): Promise<number> {
-  const json = args.includes('--json');
-  const unknown = args.filter((a) => a.startsWith('--') && a !== '--json');
-  const files = args.filter((a) => !a.startsWith('--'));
-  if (unknown.length > 0 || files.length === 0) {
-    io.stderr.write(unknown.length > 0 ? `inspect: unknown option ${unknown.join(', ')}\n${USAGE}` : USAGE);
+  let json = false;
+  const opts: WaveReadOptions = {};
+  const files: string[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    if (a === '--json') json = true;
+    else if (a === '--sample-interval-s') {
+      const v = args[++i];
+      const x = v !== undefined && /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(v) ? Number(v) : Number.NaN;
+      if (!(x > 0) || !Number.isFinite(x)) {
+        io.stderr.write(`inspect: --sample-interval-s ${v ?? ''} is not a positive number of seconds\n${USAGE}`);
+        return 2;
+      }
+      opts.sampleIntervalS = x;
+    } else if (a.startsWith('--')) {
+      io.stderr.write(`inspect: unknown option ${a}\n${USAGE}`);
+      return 2;
+    } else files.push(a);
+  }
+  if (files.length === 0) {
+    io.stderr.write(USAGE);
     return 2;
   }
+  // Same-name files (1.dat in two folders) get distinct record ids: folder, else an order suffix.
+  const ids = uniqueRecordIds(
+    files.map((p) => {
+      const { name } = splitPath(p);
+      const folder = dirname(p.replace(/\\/g, '/'));
+      return { name, folder: folder === '.' ? '' : folder };
+    }),
+  );
   const summaries: FileSummary[] = [];
-  for (const path of files) {
+  for (const [k, path] of files.entries()) {
     let bytes: Uint8Array;
     try {
-      bytes = new Uint8Array(await readFile(path));
+      bytes = new Uint8Array(await readFile(cliPath(io, path)));
     } catch (e) {
       const reason = e instanceof Error ? e.message : String(e);
       summaries.push({
@@ -36,9 +71,11 @@ export async function runInspect(args: string[], io: CliIo): Promise<number> {
       });
       continue;
     }
-    summaries.push(summarizeOutcome(path, readWaveFile(bytes, basename(path))));
+    const outcome = readWaveFile(bytes, splitPath(path).name, opts);
+    if (outcome.ok) outcome.record.id = ids[k];
+    summaries.push(summarizeOutcome(path, outcome));
   }
-  io.stdout.write(json ? JSON.stringify({ files: summaries }, null, 2) + '\n' : formatTable(summaries));
+  io.stdout.write(json ? `${JSON.stringify({ files: summaries }, null, 2)}\n` : formatTable(summaries));
   return summaries.every((s) => s.ok) ? 0 : 1;
 }
 
@@ -54,7 +91,7 @@ function pos(p?: number[]): string {
 
 function pad(cells: string[][]): string {
   const widths = cells[0].map((_, c) => Math.max(...cells.map((r) => r[c].length)));
-  return cells.map((r) => '  ' + r.map((v, c) => v.padStart(widths[c])).join('  ')).join('\n') + '\n';
+  return `${cells.map((r) => `  ${r.map((v, c) => v.padStart(widths[c])).join('  ')}`).join('\n')}\n`;
 }
 
 /** Plain-text report: one block per file, a table of its traces. */
@@ -67,15 +104,25 @@ export function formatTable(summaries: FileSummary[]): string {
     }
     const order = s.byteOrder ? `, ${s.byteOrder}-endian` : '';
     const code = s.formatCode !== undefined ? `, data format ${s.formatCode}` : '';
-    out.push(`${s.file}: ${s.format}${order}${code}, ${s.traces.length} trace(s)\n`);
+    const id = s.recordId !== s.file && s.recordId !== splitPath(s.file).name ? ` [record ${s.recordId}]` : '';
+    out.push(`${s.file}${id}: ${s.format}${order}${code}, ${s.traces.length} trace(s)\n`);
+    if (s.format === 'text') {
+      const dt = s.traces[0]?.sampleIntervalS;
+      out.push(
+        `  time column: ${s.timeColumn ?? 'none'}, unit ${s.timeUnit}; sample interval ${dt !== undefined ? num(dt) : '-'} s from ${s.sampleIntervalSource}` +
+          `${s.preambleLines ? `; ${s.preambleLines} preamble line(s) skipped` : ''}${s.encoding ? `; ${s.encoding}` : ''}\n`,
+      );
+    }
     if (s.notes.length > 0) out.push(s.notes.map((n) => `  note: ${n}\n`).join(''));
-    const rows = [['chan', 'samples', 'dt (s)', 'delay (s)', 'min', 'max', 'rms', 'receiver', 'source']];
+    for (const w of s.warnings) out.push(`  warning ${w.code}: ${w.message}\n`);
+    const rows = [['chan', 'samples', 'dt (s)', 'delay (s)', 'shift (s)', 'min', 'max', 'rms', 'receiver', 'source']];
     for (const t of s.traces) {
       rows.push([
         String(t.channel),
         String(t.samples),
         num(t.sampleIntervalS),
         num(t.delayS),
+        t.timeBase ? num(t.timeBase.shiftS) : '-',
         num(t.min),
         num(t.max),
         num(t.rms),
@@ -84,6 +131,12 @@ export function formatTable(summaries: FileSummary[]): string {
       ]);
     }
     out.push(pad(rows));
+    const tb = s.traces.find((t) => t.timeBase)?.timeBase;
+    if (tb) {
+      out.push(
+        `  time base: DELAY ${num(tb.delayKeywordS)} s, SKEW ${num(tb.skewS)} s, trigger sample index ${tb.triggerIndex ?? '-'} (pre-trigger from ${tb.delaySource}); shift = delay - DELAY\n`,
+      );
+    }
   }
   const failed = summaries.filter((s) => !s.ok).length;
   out.push(`${summaries.length} file(s), ${failed} failed\n`);

@@ -18,7 +18,10 @@ async function main(argv: string[]): Promise<number> {
     process.stderr.write(`usage: cli <${Object.keys(COMMANDS).join('|')}> ...\n`);
     return 2;
   }
-  return command(rest, { stdout: process.stdout, stderr: process.stderr });
+  // `npm run cli` runs in the repository; npm sets INIT_CWD to the folder the user typed the command in,
+  // and relative paths are read from there.
+  const cwd = process.env.INIT_CWD || process.cwd();
+  return command(rest, { stdout: process.stdout, stderr: process.stderr, cwd });
 }
 
 main(process.argv.slice(2)).then(

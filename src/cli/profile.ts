@@ -22,7 +22,7 @@ import {
 } from '../core/report/tables';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
 import { hasDirectVelocities } from '../core/catalogue/testKinds';
-import type { CliIo } from './inspect';
+import { type CliIo, cliPath } from './inspect';
 import type { UnitSystem } from '../core/units';
 
 function openFolder(dir: string): OpenedProject {
@@ -73,6 +73,9 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     );
     return 2;
   }
+  // Relative paths are the caller's (npm run changes to the repository folder).
+  input = cliPath(io, input);
+  out = cliPath(io, out);
   if (method && !INTERVAL_METHODS.includes(method as IntervalMethod)) {
     io.stderr.write(`profile: --method ${method} is not one of ${INTERVAL_METHODS.join(', ')}\n`);
     return 2;

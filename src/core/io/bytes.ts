@@ -8,6 +8,25 @@ export function decodeUtf8(bytes: Uint8Array): string {
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
+/** Text encoding announced by a byte order mark, or null (no BOM). */
+export function textBom(bytes: Uint8Array): 'utf-8' | 'utf-16le' | 'utf-16be' | null {
+  if (bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) return 'utf-8';
+  if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return 'utf-16le';
+  if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) return 'utf-16be';
+  return null;
+}
+
+/**
+ * Decode text: UTF-16 (little or big endian) when a byte order mark says so (a spreadsheet's
+ * "Unicode text"), else UTF-8. Invalid sequences become U+FFFD; the BOM is dropped.
+ */
+export function decodeText(bytes: Uint8Array): { text: string; encoding: 'utf-8' | 'utf-16le' | 'utf-16be' } {
+  const bom = textBom(bytes);
+  const encoding = bom ?? 'utf-8';
+  const text = new TextDecoder(encoding, { fatal: false }).decode(bytes);
+  return { text: text.charCodeAt(0) === 0xfeff ? text.slice(1) : text, encoding };
+}
+
 /** Encode a string as UTF-8 bytes. */
 export function encodeUtf8(text: string): Uint8Array {
   return new TextEncoder().encode(text);
