@@ -318,7 +318,7 @@ export interface PreambleInterval {
 export function preambleInterval(lineText: string): { sampleIntervalS: number; key: string; value: string } | null {
   const body = lineText.replace(/^\s*(#|\/\/)\s*/, '');
   const m =
-    /^([A-Za-z][A-Za-z _\-.]*?)\s*(?:[([]\s*([A-Za-zµμ]+)\s*[)\]])?\s*[:=,;\t ]\s*"?([^\s",;]+)"?\s*([A-Za-zµμ]+)?/.exec(
+    /^([A-Za-z][A-Za-z _\-.]*?)\s*(?:[([]\s*([A-Za-zµμ]+)\s*[)\]])?\s*[:=,;\t ]\s*"?([+-]?(?:\d+[.,]?\d*|[.,]\d+)(?:[eE][+-]?\d+)?)"?\s*([A-Za-zµμ]+)?/.exec(
       body,
     );
   if (!m) return null;
@@ -451,10 +451,15 @@ export function readDelimitedText(text: string, fileName: string, opts: TextRead
     return false;
   };
   const counts = new Map<number, number>();
-  for (let i = tailFrom; i < nLines; i++) {
-    const raw = cellCount(i);
-    const c = trailingEmpty(raw) ? raw - 1 : raw;
-    counts.set(c, (counts.get(c) ?? 0) + 1);
+  // Rows that start with a number vote (a short file's preamble must not outvote its data).
+  for (const numericOnly of [true, false]) {
+    for (let i = tailFrom; i < nLines; i++) {
+      const raw = cellCount(i);
+      if (numericOnly && (raw === 0 || Number.isNaN(numberAt(body, bounds[0], bounds[1], decimalComma)))) continue;
+      const c = trailingEmpty(raw) ? raw - 1 : raw;
+      counts.set(c, (counts.get(c) ?? 0) + 1);
+    }
+    if (counts.size > 0) break;
   }
   let k = 0;
   let best = -1;
