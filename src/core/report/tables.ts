@@ -32,17 +32,48 @@ export function num(x: number | null | undefined, digits: number): number | null
   return Math.round(x * f) / f;
 }
 
-const FORMULA_START = /^[=+\-@\t\r]/;
+/**
+ * CSV injection (OWASP "CSV Injection"): a spreadsheet runs a cell that begins with = + - @ tab or CR
+ * as a formula. A text cell is also split wherever the reader's list separator is (comma, semicolon
+ * or tab; much of Europe uses semicolon), and a naive reader splits at line breaks: every place that
+ * can begin a cell is a start. Neutralising: an apostrophe is put at each start (the cell's first
+ * character, and right after a comma, semicolon, tab, CR or LF) that is followed, after any spaces, by
+ * a formula trigger or by apostrophes and a trigger (so the change can be undone exactly).
+ */
+const CELL_START_AFTER = /[,;\t\r\n]/;
+const NEEDS_APOSTROPHE = /^ *'*[=+\-@\t\r]/;
 
-/** A text cell that a spreadsheet would read as a formula gets a leading apostrophe (OWASP "CSV injection" guidance). */
+/** A text cell that a spreadsheet could read as a formula, at its start or after a separator, made inert. */
 export function neutraliseText(s: string): string {
-  return FORMULA_START.test(s) ? `'${s}` : s;
+  let out = '';
+  for (let i = 0; i <= s.length; i++) {
+    if ((i === 0 || CELL_START_AFTER.test(s[i - 1])) && NEEDS_APOSTROPHE.test(s.slice(i, i + 64))) out += "'";
+    if (i < s.length) out += s[i];
+  }
+  return out;
 }
+
+/** The exact inverse of neutraliseText (tests and round trips). */
+export function unneutraliseText(s: string): string {
+  let out = '';
+  for (let i = 0; i < s.length; i++) {
+    const atStart = i === 0 || CELL_START_AFTER.test(s[i - 1]);
+    if (atStart && s[i] === "'" && NEEDS_APOSTROPHE.test(s.slice(i + 1, i + 65))) continue;
+    out += s[i];
+  }
+  return out;
+}
+
+/** Text that must be quoted in CSV: any separator a reader may use, a quote or a line break (RFC 4180). */
+const MUST_QUOTE = /[,;\t"\r\n]/;
 
 /** CSV text: header row, data rows, then the cautions as '#' comment lines. Numbers stay numbers. */
 export function toCsv(t: Table, cautions: string[] = EXPORT_CAUTIONS): string {
   const rows = t.rows.map((r) => r.map((c) => (typeof c === 'string' ? neutraliseText(c) : c)));
-  const body = Papa.unparse({ fields: t.columns.map(neutraliseText), data: rows }, { newline: '\n', quotes: false });
+  const body = Papa.unparse(
+    { fields: t.columns.map(neutraliseText), data: rows },
+    { newline: '\n', quotes: (value: unknown) => typeof value === 'string' && MUST_QUOTE.test(value) },
+  );
   const notes = cautions.map((c) => `# CAUTION: ${c.replace(/[\r\n]+/g, ' ')}`).join('\n');
   return `${body}\n${notes}\n`;
 }
