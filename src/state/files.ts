@@ -6,6 +6,8 @@ import type { ErrorInfo } from '../core/errors';
 import type { RecordAssignment, TestKind, WaveRecord } from '../core/model';
 import { assignRecords } from '../core/survey/assign';
 import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
+import { uniqueRecordIds } from '../core/io/record-ids';
+import { textLayout } from '../core/io/text';
 import { readDeviationTable } from '../core/io/deviation';
 import { defaultSettings, emptyEdits } from '../core/settings';
 import { ioLane } from '../worker/client';
@@ -32,13 +34,23 @@ function keepViewPrefs(v: ViewState): ViewState {
   return { ...initialView(), recordsOpen, fill, normalise, gain, hitView, tool, snap, renderer };
 }
 
-function metaFor(name: string, sizeBytes: number, p: ParsedFile | null): RecordMeta {
-  if (!p) return { id: name, fileName: name, sizeBytes, status: 'reading' };
-  if (!p.outcome.ok) return { id: name, fileName: name, sizeBytes, status: 'error', error: p.outcome.error };
+/** "time column Time (us), unit us; sample interval from time column" for text files. */
+function layoutText(r: WaveRecord): string | undefined {
+  const l = textLayout(r);
+  if (!l) return undefined;
+  const time = l.timeColumn === null ? 'no time column' : `time "${l.timeColumn}" in ${l.timeUnit}`;
+  const pre = l.preambleLines ? `; ${l.preambleLines} preamble line(s) skipped` : '';
+  return `${time}; sample interval from ${l.sampleIntervalSource}${pre}`;
+}
+
+function metaFor(name: string, sizeBytes: number, p: ParsedFile | null, originalName?: string): RecordMeta {
+  const orig = originalName && originalName !== name ? { originalName } : {};
+  if (!p) return { id: name, fileName: name, sizeBytes, status: 'reading', ...orig };
+  if (!p.outcome.ok) return { id: name, fileName: name, sizeBytes, status: 'error', error: p.outcome.error, ...orig };
   const r = p.outcome.record;
   const t = r.traces[0];
   return {
-    id: r.id,
+    id: name,
     fileName: name,
     sizeBytes,
     status: 'ok',
@@ -46,6 +58,9 @@ function metaFor(name: string, sizeBytes: number, p: ParsedFile | null): RecordM
     samples: t?.samples.length ?? 0,
     sampleIntervalS: t?.sampleIntervalS,
     format: r.format === 'seg2' ? `SEG-2${r.formatCode ? ` (format ${r.formatCode})` : ''}` : 'text',
+    ...(r.warnings?.length ? { warnings: r.warnings } : {}),
+    ...(layoutText(r) ? { layout: layoutText(r) } : {}),
+    ...orig,
   };
 }
 
@@ -57,11 +72,19 @@ function upsertMeta(list: RecordMeta[], m: RecordMeta): RecordMeta[] {
   return out;
 }
 
-/** Records keep the file name as id; a second file with the same name replaces the first. */
-function storeParsed(p: ParsedFile, bytes: Uint8Array): WaveRecord | null {
+/** File name without folders: what a file-name pattern is matched against. */
+function baseName(path: string): string {
+  return path.slice(path.lastIndexOf('/') + 1);
+}
+
+/**
+ * Stores a read file under its session name (unique: same-name files never replace each other); the
+ * record id is that name, the record's fileName the instrument's own name (for name patterns).
+ */
+function storeParsed(p: ParsedFile, bytes: Uint8Array, originalName?: string): WaveRecord | null {
   rawFiles.set(p.name, bytes);
   if (!p.outcome.ok) return null;
-  const rec = { ...p.outcome.record, id: p.name };
+  const rec = { ...p.outcome.record, id: p.name, fileName: originalName ?? baseName(p.name) };
   rawRecords.set(rec.id, rec);
   return rec;
 }
@@ -77,35 +100,103 @@ function placeNew(newRecords: WaveRecord[]): void {
   });
 }
 
+/**
+ * Session names for newly dropped files: a file keeps its name unless that name is taken (loaded
+ * already, or twice in this drop); then the folder it was dropped in, else an order suffix. A renamed
+ * file is announced, never a silent replacement.
+ */
+function sessionNames(files: NamedBytes[]): (NamedBytes & { originalName?: string })[] {
+  const taken = useApp.getState().records.map((r) => r.fileName);
+  const ids = uniqueRecordIds(
+    files.map((f) => ({ name: f.name, folder: f.folder ?? '' })),
+    taken,
+  );
+  return files.map((f, i) => (ids[i] === f.name ? f : { ...f, name: ids[i], originalName: f.name }));
+}
+
 /** Reads waveform files in the worker, showing progress; zip files are opened as project archives. */
 export async function loadFiles(files: NamedBytes[]): Promise<void> {
   const zips = files.filter((f) => ZIP_NAME.test(f.name));
-  const waves = files.filter((f) => !ZIP_NAME.test(f.name));
+  const incoming = files.filter((f) => !ZIP_NAME.test(f.name));
   for (const z of zips) await openArchiveBytes(z.name, z.bytes);
-  if (!waves.length) return;
-  const bytesByName = new Map(waves.map((f) => [f.name, f.bytes]));
+  if (!incoming.length) return;
+  const waves = sessionNames(incoming);
+  const renamed = waves.filter((f) => f.originalName);
+  if (renamed.length) {
+    pushMessage({
+      code: 'FILE_SAME_NAME',
+      message: `${renamed.length} file(s) share a name with another file and are kept under a distinct name: ${renamed
+        .slice(0, 5)
+        .map((f) => `${f.originalName} as ${f.name}`)
+        .join(', ')}${renamed.length > 5 ? ' …' : ''}.`,
+    });
+  }
+  await parseFiles(waves);
+}
+
+/** Parses files in the worker and stores them (new files, or text files re-read with a sample interval). */
+async function parseFiles(waves: (NamedBytes & { originalName?: string })[]): Promise<void> {
+  const byName = new Map(waves.map((f) => [f.name, f]));
   useApp.setState((s) => ({
-    records: waves.reduce((l, f) => upsertMeta(l, metaFor(f.name, f.bytes.length, null)), s.records),
+    records: waves.reduce((l, f) => upsertMeta(l, metaFor(f.name, f.bytes.length, null, f.originalName)), s.records),
     loadProgress: { done: 0, total: waves.length },
   }));
   const fresh: WaveRecord[] = [];
+  const needInterval: string[] = [];
   try {
-    await ioLane.run({ type: 'parse', files: waves.map((f) => ({ name: f.name, bytes: f.bytes.slice() })) }, (m) => {
-      if (m.type === 'parsed-file') {
-        const bytes = bytesByName.get(m.file.name)!;
-        const rec = storeParsed(m.file, bytes);
-        if (rec) fresh.push(rec);
-        else rawRecords.delete(m.file.name);
-        useApp.setState((s) => ({ records: upsertMeta(s.records, metaFor(m.file.name, bytes.length, m.file)) }));
-      }
-      if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
-      return m.type === 'parsed';
-    });
+    await ioLane.run(
+      {
+        type: 'parse',
+        files: waves.map((f) => ({
+          name: f.name,
+          bytes: f.bytes.slice(),
+          ...(f.sampleIntervalS !== undefined ? { sampleIntervalS: f.sampleIntervalS } : {}),
+        })),
+      },
+      (m) => {
+        if (m.type === 'parsed-file') {
+          const f = byName.get(m.file.name)!;
+          const rec = storeParsed(m.file, f.bytes, f.originalName);
+          if (rec) fresh.push(rec);
+          else rawRecords.delete(m.file.name);
+          if (!m.file.outcome.ok && m.file.outcome.error.code === 'TEXT_NO_SAMPLE_INTERVAL') needInterval.push(f.name);
+          useApp.setState((s) => ({
+            records: upsertMeta(s.records, metaFor(m.file.name, f.bytes.length, m.file, f.originalName)),
+          }));
+        }
+        if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
+        return m.type === 'parsed';
+      },
+    );
   } catch (e) {
     failStillReading(e as ErrorInfo);
   }
-  useApp.setState((s) => ({ loadProgress: null, filesRevision: s.filesRevision + 1 }));
+  useApp.setState((s) => ({
+    loadProgress: null,
+    filesRevision: s.filesRevision + 1,
+    // One question for the whole group of files that need a sample interval.
+    intervalRequest: [...s.intervalRequest.filter((n) => !byName.has(n)), ...needInterval],
+  }));
   placeNew(fresh);
+}
+
+/**
+ * The user's answer for a group of text files without a time column: they are read again with this
+ * sample interval, which is kept per file (saved in the project as files[].sampleIntervalS).
+ */
+export async function applySampleInterval(names: string[], sampleIntervalS: number): Promise<void> {
+  const files = names
+    .map((name) => {
+      const bytes = rawFiles.get(name);
+      const meta = useApp.getState().records.find((r) => r.fileName === name);
+      return bytes ? { name, bytes, sampleIntervalS, originalName: meta?.originalName } : null;
+    })
+    .filter((f): f is NonNullable<typeof f> => f !== null);
+  useApp.setState((s) => ({
+    fileSampleIntervals: { ...s.fileSampleIntervals, ...Object.fromEntries(names.map((n) => [n, sampleIntervalS])) },
+    intervalRequest: s.intervalRequest.filter((n) => !names.includes(n)),
+  }));
+  await parseFiles(files);
 }
 
 function failStillReading(err: ErrorInfo): void {
@@ -120,10 +211,15 @@ export function removeFile(fileName: string): void {
   const meta = useApp.getState().records.find((r) => r.fileName === fileName);
   rawFiles.delete(fileName);
   if (meta) rawRecords.delete(meta.id);
-  useApp.setState((s) => ({
-    records: s.records.filter((r) => r.fileName !== fileName),
-    filesRevision: s.filesRevision + 1,
-  }));
+  useApp.setState((s) => {
+    const { [fileName]: _, ...intervals } = s.fileSampleIntervals;
+    return {
+      records: s.records.filter((r) => r.fileName !== fileName),
+      intervalRequest: s.intervalRequest.filter((n) => n !== fileName),
+      fileSampleIntervals: intervals,
+      filesRevision: s.filesRevision + 1,
+    };
+  });
   if (meta)
     replaceWithoutHistory((s) => ({
       survey: { ...s.survey, records: s.survey.records.filter((r) => r.recordId !== meta.id) },
@@ -180,6 +276,10 @@ export function applyProject(
     future: [],
     records: metas,
     deviationFiles: { ...(doc.deviationFiles ?? {}) },
+    intervalRequest: opened.parsed
+      .filter((p) => !p.outcome.ok && p.outcome.error.code === 'TEXT_NO_SAMPLE_INTERVAL')
+      .map((p) => p.name),
+    fileSampleIntervals: {},
     namePattern: extra.namePattern ?? st.namePattern,
     unitSystem: extra.unitSystem ?? st.unitSystem,
     view: keepViewPrefs(st.view),
@@ -318,6 +418,8 @@ export function startFresh(): void {
     future: [],
     records: [],
     deviationFiles: {},
+    intervalRequest: [],
+    fileSampleIntervals: {},
     messages: [],
     revision: st.revision + 1,
     filesRevision: st.filesRevision + 1,

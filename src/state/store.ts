@@ -36,6 +36,12 @@ export interface RecordMeta {
   samples?: number;
   sampleIntervalS?: number;
   format?: string;
+  /** Problems that did not stop the reading (SEG-2 revision, preamble skipped, unit guessed ...). */
+  warnings?: ErrorInfo[];
+  /** Text files: time column and unit found, and where the sample interval came from. */
+  layout?: string;
+  /** File name as written by the instrument, when the session name differs (same-name files). */
+  originalName?: string;
 }
 
 export type Sheet = null | 'site' | 'export';
@@ -75,6 +81,10 @@ export interface AppState extends Snapshot {
   unitSystem: UnitSystem;
   /** Deviation-table file name per borehole id (its bytes are in rawFiles). */
   deviationFiles: Record<string, string>;
+  /** Text files without a time column waiting for a sample interval (asked once per group of files). */
+  intervalRequest: string[];
+  /** User-given sample interval per text file (session name), s: saved as files[].sampleIntervalS. */
+  fileSampleIntervals: Record<string, number>;
   /** Problems that are not tied to one file (archive, autosave, worker). */
   messages: ErrorInfo[];
   loadProgress: { done: number; total: number } | null;
@@ -122,6 +132,8 @@ export function initialState(kind: TestKind = 'downhole'): Omit<AppState, 'view'
     namePattern: DEFAULT_NAME_PATTERN,
     unitSystem: 'SI',
     deviationFiles: {},
+    intervalRequest: [],
+    fileSampleIntervals: {},
     messages: [],
     loadProgress: null,
     view: initialView(),

@@ -22,7 +22,8 @@ function handle(req: WorkerRequest): void {
   try {
     if (req.type === 'parse') {
       req.files.forEach((f, i) => {
-        post({ type: 'parsed-file', jobId, file: { name: f.name, outcome: readWaveFile(f.bytes, f.name) } });
+        const opts = f.sampleIntervalS !== undefined ? { sampleIntervalS: f.sampleIntervalS } : {};
+        post({ type: 'parsed-file', jobId, file: { name: f.name, outcome: readWaveFile(f.bytes, f.name, opts) } });
         post({ type: 'progress', jobId, stage: 'read', done: i + 1, total: req.files.length });
       });
       post({ type: 'parsed', jobId });

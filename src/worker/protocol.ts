@@ -11,8 +11,13 @@ import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
 
 export interface NamedBytes {
+  /** Name in the session and in a saved project: unique, may hold folders ("day2/1.sg2"). */
   name: string;
   bytes: Uint8Array;
+  /** Folder the file came from when a folder was dropped ('' or absent otherwise). */
+  folder?: string;
+  /** Sample interval for a text file without a time column (user-given), s. */
+  sampleIntervalS?: number;
 }
 
 export type WorkerRequest =

@@ -95,7 +95,7 @@ describe('inspect: layout, shift and warnings', () => {
     expect(ids).toEqual(['day1/1.sg2', 'day2/1.sg2']);
     const t = capture(dir);
     await runInspect(['day1/1.sg2', 'day1/1.sg2'], t.io);
-    expect(t.out.stdout).toContain('[record day1/1.sg2 (2)]');
+    expect(t.out.stdout).toContain('[record day1/1 (2).sg2]');
   });
 });
 

@@ -2,7 +2,8 @@
  * Unique record ids for files loaded together. Instruments restart their numbering per hole or per
  * day (1.dat, 2.dat ...), so two files may share a name: none may replace another. A file keeps its
  * name as id when the name is unique; files sharing a name are told apart by their folder (where a
- * folder was dropped or given), else by an order suffix "name (2)". Ids already taken stay taken.
+ * folder was dropped or given), else by an order suffix "1 (2).dat". Ids already taken stay taken.
+ * The id is also the file's path in a saved project (project format: files[].path, unique).
  */
 
 export interface NamedFile {
@@ -12,9 +13,13 @@ export interface NamedFile {
   folder?: string;
 }
 
+/** "1.sg2" -> "1 (2).sg2": the order suffix goes before the extension so the type stays readable. */
 function withSuffix(name: string, taken: Set<string>): string {
+  const slash = name.lastIndexOf('/');
+  const dot = name.lastIndexOf('.');
+  const cut = dot > slash + 1 ? dot : name.length;
   for (let k = 2; ; k++) {
-    const id = `${name} (${k})`;
+    const id = `${name.slice(0, cut)} (${k})${name.slice(cut)}`;
     if (!taken.has(id)) return id;
   }
 }
