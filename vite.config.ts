@@ -1,7 +1,7 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import { viteSingleFile } from 'vite-plugin-singlefile';
-import { cspHashes } from './scripts/vite-csp';
+import { cspHashes } from './scripts/vite-csp.ts';
 
 // Two builds: the normal one (dist/) and one self-contained HTML file for offline use (dist-single/).
 export default defineConfig(({ mode }) => ({
