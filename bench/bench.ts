@@ -9,7 +9,9 @@
  */
 import { intervalKey, pickEditKey } from '../src/core/keys';
 import { performance } from 'node:perf_hooks';
+import Papa from 'papaparse';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
+import { allowsDecimalComma, parseCell, readDelimitedText, splitTextRows } from '../src/core/io/text';
 import type { WaveRecord } from '../src/core/model';
 import { autoPick, derive, prepare } from '../src/core/pipeline';
 import { analyseStation, pairDelays, pairDelaysFromAnalysis } from '../src/core/picking/autopick';
@@ -278,6 +280,85 @@ function perEdit() {
   };
 }
 
+/**
+ * Delimited text reading: 60 files of 4,096 rows x 4 columns (time in ms + three components, as an
+ * instrument's ASCII export of one downhole record). The reader (one pass, numeric fast path, typed
+ * arrays) against the previous reader's path (one papaparse call per line, then each cell parsed into
+ * per-row arrays) and against one papaparse call for the whole file (dynamicTyping).
+ */
+function textRead() {
+  const res = synthesizeSurvey(
+    demoEarthModel(),
+    { kind: 'downhole', holeId: 'DH1', depthsM: Array.from({ length: 30 }, (_, i) => 1 + i), sourceOffsetM: 2 },
+    {
+      seed: 9,
+      sampleIntervalS: 5e-5,
+      samplesPerTrace: 4096,
+      sFrequencyHz: 100,
+      pFrequencyHz: 400,
+      attenuation: true,
+      snr: 25,
+      maxTriggerDelayS: 0,
+    },
+  );
+  const texts = res.records.slice(0, 60).map((r) => {
+    const lines = ['time_ms,h1,h2,v'];
+    const n = r.traces[0].samples.length;
+    for (let i = 0; i < n; i++) {
+      const t = (r.traces[0].delayS + i * r.traces[0].sampleIntervalS) * 1000;
+      lines.push(
+        `${t.toFixed(4)},${r.traces
+          .slice(0, 3)
+          .map((tr) => tr.samples[i].toPrecision(7))
+          .join(',')}`,
+      );
+    }
+    return lines.join('\n');
+  });
+  const best = (f: () => void) => {
+    f();
+    let m = Infinity;
+    for (let k = 0; k < 3; k++) m = Math.min(m, time(f).ms);
+    return m;
+  };
+  const reader = best(() => {
+    for (const [i, t] of texts.entries()) readDelimitedText(t, `f${i}.csv`);
+  });
+  const perLine = best(() => {
+    for (const t of texts) {
+      const { rows, separator } = splitTextRows(t);
+      const dc = allowsDecimalComma(separator);
+      const out = rows.slice(1).map((r) => r.cells.map((c) => parseCell(c, dc)));
+      if (out.length === 0) throw new Error('no rows');
+    }
+  });
+  const wholeFile = best(() => {
+    for (const t of texts) {
+      const parsed = Papa.parse<number[]>(t, { dynamicTyping: true, skipEmptyLines: true });
+      const rows = parsed.data.slice(1);
+      const cols = Array.from({ length: 4 }, () => new Float64Array(rows.length));
+      rows.forEach((r, i) => {
+        for (let c = 0; c < 4; c++) cols[c][i] = r[c];
+      });
+    }
+  });
+  const mb = texts.reduce((s, t) => s + t.length, 0) / 1e6;
+  return {
+    files: texts.length,
+    rows: 4096,
+    megabytes: mb,
+    readerMs: reader,
+    perLinePapaparseMs: perLine,
+    wholeFilePapaparseMs: wholeFile,
+  };
+}
+
+const tr = textRead();
+log(
+  `Text reading, ${tr.files} files x ${tr.rows} rows x 4 columns (${tr.megabytes.toFixed(1)} MB): reader ${tr.readerMs.toFixed(0)} ms; previous path (papaparse per line + per-row arrays) ${tr.perLinePapaparseMs.toFixed(0)} ms; one papaparse call per file ${tr.wholeFilePapaparseMs.toFixed(0)} ms`,
+);
+if (process.argv.includes('--text-only')) process.exit(0);
+
 const clean = denseDownhole(false);
 const cleanRun = runSurvey('Downhole, attenuation off', clean);
 const acc = accuracy(clean, cleanRun, 1 / 100);
@@ -327,6 +408,7 @@ if (json) {
       derive: stage(cleanRun.times.derive, cleanRun.traces),
       crossholeAutoPick: stage(xhRun.times.autoPick, xhRun.traces),
     },
+    textRead: tr,
     traces: cleanRun.traces,
     autoPickMs: cleanRun.times.autoPick,
     pairDelayMs: pd.inSurveyMs,

@@ -11,6 +11,7 @@ import { mulberry32 } from '../src/core/random';
 import { readDeviationTable } from '../src/core/io/deviation';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
 import { readDelimitedText } from '../src/core/io/text';
+import { readWaveFile } from '../src/core/io/readers';
 import { newProjectDocument, readProjectArchive, writeProjectArchive } from '../src/core/io/archive';
 import type { Survey } from '../src/core/model';
 
@@ -82,6 +83,88 @@ function textInput(): string {
   return out;
 }
 
+const NUMBERISH = [
+  '0',
+  '-0.00006',
+  '3',
+  '1.5',
+  '0x10',
+  '1e300',
+  '-1e-300',
+  'NaN',
+  'Infinity',
+  '',
+  '-10',
+  '99999',
+  ' 2 ',
+];
+/** SEG-2 with random vendor keyword text: SKEW, TRIGGER_SAMPLE_NO, FIRST_SAMPLE_NO, SCALE_UNIT, NOTE. */
+function vendorSeg2Input(): Uint8Array {
+  const pick = () => NUMBERISH[randInt(NUMBERISH.length)];
+  const s = Float64Array.from({ length: 4 * (1 + randInt(8)) }, (_, i) => Math.sin(i));
+  const strings: Record<string, string> = {};
+  for (const k of ['SKEW', 'TRIGGER_SAMPLE_NO', 'FIRST_SAMPLE_NO', 'SCALE_UNIT', 'NOTE'])
+    if (rand() < 0.6) strings[k] = pick();
+  return writeSeg2(
+    {
+      notes: rand() < 0.5 ? ['hit left', 'operator'] : [],
+      traces: Array.from({ length: 1 + randInt(3) }, (_, c) => ({
+        channel: rand() < 0.9 ? c + 1 : 1,
+        samples: s,
+        sampleIntervalS: [1e-4, 1e-9, 5, 2.5e-4][randInt(4)],
+        delayS: [0, -1e-3, -10, 0.5][randInt(4)],
+        strings,
+      })),
+    },
+    { byteOrder: rand() < 0.5 ? 'little' : 'big', formatCode: 4 },
+  );
+}
+
+const PREAMBLE = [
+  'Export v2',
+  '# sample_rate_hz: 8000',
+  'dt = 2.5e-5',
+  'Site: x, y',
+  'Channels: 24',
+  'Sample interval (ms): 0x10',
+];
+const HEADERS = ['Time (us)', 'Sample', 'time_ms', 't (s)', 'Amplitude', 'musec', ''];
+/** Text with preambles, time headers in every unit, missing time columns, sometimes UTF-16 with a BOM. */
+function textLayoutInput(): Uint8Array {
+  const lines: string[] = [];
+  for (let k = randInt(4); k > 0; k--) lines.push(PREAMBLE[randInt(PREAMBLE.length)]);
+  const sep = [',', ';', '\t', ' '][randInt(4)];
+  const cols = 1 + randInt(5);
+  const h = HEADERS[randInt(HEADERS.length)];
+  if (h) lines.push([h, ...Array.from({ length: cols - 1 }, (_, c) => `ch${c + 1}`)].join(sep));
+  for (let r = 0; r < randInt(20); r++)
+    lines.push(
+      Array.from({ length: cols }, (_, c) =>
+        c === 0 && rand() < 0.7 ? String(r * 50) : (rand() * 2 - 1).toFixed(3),
+      ).join(sep),
+    );
+  const text = lines.join(rand() < 0.5 ? '\n' : '\r\n');
+  if (rand() < 0.3) {
+    const b = new Uint8Array(2 + 2 * text.length);
+    b.set([0xff, 0xfe]);
+    for (let i = 0; i < text.length; i++) {
+      b[2 + 2 * i] = text.charCodeAt(i) & 0xff;
+      b[3 + 2 * i] = text.charCodeAt(i) >> 8;
+    }
+    return b;
+  }
+  return new TextEncoder().encode(text);
+}
+
+/** readWaveFile never throws: a failure becomes a BorewaveError here so the tally counts its code. */
+function viaReadWaveFile(bytes: Uint8Array, name: string, opts = {}): void {
+  const out = readWaveFile(bytes, name, opts);
+  if (!out.ok) {
+    if (out.error.code === 'INTERNAL') throw new Error(out.error.message);
+    throw new BorewaveError(out.error.code, out.error.message);
+  }
+}
+
 const seedSurvey: Survey = {
   name: 'fuzz',
   kind: 'downhole',
@@ -143,6 +226,11 @@ interface Tally {
 const readers: { name: string; run: () => void }[] = [
   { name: 'readSeg2', run: () => void readSeg2(seg2Input(), 'fuzz.sg2') },
   { name: 'readDelimitedText', run: () => void readDelimitedText(textInput(), 'fuzz.csv') },
+  { name: 'readSeg2 (vendor keywords)', run: () => void readSeg2(vendorSeg2Input(), 'vendor.sg2') },
+  {
+    name: 'readWaveFile (text layouts, UTF-16)',
+    run: () => viaReadWaveFile(textLayoutInput(), 'layout.txt', rand() < 0.5 ? { sampleIntervalS: 1e-4 } : {}),
+  },
   { name: 'readDeviationTable', run: () => void readDeviationTable(textInput(), 'fuzz.csv') },
   { name: 'readProjectArchive', run: () => void readProjectArchive(archiveInput(), 'fuzz.zip') },
 ];

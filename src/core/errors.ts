@@ -147,3 +147,32 @@ export function toErrorInfo(e: unknown, file?: string): ErrorInfo {
   const message = e instanceof Error ? e.message : String(e);
   return { code: 'INTERNAL', message: `Unexpected problem: ${message}`, file };
 }
+
+/**
+ * Codes of the waveform readers for instrument files and hostile input (errors unless marked warning;
+ * warnings travel in WaveRecord.warnings and are shown in Records and by `inspect`).
+ */
+export const READER_CODES = {
+  SEG2_NO_TRACES: 'the file descriptor declares 0 traces',
+  SEG2_REVISION: 'warning: revision number other than 1 (read as revision 1)',
+  SEG2_BAD_KEYWORD_VALUE:
+    'a keyword value is not decimal number text (0x10, NaN, Infinity, a fraction where a whole number is needed)',
+  SEG2_IMPLAUSIBLE_VALUE:
+    'a keyword value is outside its plausible range (DELAY, SKEW, trigger sample, descaling, locations)',
+  SEG2_BAD_CHANNEL: 'CHANNEL_NUMBER is not a whole number',
+  SEG2_DUPLICATE_CHANNEL: 'two traces carry the same CHANNEL_NUMBER',
+  SEG2_TRIGGER_CONFLICT: 'DELAY and TRIGGER_SAMPLE_NO place the trigger more than half a sample apart',
+  TEXT_NO_DATA: 'no block of numeric rows found',
+  TEXT_NO_SAMPLE_INTERVAL: 'no time column (or sample numbers) and no sample interval given or in the preamble',
+  TEXT_BAD_SAMPLE_INTERVAL: 'a sample interval (given, from the preamble or the time column) outside 1e-7 to 1 s',
+  TEXT_LINE_TOO_LONG: 'a line longer than the limit, checked before it is split',
+  TEXT_TOO_MANY_COLUMNS: 'a row with more columns than the limit, counted before cells are kept',
+  TEXT_TOO_MANY_CELLS: 'rows x columns above the limit, checked before the columns are allocated',
+  TEXT_TOO_LARGE: 'a text file larger than the limit, checked before decoding',
+  TEXT_PREAMBLE_SKIPPED: 'warning: lines before the data were skipped',
+  TEXT_TIME_UNIT_GUESSED: 'warning: the time column names no unit; guessed from the step',
+  TEXT_SAMPLE_INTERVAL_DIFFERS: 'warning: the time column and a given or preamble interval disagree (time column used)',
+  FILE_SAME_NAME: 'message: a file shares its name with another and is kept under a distinct name',
+} as const;
+
+export type ReaderCode = keyof typeof READER_CODES;

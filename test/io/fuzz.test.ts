@@ -7,6 +7,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readWaveFile } from '../../src/core/io/readers';
 import { writeSeg2 } from '../../src/core/io/seg2';
+import { buildSeg2 } from './seg2-fixtures';
 
 const MAX_MS = 200;
 
@@ -82,6 +83,65 @@ describe('readWaveFile fuzz (about 2,000 cases)', () => {
         checkOne(new TextEncoder().encode(chars.join('')), 'x.csv'),
       ),
       { numRuns: 400 },
+    );
+  });
+
+  it('SEG-2 vendor keywords with hostile number text (SKEW, trigger samples, repeated NOTE)', () => {
+    const text = fc.constantFrom('0', '-0.00006', '3', '1.5', '0x10', '1e300', '-1e-300', 'NaN', '', '-10', '99999');
+    fc.assert(
+      fc.property(text, text, text, text, fc.boolean(), (skew, trig, first, delay, twoNotes) => {
+        const f = buildSeg2({
+          order: 'little',
+          fileStrings: twoNotes ? ['NOTE a', 'NOTE hit left'] : [],
+          traces: [
+            {
+              strings: [
+                'SAMPLE_INTERVAL 0.0005',
+                `SKEW ${skew}`,
+                `TRIGGER_SAMPLE_NO ${trig}`,
+                `FIRST_SAMPLE_NO ${first}`,
+                `DELAY ${delay}`,
+              ],
+              formatCode: 1,
+              sampleCount: 4,
+              data: [1, 0, 2, 0, 3, 0, 4, 0],
+            },
+          ],
+        });
+        checkOne(f, 'v.sg2');
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('text with preambles, time headers in every unit, UTF-16, with and without a given interval', () => {
+    const line = fc.constantFrom(
+      'Export',
+      '# sample_rate_hz: 8000',
+      'dt = 2.5e-5',
+      'Time (us),a',
+      'Sample;b',
+      '0,1',
+      '50,2',
+      '1.5\t2',
+      'x,y,z',
+    );
+    fc.assert(
+      fc.property(fc.array(line, { maxLength: 12 }), fc.boolean(), fc.boolean(), (lines, wide, given) => {
+        const text = lines.join('\n');
+        const bytes = wide
+          ? Uint8Array.from([
+              0xff,
+              0xfe,
+              ...Array.from(text).flatMap((c) => [c.charCodeAt(0) & 0xff, c.charCodeAt(0) >> 8]),
+            ])
+          : new TextEncoder().encode(text);
+        const t0 = performance.now();
+        const out = readWaveFile(bytes, 'l.txt', given ? { sampleIntervalS: 1e-4 } : {});
+        expect(performance.now() - t0).toBeLessThan(MAX_MS);
+        if (!out.ok) expect(out.error.code).not.toBe('INTERNAL');
+      }),
+      { numRuns: 300 },
     );
   });
 });
