@@ -2,7 +2,16 @@
  * Typed errors: every failure names the file (or item), the field and the problem, so the user can
  * find it. Readers throw BorewaveError; callers that must keep going turn it into an ErrorInfo.
  */
-/** Every stable machine code the program gives (one list: readers, project opener, pipeline, worker). */
+/**
+ * Every stable machine code the program gives (one list: readers, project opener, pipeline, worker).
+ * Reader codes for instrument files and hostile input (docs/seg2-vendor-keywords.md,
+ * docs/text-waveforms.md): SEG2_NO_TRACES, SEG2_IMPLAUSIBLE_VALUE (value outside its plausible range),
+ * SEG2_BAD_CHANNEL, SEG2_DUPLICATE_CHANNEL, SEG2_TRIGGER_CONFLICT; TEXT_NO_DATA, TEXT_NO_SAMPLE_INTERVAL,
+ * TEXT_BAD_SAMPLE_INTERVAL, and the limits TEXT_LINE_TOO_LONG, TEXT_TOO_MANY_COLUMNS,
+ * TEXT_TOO_MANY_CELLS, TEXT_TOO_LARGE (checked before allocating). Warnings (the file still reads,
+ * WaveRecord.warnings): SEG2_REVISION, TEXT_PREAMBLE_SKIPPED, TEXT_TIME_UNIT_GUESSED,
+ * TEXT_SAMPLE_INTERVAL_DIFFERS. Message: FILE_SAME_NAME (a file kept under a distinct name).
+ */
 export type ErrorCode =
   | 'ARCHIVE_BAD_ENTRY_NAME'
   | 'ARCHIVE_CORRUPT'
@@ -35,6 +44,7 @@ export type ErrorCode =
   | 'FFT_SIZE'
   | 'FILE_EMPTY'
   | 'FILE_NOT_READABLE'
+  | 'FILE_SAME_NAME'
   | 'FILTER_CORNERS'
   | 'FILTER_ORDER'
   | 'FILTER_RATE'
@@ -61,6 +71,7 @@ export type ErrorCode =
   | 'RECORD_NO_DEPTH'
   | 'SEG2_ABSURD_SAMPLE_COUNT'
   | 'SEG2_BAD_BLOCK_ID'
+  | 'SEG2_BAD_CHANNEL'
   | 'SEG2_BAD_DATA_SIZE'
   | 'SEG2_BAD_FORMAT_CODE'
   | 'SEG2_BAD_KEYWORD_VALUE'
@@ -69,11 +80,16 @@ export type ErrorCode =
   | 'SEG2_BAD_SAMPLE_INTERVAL'
   | 'SEG2_BAD_STRING'
   | 'SEG2_BAD_TERMINATOR'
+  | 'SEG2_DUPLICATE_CHANNEL'
   | 'SEG2_EMPTY_FILE'
+  | 'SEG2_IMPLAUSIBLE_VALUE'
   | 'SEG2_NONFINITE_SAMPLE'
+  | 'SEG2_NO_TRACES'
   | 'SEG2_POINTER_PAST_END'
+  | 'SEG2_REVISION'
   | 'SEG2_STRING_TOO_LONG'
   | 'SEG2_TOO_MANY_TRACES'
+  | 'SEG2_TRIGGER_CONFLICT'
   | 'SEG2_TRUNCATED'
   | 'SIGNAL_LENGTH_MISMATCH'
   | 'SIGNAL_SAMPLE_INTERVAL'
@@ -101,12 +117,22 @@ export type ErrorCode =
   | 'SYNTH_BAD_MODEL'
   | 'SYNTH_BAD_OPTION'
   | 'TAPER_FRACTION'
+  | 'TEXT_BAD_SAMPLE_INTERVAL'
   | 'TEXT_EMPTY'
   | 'TEXT_IRREGULAR_TIME'
+  | 'TEXT_LINE_TOO_LONG'
   | 'TEXT_NOT_NUMERIC'
+  | 'TEXT_NO_DATA'
+  | 'TEXT_NO_SAMPLE_INTERVAL'
+  | 'TEXT_PREAMBLE_SKIPPED'
   | 'TEXT_RAGGED_ROW'
+  | 'TEXT_SAMPLE_INTERVAL_DIFFERS'
+  | 'TEXT_TIME_UNIT_GUESSED'
   | 'TEXT_TOO_FEW_COLUMNS'
   | 'TEXT_TOO_FEW_ROWS'
+  | 'TEXT_TOO_LARGE'
+  | 'TEXT_TOO_MANY_CELLS'
+  | 'TEXT_TOO_MANY_COLUMNS'
   | 'UNKNOWN_FORMAT'
   | 'VS1_PA'
   | 'VS1_STRESS'
@@ -147,32 +173,3 @@ export function toErrorInfo(e: unknown, file?: string): ErrorInfo {
   const message = e instanceof Error ? e.message : String(e);
   return { code: 'INTERNAL', message: `Unexpected problem: ${message}`, file };
 }
-
-/**
- * Codes of the waveform readers for instrument files and hostile input (errors unless marked warning;
- * warnings travel in WaveRecord.warnings and are shown in Records and by `inspect`).
- */
-export const READER_CODES = {
-  SEG2_NO_TRACES: 'the file descriptor declares 0 traces',
-  SEG2_REVISION: 'warning: revision number other than 1 (read as revision 1)',
-  SEG2_BAD_KEYWORD_VALUE:
-    'a keyword value is not decimal number text (0x10, NaN, Infinity, a fraction where a whole number is needed)',
-  SEG2_IMPLAUSIBLE_VALUE:
-    'a keyword value is outside its plausible range (DELAY, SKEW, trigger sample, descaling, locations)',
-  SEG2_BAD_CHANNEL: 'CHANNEL_NUMBER is not a whole number',
-  SEG2_DUPLICATE_CHANNEL: 'two traces carry the same CHANNEL_NUMBER',
-  SEG2_TRIGGER_CONFLICT: 'DELAY and TRIGGER_SAMPLE_NO place the trigger more than half a sample apart',
-  TEXT_NO_DATA: 'no block of numeric rows found',
-  TEXT_NO_SAMPLE_INTERVAL: 'no time column (or sample numbers) and no sample interval given or in the preamble',
-  TEXT_BAD_SAMPLE_INTERVAL: 'a sample interval (given, from the preamble or the time column) outside 1e-7 to 1 s',
-  TEXT_LINE_TOO_LONG: 'a line longer than the limit, checked before it is split',
-  TEXT_TOO_MANY_COLUMNS: 'a row with more columns than the limit, counted before cells are kept',
-  TEXT_TOO_MANY_CELLS: 'rows x columns above the limit, checked before the columns are allocated',
-  TEXT_TOO_LARGE: 'a text file larger than the limit, checked before decoding',
-  TEXT_PREAMBLE_SKIPPED: 'warning: lines before the data were skipped',
-  TEXT_TIME_UNIT_GUESSED: 'warning: the time column names no unit; guessed from the step',
-  TEXT_SAMPLE_INTERVAL_DIFFERS: 'warning: the time column and a given or preamble interval disagree (time column used)',
-  FILE_SAME_NAME: 'message: a file shares its name with another and is kept under a distinct name',
-} as const;
-
-export type ReaderCode = keyof typeof READER_CODES;

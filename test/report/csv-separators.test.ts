@@ -41,15 +41,18 @@ describe('CSV export: quoting and neutralising for every list separator', () => 
     }
   });
 
-  it.each([',', ';', '\t'])('split naively at %j and at every line break (no quote handling): still no trigger', (d) => {
-    for (const line of csv.split(/\r\n|\r|\n/)) {
-      for (const piece of line.split(d)) {
-        const cell = piece.replace(/^"/, ''); // a reader may drop a leading quote
-        if (NUMBER.test(cell)) continue;
-        expect(cell, JSON.stringify(cell)).not.toMatch(/^[=+\-@\t\r]/);
+  it.each([',', ';', '\t'])(
+    'split naively at %j and at every line break (no quote handling): still no trigger',
+    (d) => {
+      for (const line of csv.split(/\r\n|\r|\n/)) {
+        for (const piece of line.split(d)) {
+          const cell = piece.replace(/^"/, ''); // a reader may drop a leading quote
+          if (NUMBER.test(cell)) continue;
+          expect(cell, JSON.stringify(cell)).not.toMatch(/^[=+\-@\t\r]/);
+        }
       }
-    }
-  });
+    },
+  );
 
   it('with the comma the file is written with: each cell is the original after removing the apostrophes', () => {
     const rows = Papa.parse<string[]>(csv, { delimiter: ',', skipEmptyLines: true }).data;
