@@ -165,3 +165,17 @@ describe('limits checked before allocating', () => {
     }
   });
 });
+
+describe('a first column with another name', () => {
+  it('"x" rising at a regular 0.05 step is time, its unit guessed (ms) with a warning', () => {
+    const r = readDelimitedText('x,geo\n0,1\n0.05,2\n0.1,3\n', 'x.csv');
+    expect(r.traces).toHaveLength(1);
+    expect(r.traces[0].sampleIntervalS).toBeCloseTo(5e-5, 18);
+    expect(r.warnings?.map((w) => w.code)).toEqual(['TEXT_TIME_UNIT_GUESSED']);
+  });
+  it('"CH1" holding amplitudes is a channel', () => {
+    const r = readDelimitedText('CH1,CH2\n0.3,1\n-0.2,2\n0.9,3\n', 'a.csv', { sampleIntervalS: 1e-4 });
+    expect(r.traces).toHaveLength(2);
+    expect(r.fileStrings.TIME_UNIT).toBe('none');
+  });
+});

@@ -575,7 +575,12 @@ export function readDelimitedText(text: string, fileName: string, opts: TextRead
   let timeUnit: TimeUnit | 'none';
   let unitSource: string;
   if (header) {
-    hasTime = isTimeHeader(header[0]);
+    // A first column named like time is time; one with another name is time only when no sample
+    // interval was given or written in the preamble, it rises at a regular step (amplitudes never do)
+    // and other columns remain; its unit is then guessed with a warning.
+    hasTime =
+      isTimeHeader(header[0]) ||
+      (given === undefined && !fromPreamble && k >= 2 && rows >= 2 && firstIrregularStep(columns[0], timeDecimals) < 0);
     const u = hasTime ? timeUnitFromHeader(header[0]) : null;
     timeUnit = u ?? 'none';
     unitSource = u ? 'header' : '';
