@@ -179,3 +179,13 @@ describe('a first column with another name', () => {
     expect(r.fileStrings.TIME_UNIT).toBe('none');
   });
 });
+
+describe('quoted cells', () => {
+  it('a quoted header cell holding the separator and quoted numbers read as one cell each (RFC 4180)', () => {
+    const r = readDelimitedText('"time, ms","geo ""A"", x"\n"0","1.5"\n"0.5",2\n', 'q.csv');
+    expect(r.traces).toHaveLength(1);
+    expect(r.traces[0].strings.COLUMN_NAME).toBe('geo "A", x');
+    expect(Array.from(r.traces[0].samples)).toEqual([1.5, 2]);
+    expect(r.traces[0].sampleIntervalS).toBeCloseTo(5e-4, 18);
+  });
+});

@@ -441,10 +441,14 @@ export function readDelimitedText(text: string, fileName: string, opts: TextRead
         `line ${lineNo[i]}`,
       );
     }
-    return n;
+    // A line holding a quote: its cells as RFC 4180 reads them (a quoted separator is no separator).
+    lastQuoted = hasQuote(i) ? quotedCells(body.slice(starts[i], ends[i]), separator) : null;
+    return lastQuoted ? lastQuoted.length : n;
   };
+  let lastQuoted: string[] | null = null;
   /** Cell count without a trailing separator's empty cell. */
-  const trailingEmpty = (n: number) => n > 1 && bounds[2 * n - 2] === bounds[2 * n - 1];
+  const trailingEmpty = (n: number) =>
+    n > 1 && (lastQuoted ? lastQuoted[n - 1] === '' : bounds[2 * n - 2] === bounds[2 * n - 1]);
   const fits = (n: number) => n === k || (n === k + 1 && trailingEmpty(n));
   const hasQuote = (i: number): boolean => {
     for (let j = starts[i]; j < ends[i]; j++) if (body.charCodeAt(j) === 34) return true;
