@@ -189,3 +189,13 @@ describe('quoted cells', () => {
     expect(r.traces[0].sampleIntervalS).toBeCloseTo(5e-4, 18);
   });
 });
+
+describe('deviation tables share the limits', () => {
+  it('one 50 MB line and a 10,000-column row are refused before splitting', async () => {
+    const { readDeviationTable } = await import('../../src/core/io/deviation');
+    expect(errorOf(() => readDeviationTable('7'.repeat(50_000_000), 'dev.csv')).code).toBe('TEXT_LINE_TOO_LONG');
+    expect(errorOf(() => readDeviationTable(`${'1,'.repeat(10_000)}1\n`, 'dev.csv')).code).toBe(
+      'TEXT_TOO_MANY_COLUMNS',
+    );
+  });
+});

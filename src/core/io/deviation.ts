@@ -39,7 +39,7 @@ function pickColumns(header: string[] | null): [number, number, number] {
  */
 export function readDeviationTable(text: string, fileName: string): DeviationStation[] {
   const file = fileName;
-  const { rows, separator } = splitTextRows(text);
+  const { rows, separator } = splitTextRows(text, fileName);
   if (rows.length === 0) fail('DEVIATION_EMPTY', 'the deviation table holds no rows', file);
   const decimalComma = allowsDecimalComma(separator);
   const hasHeader = isHeaderRow(rows[0].cells, separator);

@@ -36,14 +36,32 @@ function isComment(line: string): boolean {
 }
 
 /** Split text into rows of cells, skipping blank and comment lines and keeping line numbers. */
-export function splitTextRows(text: string): { rows: TextRow[]; separator: Separator } {
+export function splitTextRows(text: string, fileName = 'text'): { rows: TextRow[]; separator: Separator } {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   const kept: { line: number; text: string }[] = [];
   body.split(/\r\n|\r|\n/).forEach((l, i) => {
+    // Limits before any line is split (TEXT_LIMITS, shared with the waveform reader).
+    if (l.length > TEXT_LIMITS.maxLineChars)
+      fail(
+        'TEXT_LINE_TOO_LONG',
+        `line ${i + 1} has ${l.length} characters, more than ${TEXT_LIMITS.maxLineChars}`,
+        fileName,
+        `line ${i + 1}`,
+      );
     if (l.trim().length > 0 && !isComment(l)) kept.push({ line: i + 1, text: l });
   });
   const separator = detectSeparator(kept.map((k) => k.text));
-  const rows = kept.map((k) => ({ line: k.line, cells: splitLine(k.text, separator) }));
+  const bounds: number[] = [];
+  const rows = kept.map((k) => {
+    if (scanCells(k.text, 0, k.text.length, separator, bounds, TEXT_LIMITS.maxColumns) < 0)
+      fail(
+        'TEXT_TOO_MANY_COLUMNS',
+        `line ${k.line} has more than ${TEXT_LIMITS.maxColumns} columns`,
+        fileName,
+        `line ${k.line}`,
+      );
+    return { line: k.line, cells: splitLine(k.text, separator) };
+  });
   return { rows, separator };
 }
 
