@@ -213,10 +213,10 @@ function pairDelayMs(run: ReturnType<typeof runSurvey>): { inSurveyMs: number; w
     maxDelayS: 0.02,
   };
   const pick = {
-    onsetMethod: settings.onsetMethod,
-    staS: settings.staS,
-    ltaS: settings.ltaS,
-    staLtaThreshold: settings.staLtaThreshold,
+    onsetMethod: settings.picking.onsetMethod,
+    staS: settings.picking.staS,
+    ltaS: settings.picking.ltaS,
+    staLtaThreshold: settings.picking.staLtaThreshold,
     phaseBandHz: null,
   };
   const aa = analyseStation(a, pick);

@@ -10,7 +10,7 @@
  */
 import { toErrorInfo, type ErrorInfo } from './errors';
 import type { PairDelay, Pick, Survey, Wave, WaveRecord } from './model';
-import type { Settings, UserEdits } from './settings';
+import { userBoundariesM, type Settings, type UserEdits } from './settings';
 import {
   intervalKey,
   pickEditKey,
@@ -31,7 +31,7 @@ import {
 } from './catalogue/methods';
 import { FIT_SLOT, hasDepthTimeFits, hasDirectVelocities, hasSuccessiveDepths } from './catalogue/testKinds';
 import { DOUBTFUL_VP_FLAGS, type IntervalFlag } from './flags';
-import { autoPickSurvey, pairDelays, type AutoPickResult, type PickingSettings } from './picking/autopick';
+import { autoPickSurvey, pairDelays, type AutoPickResult } from './picking/autopick';
 import { buildStations, type Station } from './survey/stations';
 import { horizontalDistanceM } from './survey/geometry';
 import {
@@ -73,16 +73,6 @@ export function prepare(survey: Survey, records: ReadonlyMap<string, WaveRecord>
   return { stations, pairs, issues };
 }
 
-function pickingSettings(settings: Settings): PickingSettings {
-  return {
-    onsetMethod: settings.onsetMethod,
-    staS: settings.staS,
-    ltaS: settings.ltaS,
-    staLtaThreshold: settings.staLtaThreshold,
-    phaseBandHz: settings.phaseBandHz,
-  };
-}
-
 export function autoPick(
   prepared: Prepared,
   settings: Settings,
@@ -91,7 +81,7 @@ export function autoPick(
   return autoPickSurvey(
     prepared.stations.map((s) => s.working),
     delayRequests(prepared.pairs, settings),
-    pickingSettings(settings),
+    settings.picking,
     onProgress,
   );
 }
@@ -125,7 +115,7 @@ function bridgingPairs(
         pairs.push(pair);
         try {
           const [req] = delayRequests([pair], settings);
-          for (const d of pairDelays(a.working, b.working, req, pickingSettings(settings)))
+          for (const d of pairDelays(a.working, b.working, req, settings.picking))
             delays.push({ ...d, flags: [...d.flags, 'bridges excluded station'] });
         } catch (e) {
           issues.push(toErrorInfo(e, key));
@@ -167,15 +157,15 @@ function directVelocities(
   for (const s of stations) {
     const p = onset.get(stationWaveKey(s.key, s.wave));
     if (!p) continue;
-    const dt = p.timeS - settings.triggerDelayS;
+    const dt = p.timeS - settings.intervals.triggerDelayS;
     const flags: IntervalFlag[] = [...p.flags];
     let v: number | null = null;
     let sd: number | null = null;
     if (!(dt > 0)) flags.push('non-positive time');
     else {
       v = s.straightPathM / dt;
-      sd = intervalVelocitySdMps(v, s.straightPathM, Math.SQRT2 * settings.positionSdM, dt, p.uncertaintyS);
-      const range = s.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+      sd = intervalVelocitySdMps(v, s.straightPathM, Math.SQRT2 * settings.intervals.positionSdM, dt, p.uncertaintyS);
+      const range = s.wave === 'S' ? settings.picking.vsRangeMps : settings.picking.vpRangeMps;
       if (v < range[0]) flags.push('slow?');
       if (v > range[1]) flags.push('fast?');
     }
@@ -321,8 +311,8 @@ function travelTimeRows(survey: Survey, stations: readonly Station[], picks: rea
  * is closed by the surface and the deepest station, so "5, 10" gives 0-5, 5-10 and 10-bottom layers.
  */
 function layerBoundaries(survey: Survey, settings: Settings, deepestM: number): number[] {
-  const inner = settings.layerBoundariesM.length
-    ? settings.layerBoundariesM
+  const inner = userBoundariesM(settings).length
+    ? userBoundariesM(settings)
     : survey.soil.layers
         .map((l) => l.topM)
         .concat(survey.soil.layers.length ? [survey.soil.layers[survey.soil.layers.length - 1].bottomM] : []);
@@ -455,9 +445,10 @@ function rayFitFor(
   settings: Settings,
 ): { result: RayFitResult | null; byPair: Map<IntervalKey, { velocityMps: number; sdMps: number }> } {
   const byPair = new Map<IntervalKey, { velocityMps: number; sdMps: number }>();
-  if (!hasSuccessiveDepths(survey) || !methodApplies('ray-fit', survey.kind) || !settings.rayFit)
+  if (!hasSuccessiveDepths(survey) || !methodApplies('ray-fit', survey.kind) || !settings.intervals.rayFit)
     return { result: null, byPair };
-  const method = methodInfo(settings.profileMethod).kind === 'model' ? 'xcorr' : settings.profileMethod;
+  const method =
+    methodInfo(settings.intervals.profileMethod).kind === 'model' ? 'xcorr' : settings.intervals.profileMethod;
   const direct = directTimesFor(prepared.stations, prepared.pairs, picks, delays, method);
   if (direct.length < 2) return { result: null, byPair };
   const result = fitLayersWithRays({
@@ -545,11 +536,11 @@ function siteIntervals(rows: readonly SiteInterval[]): SiteInterval[] {
 function spreadOf(ivs: SiteInterval[], settings: Settings): SiteUncertainty | null {
   return ivs.length
     ? siteUncertainty(ivs, {
-        draws: settings.monteCarloDraws,
-        seed: settings.monteCarloSeed,
+        draws: settings.site.monteCarloDraws,
+        seed: settings.site.monteCarloSeed,
         toDepthM: 30,
-        rule: settings.vs30Rule,
-        answers: settings.siteAnswers,
+        rule: settings.site.vs30Rule,
+        answers: settings.site.siteAnswers,
       })
     : null;
 }
@@ -564,8 +555,8 @@ export function siteSpread(derived: Derived, settings: Settings): SiteUncertaint
 
 function siteSummary(velocity: readonly VelocityInterval[], settings: Settings, monteCarlo: boolean): SiteSummary {
   const ivs = siteIntervals(velocity);
-  const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.vs30Rule) : null;
-  const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.siteAnswers)) : [];
+  const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.site.vs30Rule) : null;
+  const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.site.siteAnswers)) : [];
   const uncertainty = monteCarlo ? spreadOf(ivs, settings) : null;
   return { vs30, classes, uncertainty, cautions: [...SITE_CAUTIONS] };
 }
@@ -646,7 +637,7 @@ function comparisonResult(
   return {
     name: cmp.name,
     source: cmp.source,
-    vs30: steps.length ? timeAveragedVs(steps, 30, settings.vs30Rule) : null,
+    vs30: steps.length ? timeAveragedVs(steps, 30, settings.site.vs30Rule) : null,
     differences: compareProfiles(
       velocity.map((v) => ({ topM: v.topM, bottomM: v.bottomM, vsMps: v.vsMps })),
       cmp,

@@ -379,7 +379,7 @@ export function IntervalsTable() {
   const selected = useApp((s) => s.view.selectedInterval);
   const hovered = useApp((s) => s.view.hoveredInterval);
   const edits = useApp((s) => s.edits);
-  const profileMethod = useApp((s) => s.settings.profileMethod);
+  const profileMethod = useApp((s) => s.settings.intervals.profileMethod);
   const intervals = d?.intervals;
   const cmp = d?.comparison;
   const list = useMemo(() => groups(intervals ?? [], wave), [intervals, wave]);
@@ -448,7 +448,7 @@ export function IntervalsTable() {
           Profile method{' '}
           <select
             value={profileMethod}
-            onChange={(e) => updateSettings({ profileMethod: e.target.value as IntervalMethod })}
+            onChange={(e) => updateSettings({ intervals: { profileMethod: e.target.value as IntervalMethod } })}
             aria-label="Profile method"
           >
             {INTERVAL_METHODS.map((m) => (
