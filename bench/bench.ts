@@ -14,7 +14,7 @@ import type { WaveRecord } from '../src/core/model';
 import { autoPick, derive, prepare } from '../src/core/pipeline';
 import { analyseStation, pairDelays, pairDelaysFromAnalysis } from '../src/core/picking/autopick';
 import { defaultSettings, emptyEdits, type IntervalMethod } from '../src/core/settings';
-import { siteUncertainty } from '../src/core/stiffness/montecarlo';
+import { siteUncertainty } from '../src/core/site/montecarlo';
 import {
   demoCrossholeGeometry,
   demoCrossholeOptions,

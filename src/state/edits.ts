@@ -5,7 +5,7 @@
  */
 import type { Wave } from '../core/model';
 import { toErrorInfo, type ErrorInfo } from '../core/errors';
-import { parseComparisonCsv, type ComparisonProfile } from '../core/stiffness/comparison';
+import { parseComparisonCsv, type ComparisonProfile } from '../core/site/comparison';
 import { patchSettings, type SettingsPatch, type UserEdits } from '../core/settings';
 import type { EditablePickMethod, IntervalMethod } from '../core/catalogue/methods';
 import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core/keys';

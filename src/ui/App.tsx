@@ -7,7 +7,7 @@ import type { Derived } from '../core/pipeline';
 import type { UnitSystem } from '../core/units';
 import type { Survey, Wave } from '../core/model';
 import type { Settings } from '../core/settings';
-import { STANDARD_NAMES } from '../core/stiffness/site';
+import { STANDARD_NAMES } from '../core/site/classes';
 import { EXPORT_CAUTIONS } from '../core/report/tables';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
 import { currentDerived, settleSpread, useDerived } from '../state/derived';

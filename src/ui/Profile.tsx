@@ -7,8 +7,8 @@ import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core/catal
 import type { IntervalKey, StationKey } from '../core/keys';
 import type { IntervalValue } from '../core/velocity/intervals';
 import type { ComparisonResult, ProfileRow } from '../core/pipeline';
-import type { ComparisonProfile } from '../core/stiffness/comparison';
-import { DEFAULT_RAYLEIGH_POISSON } from '../core/stiffness/comparison';
+import type { ComparisonProfile } from '../core/site/comparison';
+import { DEFAULT_RAYLEIGH_POISSON } from '../core/site/comparison';
 import type { ErrorInfo } from '../core/errors';
 import { useDerived } from '../state/derived';
 import {

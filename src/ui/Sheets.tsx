@@ -4,7 +4,7 @@
  * images, the project archive, a printable summary).
  */
 import { hasDirectVelocities } from '../core/catalogue/testKinds';
-import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
+import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/site/classes';
 import {
   directTable,
   intervalsTable,

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { derive, runPipeline, siteSpread } from '../../src/core/pipeline';
 import { demoCrossholeGeometry, demoCrossholeOptions, demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
-import type { ComparisonProfile } from '../../src/core/stiffness/comparison';
+import type { ComparisonProfile } from '../../src/core/site/comparison';
 import { defaultSettings, emptyEdits, patchSettings } from '../../src/core/settings';
 
 describe('comparison profile from another test', () => {

@@ -6,7 +6,7 @@
 import { unzipSync, zipSync, strFromU8, strToU8 } from 'fflate';
 import { BorewaveError } from '../errors';
 import type { Survey } from '../model';
-import type { ComparisonProfile } from '../stiffness/comparison';
+import type { ComparisonProfile } from '../site/comparison';
 import {
   defaultSettings,
   emptyEdits,

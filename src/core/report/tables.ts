@@ -9,7 +9,7 @@ import Papa from 'papaparse';
 import type { Station } from '../survey/stations';
 import type { Derived, ProfileRow } from '../pipeline';
 import type { Settings } from '../settings';
-import { SITE_CAUTIONS } from '../stiffness/site';
+import { SITE_CAUTIONS } from '../site/classes';
 import { csvColumn, toDisplay, type QuantityKind, type UnitSystem } from '../units';
 
 export type Cell = string | number | null;
