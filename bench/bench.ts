@@ -16,7 +16,7 @@ import type { WaveRecord } from '../src/core/model';
 import { autoPick, derive, prepare } from '../src/core/pipeline';
 import { analyseStation, pairDelays, pairDelaysFromAnalysis } from '../src/core/picking/autopick';
 import { defaultSettings, emptyEdits, type IntervalMethod } from '../src/core/settings';
-import { siteUncertainty } from '../src/core/stiffness/montecarlo';
+import { siteUncertainty } from '../src/core/site/montecarlo';
 import {
   demoCrossholeGeometry,
   demoCrossholeOptions,
@@ -215,10 +215,10 @@ function pairDelayMs(run: ReturnType<typeof runSurvey>): { inSurveyMs: number; w
     maxDelayS: 0.02,
   };
   const pick = {
-    onsetMethod: settings.onsetMethod,
-    staS: settings.staS,
-    ltaS: settings.ltaS,
-    staLtaThreshold: settings.staLtaThreshold,
+    onsetMethod: settings.picking.onsetMethod,
+    staS: settings.picking.staS,
+    ltaS: settings.picking.ltaS,
+    staLtaThreshold: settings.picking.staLtaThreshold,
     phaseBandHz: null,
   };
   const aa = analyseStation(a, pick);

@@ -13,7 +13,7 @@ import { test, expect, type Page } from '@playwright/test';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { readWaveFile } from '../src/core/io/readers';
 import { runPipeline } from '../src/core/pipeline';
-import { parseComparisonCsv } from '../src/core/stiffness/comparison';
+import { parseComparisonCsv } from '../src/core/site/comparison';
 import type { WaveRecord } from '../src/core/model';
 import { appState, SCREENS, waitProcessed } from './helpers';
 

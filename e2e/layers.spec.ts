@@ -61,7 +61,7 @@ test('layer boundaries typed in Geometry (5, 10 m) set the Travel time fits', as
   const field = page.getByLabel('Layer boundaries');
   await field.fill('5, 10');
   await field.press('Enter');
-  await expect.poll(async () => (await appState(page)).settings.layerBoundariesM).toEqual([5, 10]);
+  await expect.poll(async () => (await appState(page)).settings.layering.boundariesM).toEqual([5, 10]);
   // The field shows the committed boundaries in the displayed unit.
   await expect(field).toHaveValue('5.00, 10.00');
   await page.locator('.geometry-pane').screenshot({ path: `${SCREENS}/59-geometry-layer-boundaries.png` });
@@ -109,6 +109,6 @@ test('layer boundaries typed in Geometry (5, 10 m) set the Travel time fits', as
   await page.getByRole('tab', { name: 'Geometry' }).click();
   await page.getByLabel('Layer boundaries').fill('');
   await page.getByLabel('Layer boundaries').press('Enter');
-  await expect.poll(async () => (await appState(page)).settings.layerBoundariesM).toEqual([]);
+  await expect.poll(async () => (await appState(page)).settings.layering.boundariesM).toEqual([]);
   expect((await fitsAndRows(page)).fits).toEqual(before.fits);
 });

@@ -111,7 +111,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
   const v = result.derived.site.vs30;
   io.stdout.write(
-    `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.profileMethod}), ` +
+    `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.intervals.profileMethod}), ` +
       (v ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m` : 'no time-averaged Vs') +
       `; wrote picks.csv, intervals.csv, profile.csv, layers.csv, ${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
   );

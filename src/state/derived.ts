@@ -16,7 +16,7 @@ import type { Survey } from '../core/model';
 import type { Settings, UserEdits } from '../core/settings';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
-import type { ComparisonProfile } from '../core/stiffness/comparison';
+import type { ComparisonProfile } from '../core/site/comparison';
 import { useApp, useResults } from './store';
 
 type Inputs = [Survey, Prepared | null, AutoPickResult | null, UserEdits, Settings, ComparisonProfile | null];

@@ -5,8 +5,8 @@
  */
 import type { Wave } from '../core/model';
 import { toErrorInfo, type ErrorInfo } from '../core/errors';
-import { parseComparisonCsv, type ComparisonProfile } from '../core/stiffness/comparison';
-import type { Settings, UserEdits } from '../core/settings';
+import { parseComparisonCsv, type ComparisonProfile } from '../core/site/comparison';
+import { patchSettings, type SettingsPatch, type UserEdits } from '../core/settings';
 import type { EditablePickMethod, IntervalMethod } from '../core/catalogue/methods';
 import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core/keys';
 import { amend, commit, useApp, useResults, type Snapshot } from './store';
@@ -96,8 +96,8 @@ export function toggleIntervalExcluded(intervalKey: IntervalKey): void {
   });
 }
 
-export function updateSettings(patch: Partial<Settings>): void {
-  commit((s) => ({ settings: { ...s.settings, ...patch } }));
+export function updateSettings(patch: SettingsPatch): void {
+  commit((s) => ({ settings: patchSettings(s.settings, patch) }));
 }
 
 export function updateSurvey(change: (s: Snapshot['survey']) => Snapshot['survey']): void {

@@ -5,29 +5,16 @@
  */
 import type { Survey } from '../core/model';
 import type { ErrorCode } from '../core/errors';
-import type { Settings } from '../core/settings';
+import { WORKER_SETTING_GROUPS, type Settings } from '../core/settings';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
 import { processLane } from '../worker/client';
 import { rawRecords } from './raw';
 import { useApp, useResults } from './store';
 
-/** Settings that change the working traces or the automatic picks. */
+/** Settings that change the working traces or the automatic picks: the groups prepare() and autoPick() read. */
 function processingSettings(s: Settings): unknown {
-  return [
-    s.detrend,
-    s.taperFraction,
-    s.bandpassS,
-    s.bandpassP,
-    s.useReversedHits,
-    s.onsetMethod,
-    s.staS,
-    s.ltaS,
-    s.staLtaThreshold,
-    s.phaseBandHz,
-    s.vsRangeMps,
-    s.vpRangeMps,
-  ];
+  return WORKER_SETTING_GROUPS.map((g) => s[g]);
 }
 
 export function processingKey(survey: Survey, settings: Settings, loadedIds: string[]): string {

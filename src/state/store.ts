@@ -12,7 +12,7 @@ import type { UnitSystem } from '../core/units';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
 import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
-import type { ComparisonProfile } from '../core/stiffness/comparison';
+import type { ComparisonProfile } from '../core/site/comparison';
 import { blankSurvey } from '../core/catalogue/testKinds';
 
 export interface Snapshot {

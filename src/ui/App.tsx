@@ -7,7 +7,7 @@ import type { Derived } from '../core/pipeline';
 import type { UnitSystem } from '../core/units';
 import type { Survey, Wave } from '../core/model';
 import type { Settings } from '../core/settings';
-import { STANDARD_NAMES } from '../core/stiffness/site';
+import { STANDARD_NAMES } from '../core/site/classes';
 import { EXPORT_CAUTIONS } from '../core/report/tables';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
 import { currentDerived, settleSpread, useDerived } from '../state/derived';
@@ -321,10 +321,13 @@ const PrintBody = memo(function PrintBody({
       </p>
       <h2>Settings</h2>
       <p>
-        Profile method: {methodInfo(settings.profileMethod).label} · onset picker: {settings.onsetMethod} · reversed
-        hits: {settings.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
-        {settings.bandpassS ? `${settings.bandpassS.lowHz}-${settings.bandpassS.highHz} Hz` : 'none'} · source offset{' '}
-        {fmt('depth', units, survey.sourceOffsetM)} {dep} · water table{' '}
+        Profile method: {methodInfo(settings.intervals.profileMethod).label} · onset picker:{' '}
+        {settings.picking.onsetMethod} · reversed hits: {settings.conditioning.useReversedHits ? 'used' : 'not used'} ·
+        S band-pass:{' '}
+        {settings.conditioning.bandpassS
+          ? `${settings.conditioning.bandpassS.lowHz}-${settings.conditioning.bandpassS.highHz} Hz`
+          : 'none'}{' '}
+        · source offset {fmt('depth', units, survey.sourceOffsetM)} {dep} · water table{' '}
         {survey.soil.waterTableM === null ? 'none' : `${fmt('depth', units, survey.soil.waterTableM)} ${dep}`}
       </p>
       <h2>Profile</h2>

@@ -14,7 +14,8 @@ import type {
   TestKind,
   ValueSource,
 } from '../core/model';
-import type { BandpassSetting, Settings } from '../core/settings';
+import { userBoundariesM, type BandpassSetting, type Settings } from '../core/settings';
+import type { OnsetPicker } from '../core/catalogue/methods';
 import { STRESS_EXPONENT_CHOICES } from '../core/stiffness/normalise';
 import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
 import { applyPaste } from '../core/survey/paste';
@@ -519,7 +520,9 @@ function LayerBoundariesField({ settings, units }: { settings: Settings; units: 
         width={24}
         ariaLabel="Layer boundaries"
         placeholder="soil layers"
-        value={settings.layerBoundariesM.map((z) => fmt('depth', units, z, 2)).join(', ')}
+        value={userBoundariesM(settings)
+          .map((z) => fmt('depth', units, z, 2))
+          .join(', ')}
         onCommit={(t) => {
           const words = t.split(/[,;\s]+/).filter(Boolean);
           const parts = words.map((x) => parseDisplay('depth', units, x));
@@ -529,7 +532,8 @@ function LayerBoundariesField({ settings, units }: { settings: Settings; units: 
             return;
           }
           setProblem(null);
-          updateSettings({ layerBoundariesM: [...new Set(parts as number[])].sort((a, b) => a - b) });
+          const boundariesM = [...new Set(parts as number[])].sort((a, b) => a - b);
+          updateSettings({ layering: { mode: boundariesM.length ? 'user' : 'auto', boundariesM } });
         }}
       />
       {problem && (
@@ -548,12 +552,12 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
     <QtyField
       kind="velocity"
       units={units}
-      si={settings[which][i]}
+      si={settings.picking[which][i]}
       onCommit={(x) => {
         if (x === null) return;
-        const r: [number, number] = [...settings[which]] as [number, number];
+        const r: [number, number] = [...settings.picking[which]] as [number, number];
         r[i] = x;
-        updateSettings({ [which]: r } as Partial<Settings>);
+        updateSettings({ picking: { [which]: r } });
       }}
     />
   );
@@ -561,27 +565,27 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
     <div className="form-grid">
       <BandField
         title="Band-pass for S"
-        value={settings.bandpassS}
-        onChange={(b) => updateSettings({ bandpassS: b })}
+        value={settings.conditioning.bandpassS}
+        onChange={(b) => updateSettings({ conditioning: { bandpassS: b } })}
       />
       <BandField
         title="Band-pass for P"
-        value={settings.bandpassP}
-        onChange={(b) => updateSettings({ bandpassP: b })}
+        value={settings.conditioning.bandpassP}
+        onChange={(b) => updateSettings({ conditioning: { bandpassP: b } })}
       />
       <label>
         <input
           type="checkbox"
-          checked={settings.useReversedHits}
-          onChange={(e) => updateSettings({ useReversedHits: e.target.checked })}
+          checked={settings.conditioning.useReversedHits}
+          onChange={(e) => updateSettings({ conditioning: { useReversedHits: e.target.checked } })}
         />{' '}
         Use reversed hits (difference for S, sum for P)
       </label>
       <label>
         Onset picker{' '}
         <select
-          value={settings.onsetMethod}
-          onChange={(e) => updateSettings({ onsetMethod: e.target.value as Settings['onsetMethod'] })}
+          value={settings.picking.onsetMethod}
+          onChange={(e) => updateSettings({ picking: { onsetMethod: e.target.value as OnsetPicker } })}
         >
           <option value="aic">AIC (Maeda 1985)</option>
           <option value="stalta">STA/LTA (Allen 1978)</option>
@@ -596,16 +600,16 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
       <label>
         <input
           type="checkbox"
-          checked={settings.rayFit}
-          onChange={(e) => updateSettings({ rayFit: e.target.checked })}
+          checked={settings.intervals.rayFit}
+          onChange={(e) => updateSettings({ intervals: { rayFit: e.target.checked } })}
         />{' '}
         Refracted-ray layer fit (downhole)
       </label>
       <label>
         Trigger delay t0 for crosshole direct velocities, V = D / (t − t0) (ms){' '}
         <NumField
-          value={settings.triggerDelayS * 1000}
-          onCommit={(x) => updateSettings({ triggerDelayS: x / 1000 })}
+          value={settings.intervals.triggerDelayS * 1000}
+          onCommit={(x) => updateSettings({ intervals: { triggerDelayS: x / 1000 } })}
           ariaLabel="Trigger delay"
         />
       </label>
@@ -613,8 +617,8 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
       <label>
         Flag when methods differ by more than{' '}
         <NumField
-          value={Math.round(settings.methodDisagreementShare * 100)}
-          onCommit={(x) => updateSettings({ methodDisagreementShare: x / 100 })}
+          value={Math.round(settings.intervals.methodDisagreementShare * 100)}
+          onCommit={(x) => updateSettings({ intervals: { methodDisagreementShare: x / 100 } })}
         />{' '}
         %
       </label>

@@ -7,8 +7,8 @@ import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core/catal
 import type { IntervalKey, StationKey } from '../core/keys';
 import type { IntervalValue } from '../core/velocity/intervals';
 import type { ComparisonResult, ProfileRow } from '../core/pipeline';
-import type { ComparisonProfile } from '../core/stiffness/comparison';
-import { DEFAULT_RAYLEIGH_POISSON } from '../core/stiffness/comparison';
+import type { ComparisonProfile } from '../core/site/comparison';
+import { DEFAULT_RAYLEIGH_POISSON } from '../core/site/comparison';
 import type { ErrorInfo } from '../core/errors';
 import { useDerived } from '../state/derived';
 import {
@@ -379,7 +379,7 @@ export function IntervalsTable() {
   const selected = useApp((s) => s.view.selectedInterval);
   const hovered = useApp((s) => s.view.hoveredInterval);
   const edits = useApp((s) => s.edits);
-  const profileMethod = useApp((s) => s.settings.profileMethod);
+  const profileMethod = useApp((s) => s.settings.intervals.profileMethod);
   const intervals = d?.intervals;
   const cmp = d?.comparison;
   const list = useMemo(() => groups(intervals ?? [], wave), [intervals, wave]);
@@ -448,7 +448,7 @@ export function IntervalsTable() {
           Profile method{' '}
           <select
             value={profileMethod}
-            onChange={(e) => updateSettings({ profileMethod: e.target.value as IntervalMethod })}
+            onChange={(e) => updateSettings({ intervals: { profileMethod: e.target.value as IntervalMethod } })}
             aria-label="Profile method"
           >
             {INTERVAL_METHODS.map((m) => (

@@ -4,7 +4,7 @@
  * images, the project archive, a printable summary).
  */
 import { hasDirectVelocities } from '../core/catalogue/testKinds';
-import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/stiffness/site';
+import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/site/classes';
 import {
   directTable,
   intervalsTable,
@@ -82,7 +82,7 @@ export function SiteSheet() {
           )}
           {u && (
             <p data-testid="site-spread">
-              Spread from the interval uncertainties ({settings.monteCarloDraws} draws): P05{' '}
+              Spread from the interval uncertainties ({settings.site.monteCarloDraws} draws): P05{' '}
               {fmt('velocity', units, u.vs30P05Mps)} · P50 {fmt('velocity', units, u.vs30P50Mps)} · P95{' '}
               {fmt('velocity', units, u.vs30P95Mps)} {v}
             </p>
@@ -90,8 +90,8 @@ export function SiteSheet() {
           <label>
             Profile shorter than 30 m{' '}
             <select
-              value={settings.vs30Rule}
-              onChange={(e) => updateSettings({ vs30Rule: e.target.value as Vs30RuleSetting })}
+              value={settings.site.vs30Rule}
+              onChange={(e) => updateSettings({ site: { vs30Rule: e.target.value as Vs30RuleSetting } })}
             >
               <option value="no-extrapolation">average over the measured depth only</option>
               <option value="extend-deepest">extend the deepest velocity to 30 m</option>
@@ -140,8 +140,10 @@ export function SiteSheet() {
         <label key={q.id} className="question">
           <input
             type="checkbox"
-            checked={settings.siteAnswers[q.id] === true}
-            onChange={(e) => updateSettings({ siteAnswers: { ...settings.siteAnswers, [q.id]: e.target.checked } })}
+            checked={settings.site.siteAnswers[q.id] === true}
+            onChange={(e) =>
+              updateSettings({ site: { siteAnswers: { ...settings.site.siteAnswers, [q.id]: e.target.checked } } })
+            }
           />{' '}
           <span>
             {q.text}{' '}

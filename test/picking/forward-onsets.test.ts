@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { autoPick, prepare } from '../../src/core/pipeline';
-import { defaultSettings } from '../../src/core/settings';
+import { defaultSettings, patchSettings } from '../../src/core/settings';
 import { demoEarthModel, pulseAt, synthesizeSurvey } from '../../src/core/synth';
 
 const depthsM = [3, 5, 8, 11, 14, 17, 20, 23, 26, 29];
@@ -28,7 +28,9 @@ function onsetErrorsS(snr: number, method: 'aic' | 'stalta'): number[] {
       maxTriggerDelayS: 0,
     },
   );
-  const settings = { ...defaultSettings(), onsetMethod: method, staLtaThreshold: snr >= 10 ? 3 : 2 };
+  const settings = patchSettings(defaultSettings(), {
+    picking: { onsetMethod: method, staLtaThreshold: snr >= 10 ? 3 : 2 },
+  });
   const prep = prepare(res.survey, new Map(res.records.map((r) => [r.id, r])), settings);
   const auto = autoPick(prep, settings);
   const errs: number[] = [];

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { derive, runPipeline, siteSpread } from '../../src/core/pipeline';
 import { demoCrossholeGeometry, demoCrossholeOptions, demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
-import type { ComparisonProfile } from '../../src/core/stiffness/comparison';
-import { defaultSettings, emptyEdits } from '../../src/core/settings';
+import type { ComparisonProfile } from '../../src/core/site/comparison';
+import { defaultSettings, emptyEdits, patchSettings } from '../../src/core/settings';
 
 describe('comparison profile from another test', () => {
   it("the forward model's own layers as the comparison: Vs30 = 30 / sum(d/Vs) = 237.99 m/s by hand, and small differences", () => {
@@ -64,7 +64,7 @@ describe('user layer boundaries are closed by the surface and the deepest statio
     const out = runPipeline({
       survey: res.survey,
       records: new Map(res.records.map((r) => [r.id, r])),
-      settings: { ...defaultSettings(), layerBoundariesM: [5, 10] },
+      settings: patchSettings(defaultSettings(), { layering: { mode: 'user', boundariesM: [5, 10] } }),
       edits: emptyEdits(),
     });
     const s = out.derived.layerFits.filter((f) => f.wave === 'S').map((f) => [f.topM, f.bottomM]);

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { runPipeline, derive } from '../../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, siteJson, toCsv } from '../../src/core/report/tables';
-import { defaultSettings, emptyEdits } from '../../src/core/settings';
+import { defaultSettings, emptyEdits, patchSettings } from '../../src/core/settings';
 import { pickEditKey, stationKey, stationWaveKey } from '../../src/core/keys';
 import { demoCrossholeGeometry, demoEarthModel, synthesizeSurvey, type SynthResult } from '../../src/core/synth';
 
@@ -166,10 +166,13 @@ describe('crosshole direct velocities V = D / (t - t0) (ASTM D4428/D4428M)', () 
       snr: null,
     });
     const base = run(res);
-    const d = derive(res.survey, base.prepared, base.auto, emptyEdits(), {
-      ...defaultSettings(),
-      triggerDelayS: 0.001,
-    });
+    const d = derive(
+      res.survey,
+      base.prepared,
+      base.auto,
+      emptyEdits(),
+      patchSettings(defaultSettings(), { intervals: { triggerDelayS: 0.001 } }),
+    );
     const a = base.derived.direct.find((r) => r.wave === 'S')!;
     const b = d.direct.find((r) => r.stationKey === a.stationKey && r.wave === 'S')!;
     expect(b.velocityMps!).toBeCloseTo(a.pathM / (a.timeS - 0.001), 6);

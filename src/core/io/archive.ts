@@ -6,10 +6,17 @@
 import { unzipSync, zipSync, strFromU8, strToU8 } from 'fflate';
 import { BorewaveError } from '../errors';
 import type { Survey } from '../model';
-import type { ComparisonProfile } from '../stiffness/comparison';
-import { defaultSettings, emptyEdits, type Settings, type UserEdits } from '../settings';
+import type { ComparisonProfile } from '../site/comparison';
+import {
+  defaultSettings,
+  emptyEdits,
+  mergeSettings,
+  type Settings,
+  type SettingsPatch,
+  type UserEdits,
+} from '../settings';
 import { isTestKind, TEST_KINDS } from '../catalogue/testKinds';
-import { migrateV1SurveyAndEdits } from './project/migrate';
+import { groupV1Settings, migrateV1SurveyAndEdits } from './project/migrate';
 
 export const PROJECT_FORMAT = 'borewave-project';
 export const PROJECT_VERSION = 2;
@@ -103,8 +110,9 @@ export function validateProjectDocument(raw: unknown, archiveName: string): Proj
   if (d.version === 1) {
     d = structuredClone(d);
     migrateV1SurveyAndEdits(d);
+    d.settings = groupV1Settings((d.settings ?? {}) as Record<string, unknown>).settings;
   }
-  const settings = { ...defaultSettings(), ...((d.settings as object) ?? {}) } as Settings;
+  const settings = mergeSettings((d.settings ?? {}) as SettingsPatch);
   const edits = { ...emptyEdits(), ...((d.edits as object) ?? {}) } as UserEdits;
   return { ...(d as unknown as ProjectDocument), settings, edits };
 }

@@ -8,7 +8,7 @@ import type { WaveRecord } from '../model';
 import type { Settings, UserEdits } from '../settings';
 import type { Survey } from '../model';
 import type { OpenedProject } from './archive';
-import type { ComparisonProfile } from '../stiffness/comparison';
+import type { ComparisonProfile } from '../site/comparison';
 import { readWaveFile } from './readers';
 
 export interface LoadedProject {

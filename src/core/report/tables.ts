@@ -9,7 +9,7 @@ import Papa from 'papaparse';
 import type { Station } from '../survey/stations';
 import type { Derived, ProfileRow } from '../pipeline';
 import type { Settings } from '../settings';
-import { SITE_CAUTIONS } from '../stiffness/site';
+import { SITE_CAUTIONS } from '../site/classes';
 import { csvColumn, toDisplay, type QuantityKind, type UnitSystem } from '../units';
 
 export type Cell = string | number | null;
@@ -320,7 +320,7 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
     averagedToDepthM: num(v?.toDepthM, 3),
     profileDepthM: num(v?.profileDepthM, 3),
     extended: v?.extended ?? false,
-    rule: settings.vs30Rule,
+    rule: settings.site.vs30Rule,
     flags: v?.flags ?? [],
     classes,
     classNotes: Object.fromEntries(d.site.classes.map((c) => [c.standard, { basis: c.basis, notes: c.notes }])),
@@ -328,8 +328,8 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
     vs30P50Mps: num(u?.vs30P50Mps, 2),
     vs30P95Mps: num(u?.vs30P95Mps, 2),
     classProbabilities: u?.classProbabilities ?? {},
-    monteCarlo: { draws: settings.monteCarloDraws, seed: settings.monteCarloSeed },
-    answers: settings.siteAnswers,
+    monteCarlo: { draws: settings.site.monteCarloDraws, seed: settings.site.monteCarloSeed },
+    answers: settings.site.siteAnswers,
     comparison: d.comparison
       ? {
           name: d.comparison.name,

@@ -210,15 +210,15 @@ function buildStation(
   }
   if (!(dtS > 0))
     throw new BorewaveError('STATION_BAD_SAMPLE_INTERVAL', `Sample interval at ${key} is not positive.`, key);
-  const bandpass = wave === 'S' ? settings.bandpassS : settings.bandpassP;
-  const cond = { detrend: settings.detrend, taperFraction: settings.taperFraction, bandpass };
+  const bandpass = wave === 'S' ? settings.conditioning.bandpassS : settings.conditioning.bandpassP;
+  const cond = { detrend: settings.conditioning.detrend, taperFraction: settings.conditioning.taperFraction, bandpass };
   const conditioned = traces.map((t) => conditionTrace(t.samples, dtS, cond));
   const [dirA, dirB] = reversedDirections(survey.kind);
   const groupA = conditioned.filter((_, i) => hits[i].hit === dirA);
   const groupB = conditioned.filter((_, i) => hits[i].hit === dirB);
   let samples: Float64Array;
   let workingKind: Station['workingKind'];
-  if (settings.useReversedHits && groupA.length && groupB.length) {
+  if (settings.conditioning.useReversedHits && groupA.length && groupB.length) {
     const a = stackTraces(groupA);
     const b = stackTraces(groupB);
     samples = wave === 'S' ? reversedDifference(a, b) : reversedSum(a, b);
@@ -228,7 +228,7 @@ function buildStation(
     const all = groupA.length ? groupA : groupB.length ? groupB : conditioned;
     samples = all.length > 1 ? stackTraces(all) : all[0];
     workingKind = all.length > 1 ? 'stack' : 'single';
-    if (wave === 'S' && settings.useReversedHits) flags.push('no reversed pair');
+    if (wave === 'S' && settings.conditioning.useReversedHits) flags.push('no reversed pair');
   }
   let peak = 0;
   for (let i = 0; i < samples.length; i++) peak = Math.max(peak, Math.abs(samples[i]));
@@ -245,7 +245,7 @@ function buildStation(
     );
   }
   const lastS = delayS + (n - 1) * dtS;
-  const range = wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+  const range = wave === 'S' ? settings.picking.vsRangeMps : settings.picking.vpRangeMps;
   const [searchStartS, searchEndS] = searchWindowS(straightPathM, range, delayS, lastS);
   return {
     key,

@@ -122,7 +122,7 @@ export function pairStations(survey: Survey, stations: readonly Station[]): Stat
 export function delayRequests(pairs: readonly StationPair[], settings: Settings): DelayRequest[] {
   return pairs.map((p) => {
     const dL = Math.max(p.b.straightPathM - p.a.straightPathM, 1e-6);
-    const range = p.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+    const range = p.wave === 'S' ? settings.picking.vsRangeMps : settings.picking.vpRangeMps;
     return { pairKey: p.key, wave: p.wave, a: p.a.key, b: p.b.key, minDelayS: dL / range[1], maxDelayS: dL / range[0] };
   });
 }
@@ -142,7 +142,7 @@ export interface IntervalInputs {
 export function intervalValues(inp: IntervalInputs): IntervalValue[] {
   const out: IntervalValue[] = [];
   const { settings, edits } = inp;
-  const pathSdM = Math.SQRT2 * settings.positionSdM;
+  const pathSdM = Math.SQRT2 * settings.intervals.positionSdM;
   for (const pair of inp.pairs) {
     const base = {
       key: pair.key,
@@ -157,7 +157,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     };
     const dL = pair.b.straightPathM - pair.a.straightPathM;
     const rows: IntervalValue[] = [];
-    const range = pair.wave === 'S' ? settings.vsRangeMps : settings.vpRangeMps;
+    const range = pair.wave === 'S' ? settings.picking.vsRangeMps : settings.picking.vpRangeMps;
     const stationFlags: IntervalFlag[] = [...new Set([...pair.a.flags, ...pair.b.flags])];
     const finish = (method: IntervalMethod, dtS: number | null, dtSdS: number, extraFlags: IntervalFlag[]) => {
       const flags: IntervalFlag[] = [...new Set([...stationFlags, ...extraFlags])];
@@ -193,7 +193,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     for (const m of DELAY_METHODS) {
       const d = (inp.delaysByPair.get(pair.key) ?? []).find((x) => x.method === m);
       if (!d) {
-        if (m === 'xcorr' || settings.phaseBandHz) finish(m, null, 0, ['no delay']);
+        if (m === 'xcorr' || settings.picking.phaseBandHz) finish(m, null, 0, ['no delay']);
         continue;
       }
       finish(m, d.delayS, d.uncertaintyS, d.flags);
@@ -214,7 +214,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       });
     }
     // The chosen value: the user's choice for this interval, else the settings' method, else the fallback order.
-    const wanted = edits.chosenMethod[pair.key] ?? settings.profileMethod;
+    const wanted = edits.chosenMethod[pair.key] ?? settings.intervals.profileMethod;
     const valid = (r: IntervalValue) => r.velocityMps !== null;
     let chosen = rows.find((r) => r.method === wanted && valid(r));
     if (!chosen) {
@@ -233,7 +233,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
           others.length % 2
             ? others[(others.length - 1) / 2]
             : (others[others.length / 2 - 1] + others[others.length / 2]) / 2;
-        if (Math.abs(mid - chosen.velocityMps!) > settings.methodDisagreementShare * chosen.velocityMps!)
+        if (Math.abs(mid - chosen.velocityMps!) > settings.intervals.methodDisagreementShare * chosen.velocityMps!)
           chosen.flags.push('methods differ');
       }
     }

@@ -117,3 +117,53 @@ export function migrateV1SurveyAndEdits(doc: Json): { dropped: string[] } {
   doc.edits = { ...edits, picks, excludedStations, chosenMethod, excludedIntervals };
   return { dropped };
 }
+
+const V1_GROUPS: Record<string, [string, string]> = {
+  detrend: ['conditioning', 'detrend'],
+  taperFraction: ['conditioning', 'taperFraction'],
+  bandpassS: ['conditioning', 'bandpassS'],
+  bandpassP: ['conditioning', 'bandpassP'],
+  useReversedHits: ['conditioning', 'useReversedHits'],
+  onsetMethod: ['picking', 'onsetMethod'],
+  staS: ['picking', 'staS'],
+  ltaS: ['picking', 'ltaS'],
+  staLtaThreshold: ['picking', 'staLtaThreshold'],
+  phaseBandHz: ['picking', 'phaseBandHz'],
+  vsRangeMps: ['picking', 'vsRangeMps'],
+  vpRangeMps: ['picking', 'vpRangeMps'],
+  profileMethod: ['intervals', 'profileMethod'],
+  methodDisagreementShare: ['intervals', 'methodDisagreementShare'],
+  rayFit: ['intervals', 'rayFit'],
+  triggerDelayS: ['intervals', 'triggerDelayS'],
+  positionSdM: ['intervals', 'positionSdM'],
+  vs30Rule: ['site', 'vs30Rule'],
+  siteAnswers: ['site', 'siteAnswers'],
+  monteCarloDraws: ['site', 'monteCarloDraws'],
+  monteCarloSeed: ['site', 'monteCarloSeed'],
+};
+
+/**
+ * Version 1's flat settings grouped by stage; layerBoundariesM becomes layering (user mode when any
+ * boundary is set). Unknown v1 keys are listed in `dropped`.
+ */
+export function groupV1Settings(flat: Record<string, unknown>): {
+  settings: Record<string, Record<string, unknown>>;
+  dropped: string[];
+} {
+  const settings: Record<string, Record<string, unknown>> = {};
+  const dropped: string[] = [];
+  for (const [k, v] of Object.entries(flat)) {
+    if (k === 'layerBoundariesM') {
+      const list = Array.isArray(v) ? v : [];
+      settings.layering = { ...settings.layering, mode: list.length ? 'user' : 'auto', boundariesM: list };
+      continue;
+    }
+    const at = V1_GROUPS[k];
+    if (!at) {
+      dropped.push(`settings.${k}`);
+      continue;
+    }
+    settings[at[0]] = { ...settings[at[0]], [at[1]]: v };
+  }
+  return { settings, dropped };
+}

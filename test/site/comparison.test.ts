@@ -1,10 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  compareProfiles,
-  parseComparisonCsv,
-  rayleighToShear,
-  viktorovRatio,
-} from '../../src/core/stiffness/comparison';
+import { compareProfiles, parseComparisonCsv, rayleighToShear, viktorovRatio } from '../../src/core/site/comparison';
 import { BorewaveError } from '../../src/core/errors';
 
 /**

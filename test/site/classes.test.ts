@@ -8,7 +8,7 @@ import {
   timeAveragedVs,
   vsSiteClass,
   type SiteStandard,
-} from '../../src/core/stiffness/site';
+} from '../../src/core/site/classes';
 import { fromDisplay } from '../../src/core/units';
 
 // Vs30 = sum d_i / sum(d_i / Vs_i) (EN 1998-1:2004 eq. 3.1; ASCE 7 chapter 20).

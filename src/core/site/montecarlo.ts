@@ -15,7 +15,7 @@ import {
   type SiteAnswers,
   type SiteStandard,
   type Vs30Rule,
-} from './site';
+} from './classes';
 
 export interface SiteUncertainty {
   vs30P05Mps: number;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { quantileSorted, siteUncertainty } from '../../src/core/stiffness/montecarlo';
+import { quantileSorted, siteUncertainty } from '../../src/core/site/montecarlo';
 import { mulberry32 } from '../../src/core/random';
-import { timeAveragedVs } from '../../src/core/stiffness/site';
+import { timeAveragedVs } from '../../src/core/site/classes';
 
 /**
  * Closed form: one layer 0-30 m with Vs ~ N(mu, sd) has Vs30 = Vs, so the 5 % and 95 % points are

@@ -1,0 +1,49 @@
+/**
+ * The user's pick edits applied to the automatic picks: hand times replace (or add) the pick of each
+ * editable method; an excluded station's picks carry origin 'excluded'.
+ */
+import type { Pick } from '../model';
+import type { UserEdits } from '../settings';
+import type { Station } from '../survey/stations';
+import { pickEditKey, stationWaveKey, type StationWaveKey } from '../keys';
+import { EDITABLE_METHODS, editableMethodOf, pickMethodForEdit } from '../catalogue/methods';
+
+/** Applies the user's pick edits and exclusions to the automatic picks. */
+export function effectivePicks(stations: readonly Station[], auto: readonly Pick[], edits: UserEdits): Pick[] {
+  const excluded = new Set(edits.excludedStations);
+  const byStation = new Map<StationWaveKey, Pick[]>();
+  for (const p of auto) {
+    const k = stationWaveKey(p.stationKey, p.wave);
+    byStation.set(k, [...(byStation.get(k) ?? []), p]);
+  }
+  const out: Pick[] = [];
+  for (const s of stations) {
+    const k = stationWaveKey(s.key, s.wave);
+    const picks = (byStation.get(k) ?? []).map((p) => ({ ...p, flags: [...p.flags] }));
+    for (const m of EDITABLE_METHODS) {
+      const t = edits.picks[pickEditKey(s.key, s.wave, m)];
+      if (t === undefined || !Number.isFinite(t)) continue;
+      const existing = picks.find((p) => editableMethodOf(p) === m);
+      if (existing) {
+        existing.timeS = t;
+        existing.origin = 'edited';
+        existing.flags = existing.flags.filter((f) => f !== 'no onset');
+      } else {
+        picks.push({
+          stationKey: s.key,
+          wave: s.wave,
+          method: pickMethodForEdit(m),
+          timeS: t,
+          origin: 'edited',
+          snr: 0,
+          // A hand pick without an automatic one: two samples one-sigma (common practice).
+          uncertaintyS: 2 * s.working.sampleIntervalS,
+          flags: [],
+        });
+      }
+    }
+    if (excluded.has(k)) for (const p of picks) p.origin = 'excluded';
+    out.push(...picks);
+  }
+  return out;
+}
