@@ -23,6 +23,7 @@ import {
 import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
 import { hasDirectVelocities } from '../core/catalogue/testKinds';
 import { type CliIo, cliPath } from './inspect';
+import { openFieldFolder, type FolderFlags } from './folder';
 import type { UnitSystem } from '../core/units';
 
 function openFolder(dir: string): OpenedProject {
@@ -42,15 +43,57 @@ function openFolder(dir: string): OpenedProject {
   return { doc, files, missing: doc.files.filter((n) => !present.has(n)) };
 }
 
+/** A folder is set up from its files when it has no project.json, or one whose survey has no records. */
+function needsSetup(dir: string): boolean {
+  const path = join(dir, 'project.json');
+  if (!existsSync(path)) return true;
+  try {
+    const raw = JSON.parse(readFileSync(path, 'utf8')) as { survey?: { records?: unknown } };
+    return raw.survey !== undefined && raw.survey.records === undefined;
+  } catch {
+    return false; // openFolder reports the bad JSON
+  }
+}
+
+const NUMBER_FLAGS: Record<string, keyof FolderFlags> = {
+  '--source-offset-m': 'sourceOffsetM',
+  '--receiver-spacing-m': 'receiverSpacingM',
+  '--cone-offset-m': 'coneOffsetM',
+  '--receiver-count': 'receiverCount',
+  '--max-header-depth-m': 'maxHeaderDepthM',
+};
+
 export async function runProfile(args: string[], io: CliIo): Promise<number> {
   let input: string | undefined;
   let out: string | undefined;
   let method: string | undefined;
   let strict = false;
   let units: UnitSystem = 'SI';
+  const flags: FolderFlags = { holes: [] };
+  let setupFlagGiven = false;
   for (let i = 0; i < args.length; i++) {
     const a = args[i];
-    if (a === '--out') out = args[++i];
+    if (a in NUMBER_FLAGS) {
+      const v = Number(args[++i]);
+      if (!Number.isFinite(v)) {
+        io.stderr.write(`profile: ${a} ${args[i] ?? ''} is not a number\n`);
+        return 2;
+      }
+      (flags as unknown as Record<string, number>)[NUMBER_FLAGS[a]] = v;
+      setupFlagGiven = true;
+    } else if (a === '--kind') {
+      flags.kind = args[++i];
+      setupFlagGiven = true;
+    } else if (a === '--records') {
+      flags.records = args[++i];
+      setupFlagGiven = true;
+    } else if (a === '--file-name-pattern') {
+      flags.fileNamePattern = args[++i];
+      setupFlagGiven = true;
+    } else if (a === '--hole') {
+      flags.holes.push(args[++i] ?? '');
+      setupFlagGiven = true;
+    } else if (a === '--out') out = args[++i];
     else if (a === '--method') method = args[++i];
     else if (a === '--strict') strict = true;
     else if (a === '--units') {
@@ -69,23 +112,38 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     io.stderr.write(
       'usage: cli profile <project.zip|folder> --out <dir> [--method ' +
         INTERVAL_METHODS.join('|') +
-        '] [--units SI|US] [--strict]\n',
+        '] [--units SI|US] [--strict]\n' +
+        '       cli profile <folder of field files> --out <dir> [--kind downhole|downhole-pair|crosshole|seismic-cone]\n' +
+        '         [--source-offset-m X] [--receiver-spacing-m S] [--cone-offset-m C] [--receiver-count 1|2]\n' +
+        '         [--records log.csv] [--hole name=east,north ...] [--file-name-pattern P] [--max-header-depth-m D]\n',
     );
     return 2;
   }
   // Relative paths are the caller's (npm run changes to the repository folder).
   input = cliPath(io, input);
   out = cliPath(io, out);
+  const cwd = io.cwd ?? process.cwd();
   if (method && !INTERVAL_METHODS.includes(method as IntervalMethod)) {
     io.stderr.write(`profile: --method ${method} is not one of ${INTERVAL_METHODS.join(', ')}\n`);
     return 2;
   }
   let opened: OpenedProject;
+  let completed: unknown = null;
+  const setupIssues: { code: string; message: string; file?: string }[] = [];
   try {
     if (!existsSync(input)) throw new Error(`${input} does not exist`);
-    opened = statSync(input).isDirectory()
-      ? openFolder(input)
-      : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+    const isDir = statSync(input).isDirectory();
+    if (isDir && needsSetup(input)) {
+      const s = openFieldFolder(input, flags, cwd);
+      for (const line of s.lines) io.stdout.write(`${line}\n`);
+      opened = s.opened;
+      completed = s.completed;
+      setupIssues.push(...s.issues);
+    } else {
+      if (setupFlagGiven)
+        throw new Error(`${input} holds a complete project; set-up flags apply only to a folder of field files`);
+      opened = isDir ? openFolder(input) : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+    }
   } catch (e) {
     io.stderr.write(`profile: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
     return 2;
@@ -99,9 +157,10 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     edits: project.edits,
     comparison: project.comparison,
   });
-  const issues = [...project.issues, ...result.derived.issues];
+  const issues = [...setupIssues, ...project.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   mkdirSync(out, { recursive: true });
+  if (completed) writeFileSync(join(out, 'project.json'), `${JSON.stringify(completed, null, 1)}\n`);
   writeFileSync(join(out, 'picks.csv'), toCsv(picksTable(result.prepared.stations, result.derived, units)));
   writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
   writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
@@ -113,7 +172,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   io.stdout.write(
     `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.intervals.profileMethod}), ` +
       (v ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m` : 'no time-averaged Vs') +
-      `; wrote picks.csv, intervals.csv, profile.csv, layers.csv, ${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
+      `; wrote ${completed ? 'project.json, ' : ''}picks.csv, intervals.csv, profile.csv, layers.csv, ${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
   );
   return strict && issues.length ? 3 : 0;
 }

@@ -65,6 +65,8 @@ export interface VariantChannelTruth {
 
 export interface VariantRecordTruth {
   file: string;
+  /** Record id the forward model gave it (its survey's recordId). */
+  synthRecordId: string;
   /** Logged depth: receiver (downhole), upper receiver (pair), tip (cone), test depth (crosshole). */
   loggedDepthM: number;
   /** Depth of each receiver slot, m. */
@@ -212,7 +214,14 @@ export function makeVariantSurvey(spec: VariantSpec): VariantSurvey {
     const notes = spec.notes
       ? [`HIT ${rt.hit}`, `${spec.kind === 'seismic-cone' ? 'TIP DEPTH' : 'DEPTH'} ${loggedDepthM.toFixed(2)} M`]
       : [];
-    const t: VariantRecordTruth = { file: rec.fileName, loggedDepthM, receiverDepthsM, hit: rt.hit, channels: chTruth };
+    const t: VariantRecordTruth = {
+      file: rec.fileName,
+      synthRecordId: rec.id,
+      loggedDepthM,
+      receiverDepthsM,
+      hit: rt.hit,
+      channels: chTruth,
+    };
     out.push({ rec: { ...rec, notes, traces }, names: colNames, t });
   });
   // Names.
