@@ -11,7 +11,7 @@ import { newProjectDocument, validateProjectDocument, type OpenedProject } from 
 import { decodeUtf8 } from '../core/io/bytes';
 import { readDeviationTable } from '../core/io/deviation';
 import { readWaveFile } from '../core/io/readers';
-import { readRecordLog, type RecordLog } from '../core/io/recordlog';
+import { looksLikeRecordLog, readRecordLog, type RecordLog } from '../core/io/recordlog';
 import type { ErrorInfo } from '../core/errors';
 import type { Borehole, WaveRecord } from '../core/model';
 import { describeInferences, inferSetup, type SetupResult } from '../core/setup/infer';
@@ -56,16 +56,6 @@ function listFiles(dir: string, sub = ''): string[] {
     else if (rel !== 'project.json') out.push(rel);
   }
   return out;
-}
-
-/** A CSV whose header row names a file column and a depth column is a record log, not a waveform. */
-function looksLikeRecordLog(text: string): boolean {
-  const first = text.split(/\r?\n/).find((l) => l.trim() && !l.trim().startsWith('#')) ?? '';
-  const cells = first
-    .toLowerCase()
-    .split(/[,;\t]/)
-    .map((c) => c.trim());
-  return cells.includes('file') && cells.some((c) => c === 'depth_m' || c === 'depth_ft' || c === 'hit');
 }
 
 function parseHole(spec: string): Borehole {

@@ -4,7 +4,11 @@
  */
 import type { ErrorInfo } from '../core/errors';
 import type { RecordAssignment, TestKind, WaveRecord } from '../core/model';
-import { assignRecords } from '../core/survey/assign';
+import { looksLikeRecordLog, readRecordLog } from '../core/io/recordlog';
+import { placeForSurvey } from '../core/setup/legacy';
+import type { Survey } from '../core/model';
+import { decodeUtf8 } from '../core/io/bytes';
+import { toErrorInfo } from '../core/errors';
 import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
 import { uniqueRecordIds } from '../core/io/record-ids';
 import { textLayout } from '../core/io/text';
@@ -89,14 +93,30 @@ function storeParsed(p: ParsedFile, bytes: Uint8Array, originalName?: string): W
   return rec;
 }
 
-/** Places newly read records in the survey (header first, then the file-name pattern). */
+/** Placement by the core set-up (user > record log > file name > header > data > default), report kept for the panes. */
+function place(survey: Survey, recs: WaveRecord[], namePattern?: string): RecordAssignment[] {
+  const st = useApp.getState();
+  const { assignments, setup } = placeForSurvey(survey, recs, {
+    fileNamePattern: namePattern ?? st.namePattern,
+    log: st.recordLog,
+  });
+  useApp.setState({
+    setupReport: { inferences: setup.inferences, rejected: setup.rejected, problems: setup.problems },
+  });
+  return assignments;
+}
+
+/** Places newly read records in the survey (every loaded record is placed again so the report covers them all; user values are kept). */
 function placeNew(newRecords: WaveRecord[]): void {
   if (!newRecords.length) return;
   replaceWithoutHistory((s) => {
     const ids = new Set(newRecords.map((r) => r.id));
     const kept = s.survey.records.filter((r) => !ids.has(r.recordId));
-    const added = assignRecords(newRecords, s.survey, useApp.getState().namePattern);
-    return { survey: { ...s.survey, records: [...kept, ...added] } };
+    const keptRecs = kept.map((r) => rawRecords.get(r.recordId)).filter((r): r is WaveRecord => !!r);
+    const placed = place(s.survey, [...keptRecs, ...newRecords]);
+    const byId = new Map(placed.map((a) => [a.recordId, a]));
+    const order = [...kept.map((r) => byId.get(r.recordId) ?? r), ...newRecords.map((r) => byId.get(r.id)!)];
+    return { survey: { ...s.survey, records: order } };
   });
 }
 
@@ -114,24 +134,44 @@ function sessionNames(files: NamedBytes[]): (NamedBytes & { originalName?: strin
   return files.map((f, i) => (ids[i] === f.name ? f : { ...f, name: ids[i], originalName: f.name }));
 }
 
+/** A record log (CSV with file and depth columns): kept, and every loaded record placed again with it. */
+export function loadRecordLog(name: string, text: string): ErrorInfo | null {
+  try {
+    const log = readRecordLog(text, name);
+    useApp.setState({ recordLog: log });
+    reassignAll();
+    return null;
+  } catch (e) {
+    const info = toErrorInfo(e, name);
+    pushMessage(info);
+    return info;
+  }
+}
+
 /** Reads waveform files in the worker, showing progress; zip files are opened as project archives. */
 export async function loadFiles(files: NamedBytes[]): Promise<void> {
   const zips = files.filter((f) => ZIP_NAME.test(f.name));
-  const incoming = files.filter((f) => !ZIP_NAME.test(f.name));
+  const isLog = (f: NamedBytes) =>
+    /\.(csv|txt|tsv)$/i.test(f.name) && looksLikeRecordLog(decodeUtf8(f.bytes.subarray(0, 4096)));
+  const logs = files.filter((f) => !ZIP_NAME.test(f.name) && isLog(f));
+  const incoming = files.filter((f) => !ZIP_NAME.test(f.name) && !isLog(f));
   for (const z of zips) await openArchiveBytes(z.name, z.bytes);
-  if (!incoming.length) return;
-  const waves = sessionNames(incoming);
-  const renamed = waves.filter((f) => f.originalName);
-  if (renamed.length) {
-    pushMessage({
-      code: 'FILE_SAME_NAME',
-      message: `${renamed.length} file(s) share a name with another file and are kept under a distinct name: ${renamed
-        .slice(0, 5)
-        .map((f) => `${f.originalName} as ${f.name}`)
-        .join(', ')}${renamed.length > 5 ? ' …' : ''}.`,
-    });
+  if (incoming.length) {
+    const waves = sessionNames(incoming);
+    const renamed = waves.filter((f) => f.originalName);
+    if (renamed.length) {
+      pushMessage({
+        code: 'FILE_SAME_NAME',
+        message: `${renamed.length} file(s) share a name with another file and are kept under a distinct name: ${renamed
+          .slice(0, 5)
+          .map((f) => `${f.originalName} as ${f.name}`)
+          .join(', ')}${renamed.length > 5 ? ' …' : ''}.`,
+      });
+    }
+    await parseFiles(waves);
   }
-  await parseFiles(waves);
+  // A record log dropped with the files places them once they are read.
+  for (const l of logs) loadRecordLog(l.name, decodeUtf8(l.bytes));
 }
 
 /** Parses files in the worker and stores them (new files, or text files re-read with a sample interval). */
@@ -259,7 +299,7 @@ export function applyProject(
   const unplaced = [...rawRecords.values()].filter((r) => !placed.has(r.id));
   const s = useApp.getState();
   const added: RecordAssignment[] = unplaced.length
-    ? assignRecords(unplaced, doc.survey, extra.namePattern ?? s.namePattern)
+    ? place({ ...doc.survey, records: [] }, unplaced, extra.namePattern ?? s.namePattern)
     : [];
   useResults.setState({
     prepared: null,
@@ -394,7 +434,7 @@ export function reassignAll(): void {
   commit((snap) => ({
     survey: {
       ...snap.survey,
-      records: assignRecords([...recs, ...loose], snap.survey, s.namePattern),
+      records: place(snap.survey, [...recs, ...loose], s.namePattern),
     },
   }));
 }

@@ -4,6 +4,8 @@
  * here (see derived.ts); worker results (working traces, automatic picks) sit in useResults.
  */
 import type { IntervalKey, StationKey } from '../core/keys';
+import type { RecordLog } from '../core/io/recordlog';
+import type { InferenceSummary, RejectedValue } from '../core/setup/types';
 import { create } from 'zustand';
 import type { ErrorInfo } from '../core/errors';
 import type { Survey, TestKind, Wave } from '../core/model';
@@ -73,11 +75,21 @@ export interface ViewState {
   notice: string | null;
 }
 
+export interface SetupReport {
+  inferences: InferenceSummary[];
+  rejected: RejectedValue[];
+  problems: ErrorInfo[];
+}
+
 export interface AppState extends Snapshot {
   past: Snapshot[];
   future: Snapshot[];
   records: RecordMeta[];
   namePattern: string;
+  /** The operator's record log, when one was loaded (file, depth, hit, components). */
+  recordLog: RecordLog | null;
+  /** What the last placement inferred and rejected (shown in Records and Geometry). */
+  setupReport: SetupReport | null;
   unitSystem: UnitSystem;
   /** Deviation-table file name per borehole id (its bytes are in rawFiles). */
   deviationFiles: Record<string, string>;
@@ -130,6 +142,8 @@ export function initialState(kind: TestKind = 'downhole'): Omit<AppState, 'view'
     future: [],
     records: [],
     namePattern: DEFAULT_NAME_PATTERN,
+    recordLog: null,
+    setupReport: null,
     unitSystem: 'SI',
     deviationFiles: {},
     intervalRequest: [],

@@ -206,3 +206,16 @@ export function writeRecordLog(
   });
   return `${[head.join(','), ...lines].join('\n')}\n`;
 }
+
+/** A CSV whose header row names a file column and a depth or hit column reads as a record log, not a waveform. */
+export function looksLikeRecordLog(text: string): boolean {
+  const first = text.split(/\r?\n/).find((l) => l.trim() && !l.trim().startsWith('#')) ?? '';
+  const cells = first
+    .toLowerCase()
+    .split(/[,;\t]/)
+    .map((c) => c.trim().replace(/^"|"$/g, ''));
+  return (
+    cells.some((c) => ['file', 'file_name', 'filename', 'record'].includes(c)) &&
+    cells.some((c) => c === 'depth_m' || c === 'depth_ft' || c === 'hit')
+  );
+}

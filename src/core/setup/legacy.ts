@@ -4,8 +4,10 @@
  * survey at the receiver depths (tip - coneOffsetM), so every path and interval uses the receiver
  * depth. Replace with the version 2 survey once the pipeline reads it.
  */
-import type { Borehole, ChannelAssignment, RecordAssignment, SoilColumn, Survey, TestKind } from '../model';
+import type { RecordLog } from '../io/recordlog';
+import type { Borehole, ChannelAssignment, RecordAssignment, SoilColumn, Survey, TestKind, WaveRecord } from '../model';
 import { receiverDepthFromLogged } from './cone';
+import { inferSetup, type SetupResult } from './infer';
 import type { PlacedRecord, ReceiverSlot, SetupGeometry } from './types';
 
 export interface LegacySurveyInput {
@@ -49,7 +51,74 @@ export function toLegacyRecord(g: SetupGeometry, p: PlacedRecord): RecordAssignm
     channels,
     excluded: p.excluded,
     assignedBy: src === 'user' ? 'manual' : src === 'filename' ? 'filename' : 'header',
+    sources: {
+      depth: p.depthM?.source ?? null,
+      hit: p.hit?.source ?? null,
+      channels: Object.fromEntries(p.channels.map((c) => [c.channel, c.source])),
+    },
   };
+}
+
+/** Set-up geometry of a survey in the pipeline's shape (kinds without the cone). */
+export function setupGeometryOf(survey: Survey): SetupGeometry {
+  return {
+    kind: survey.kind,
+    receiverCount: survey.kind === 'downhole' ? 1 : 2,
+    receiverSpacingM: survey.receiverSpacingM,
+    coneOffsetM: 0,
+    receiverHoles: survey.receiverHoleIds.map((id) => {
+      const h = survey.boreholes.find((b) => b.id === id);
+      return { holeId: id, collarEastM: h?.collarEastM ?? 0, collarNorthM: h?.collarNorthM ?? 0 };
+    }),
+  };
+}
+
+function slotOfLegacy(survey: Survey, receiver: string): ReceiverSlot {
+  if (survey.kind === 'crosshole') return survey.receiverHoleIds.indexOf(receiver) === 1 ? 'r1' : 'r0';
+  return receiver === 'lower' ? 'r1' : 'r0';
+}
+
+/** The user's own values of an assignment (source 'user', or 'manual' in saves without sources) as a placement to keep. */
+export function userValuesOf(survey: Survey, ra: RecordAssignment): PlacedRecord {
+  const manual = !ra.sources && ra.assignedBy === 'manual';
+  const isUser = (s: string | null | undefined) => s === 'user' || manual;
+  return {
+    recordId: ra.recordId,
+    file: ra.recordId,
+    depthM: ra.depthM !== null && isUser(ra.sources?.depth) ? { value: ra.depthM, source: 'user' } : null,
+    hit: isUser(ra.sources?.hit) ? { value: ra.hit, source: 'user' } : null,
+    channels: ra.channels
+      .filter((c) => ra.sources?.channels[c.channel] === 'user')
+      .map((c) => ({
+        channel: c.channel,
+        receiver: slotOfLegacy(survey, c.receiver),
+        component: c.component,
+        source: 'user',
+      })),
+    excluded: ra.excluded,
+  };
+}
+
+/**
+ * Place records for the app's survey (same core inference as the CLI): the file-name pattern, the
+ * record log and the user's earlier values (kept) decide with the headers; returns the assignments
+ * with their sources and the set-up report.
+ */
+export function placeForSurvey(
+  survey: Survey,
+  records: readonly WaveRecord[],
+  opts: { fileNamePattern: string; maxHeaderDepthM?: number; log?: RecordLog | null },
+): { assignments: RecordAssignment[]; setup: SetupResult } {
+  const g = setupGeometryOf(survey);
+  const previous = survey.records.map((r) => userValuesOf(survey, r));
+  const setup = inferSetup({
+    records,
+    geometry: g,
+    settings: { maxHeaderDepthM: opts.maxHeaderDepthM ?? 200, fileNamePattern: opts.fileNamePattern },
+    log: opts.log ?? null,
+    previous,
+  });
+  return { assignments: setup.records.map((p) => toLegacyRecord(g, p)), setup };
 }
 
 export function toLegacySurvey(input: LegacySurveyInput): Survey {
