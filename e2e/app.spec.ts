@@ -301,6 +301,11 @@ test('geometry, US units, keyboard help and the bottom strip render; Start fresh
 
   // Loose waveform files (not an archive): placed from their headers / the default file-name pattern,
   // then processed to a profile. The demo's files carry depth and hit in their names (dh_d12.0_L.sg2).
+  // Start fresh keeps the test kind (crosshole here); downhole files need the downhole kind: the set-up
+  // no longer forces one receiver's channels onto two crosshole receivers to make a profile.
+  await page.getByRole('tab', { name: 'Geometry' }).click();
+  await page.getByLabel('Test kind').selectOption('downhole');
+  await page.getByRole('tab', { name: 'Trace board' }).click();
   const demo = makeDemoProject('downhole');
   await page
     .getByTestId('file-input')

@@ -6,7 +6,6 @@
  */
 import type { RecordLog } from '../io/recordlog';
 import type { Borehole, ChannelAssignment, RecordAssignment, SoilColumn, Survey, TestKind, WaveRecord } from '../model';
-import { receiverDepthFromLogged } from './cone';
 import { inferSetup, type SetupResult } from './infer';
 import type { PlacedRecord, ReceiverSlot, SetupGeometry } from './types';
 
@@ -32,11 +31,6 @@ function legacyReceiver(g: SetupGeometry, slot: ReceiverSlot): string {
   return 'R';
 }
 
-/** The record's depth as the pipeline reads it: receiver depth (cone: tip - offset; two receivers: the upper one). */
-export function legacyRecordDepthM(g: SetupGeometry, loggedDepthM: number): number {
-  return Math.round(receiverDepthFromLogged(g, 'r0', loggedDepthM) * 1e6) / 1e6;
-}
-
 export function toLegacyRecord(g: SetupGeometry, p: PlacedRecord): RecordAssignment {
   const channels: ChannelAssignment[] = p.channels.map((c) => ({
     channel: c.channel,
@@ -46,7 +40,8 @@ export function toLegacyRecord(g: SetupGeometry, p: PlacedRecord): RecordAssignm
   const src = p.depthM?.source;
   return {
     recordId: p.file,
-    depthM: p.depthM ? legacyRecordDepthM(g, p.depthM.value) : null,
+    // The logged depth (the cone's tip: the survey carries coneOffsetM and the stations subtract it).
+    depthM: p.depthM ? p.depthM.value : null,
     hit: p.hit?.value ?? 'none',
     channels,
     excluded: p.excluded,
@@ -61,11 +56,12 @@ export function toLegacyRecord(g: SetupGeometry, p: PlacedRecord): RecordAssignm
 
 /** Set-up geometry of a survey in the pipeline's shape (kinds without the cone). */
 export function setupGeometryOf(survey: Survey): SetupGeometry {
+  const cone = (survey.coneOffsetM ?? 0) > 0;
   return {
-    kind: survey.kind,
+    kind: cone ? 'seismic-cone' : survey.kind,
     receiverCount: survey.kind === 'downhole' ? 1 : 2,
     receiverSpacingM: survey.receiverSpacingM,
-    coneOffsetM: 0,
+    coneOffsetM: survey.coneOffsetM ?? 0,
     receiverHoles: survey.receiverHoleIds.map((id) => {
       const h = survey.boreholes.find((b) => b.id === id);
       return { holeId: id, collarEastM: h?.collarEastM ?? 0, collarNorthM: h?.collarNorthM ?? 0 };
@@ -131,6 +127,7 @@ export function toLegacySurvey(input: LegacySurveyInput): Survey {
     sourceOffsetM: input.sourceOffsetM,
     sourceDepthM: input.sourceDepthM,
     receiverSpacingM: g.receiverSpacingM,
+    ...(g.kind === 'seismic-cone' ? { coneOffsetM: g.coneOffsetM } : {}),
     receiverHoleIds: g.kind === 'crosshole' ? g.receiverHoles.map((h) => h.holeId) : [],
     records: input.records.map((r) => toLegacyRecord(g, r)),
     soil: input.soil,
