@@ -147,7 +147,7 @@ export function openFieldFolder(dir: string, flags: FolderFlags, callerDir: stri
     try {
       h.deviation = readDeviationTable(readFileSync(join(dir, file), 'utf8'), file);
     } catch (e) {
-      issues.push({ code: 'DEVIATION_UNREADABLE', message: `${file}: ${(e as Error).message}`, file });
+      issues.push({ code: 'DEVIATION_BAD', message: `${file}: ${(e as Error).message}`, file });
     }
   }
   // Record log: --records (relative to the caller's folder), else a CSV in the folder that reads as one.

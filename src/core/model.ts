@@ -109,6 +109,8 @@ export interface ChannelAssignment {
   component: Component;
   /** Receiver slot in the test kind's layout (src/core/catalogue/testKinds.ts): r0, r1 ... never a hole name. */
   receiver: ReceiverSlot;
+  /** Where this channel's meaning came from (absent in older saves: the kind's default). */
+  source?: ValueSource;
 }
 
 /** How one record (file) is placed in the survey. */

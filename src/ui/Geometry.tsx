@@ -31,7 +31,7 @@ import {
 } from '../core/catalogue/testKinds';
 import { rawRecords } from '../state/raw';
 import { updateSettings, updateSurvey } from '../state/edits';
-import { loadDeviation, reassignAll } from '../state/files';
+import { loadDeviation, loadRecordLog, reassignAll } from '../state/files';
 import { setNamePattern, useApp } from '../state/store';
 import { fmt, label, parseDisplay, useUnits } from './units';
 import type { QuantityKind, UnitSystem } from '../core/units';
@@ -152,122 +152,389 @@ function setRecord(id: string, patch: Partial<RecordAssignment>): void {
   }));
 }
 
-function setChannel(id: string, channel: number, patch: Partial<ChannelAssignment>): void {
+/** Several records at once (bulk edit): edited values count as the user's. */
+function setRecords(ids: ReadonlySet<string>, patch: Partial<RecordAssignment>): void {
   updateSurvey((s) => ({
     ...s,
     records: s.records.map((r) =>
-      r.recordId === id
-        ? { ...r, channels: r.channels.map((c) => (c.channel === channel ? { ...c, ...patch } : c)) }
+      ids.has(r.recordId)
+        ? {
+            ...r,
+            ...patch,
+            ...('depthM' in patch ? { depthSource: 'user' as const } : {}),
+            ...('hit' in patch ? { hitSource: 'user' as const } : {}),
+          }
         : r,
     ),
   }));
 }
 
+/** A channel edited on one record (a per-record override of the channel map): source 'user'. */
+export function withChannelEdit(
+  r: RecordAssignment,
+  channel: number,
+  patch: Partial<ChannelAssignment>,
+): RecordAssignment {
+  if (!r.channels.some((c) => c.channel === channel)) return r;
+  return {
+    ...r,
+    channels: r.channels.map((c) => (c.channel === channel ? { ...c, ...patch, source: 'user' as const } : c)),
+  };
+}
+
+function setChannel(id: string, channel: number, patch: Partial<ChannelAssignment>): void {
+  updateSurvey((s) => ({
+    ...s,
+    records: s.records.map((r) => (r.recordId === id ? withChannelEdit(r, channel, patch) : r)),
+  }));
+}
+
+/** One channel map applied to every record in one step; single records can be changed afterwards. */
+function applyChannelMap(map: ChannelAssignment[]): void {
+  updateSurvey((s) => ({
+    ...s,
+    records: s.records.map((r) =>
+      map.reduce((acc, m) => withChannelEdit(acc, m.channel, { component: m.component, receiver: m.receiver }), r),
+    ),
+  }));
+}
+
+/** A hole renamed (any text): boreholes and the source/receiver hole lists (channels name slots, not holes). */
+export function renameHole(oldId: string, newId: string): string | null {
+  const name = newId.trim();
+  if (!name || name === oldId) return null;
+  if (useApp.getState().survey.boreholes.some((h) => h.id === name)) return `A hole is already named "${name}".`;
+  updateSurvey((s) => ({
+    ...s,
+    boreholes: s.boreholes.map((h) => (h.id === oldId ? { ...h, id: name } : h)),
+    mainHoleId: s.mainHoleId === oldId ? name : s.mainHoleId,
+    receiverHoleIds: s.receiverHoleIds.map((h) => (h === oldId ? name : h)),
+  }));
+  useApp.setState((st) => {
+    if (!(oldId in st.deviationFiles)) return {};
+    const { [oldId]: file, ...rest } = st.deviationFiles;
+    return { deviationFiles: { ...rest, [name]: file } };
+  });
+  return null;
+}
+
+/** The source of a placed value, in words (never colour alone). */
+function Src({ source, what }: { source: ValueSource | null | undefined; what: string }) {
+  const word = source ? SOURCE_WORDS[source] : 'unknown';
+  return (
+    <span className={`src src-${source ?? 'none'}`} title={`${what}: ${word}`} data-source={source ?? 'none'}>
+      {word}
+    </span>
+  );
+}
+
+/** A typed receiver: slot (r1), its label (lower, far hole), or a crosshole hole's own name (any case). */
+function receiverOfTyped(survey: ReturnType<typeof useApp.getState>['survey'], typed: string): ReceiverSlot | null {
+  const t = typed.trim().toLowerCase();
+  return (
+    receiverSlots(survey).find(
+      (k, i) =>
+        k === t ||
+        receiverLabel(survey, k).toLowerCase() === t ||
+        (survey.receiverHoleIds[i] ?? '').toLowerCase() === t,
+    ) ?? null
+  );
+}
+
+/** Most common meaning of each channel over the records (the survey's channel map). */
+function commonMap(records: RecordAssignment[]): ChannelAssignment[] {
+  const byCh = new Map<number, Map<string, number>>();
+  for (const r of records)
+    for (const c of r.channels) {
+      const m = byCh.get(c.channel) ?? new Map<string, number>();
+      byCh.set(c.channel, m);
+      const k = `${c.component}@${c.receiver}`;
+      m.set(k, (m.get(k) ?? 0) + 1);
+    }
+  return [...byCh.entries()]
+    .sort((a, b) => a[0] - b[0])
+    .map(([channel, m]) => {
+      const best = [...m.entries()].sort((a, b) => b[1] - a[1])[0][0];
+      const at = best.indexOf('@');
+      return { channel, component: best.slice(0, at) as Component, receiver: best.slice(at + 1) as ReceiverSlot };
+    });
+}
+
+function ChannelMapBar({ receivers }: { receivers: ReceiverSlot[] }) {
+  const survey = useApp((s) => s.survey);
+  const records = survey.records;
+  const common = commonMap(records);
+  const [map, setMap] = useState<ChannelAssignment[]>(common);
+  const key = JSON.stringify(common);
+  // biome-ignore lint/correctness/useExhaustiveDependencies: reset when the records' common map changes
+  useEffect(() => setMap(common), [key]);
+  if (!map.length) return null;
+  return (
+    <div className="form-grid channel-map" data-testid="channel-map">
+      <strong>Channel map for all records</strong>
+      {map.map((m, i) => (
+        <span key={m.channel} className="chan">
+          Ch {m.channel}{' '}
+          <select
+            value={m.component}
+            aria-label={`Map component of channel ${m.channel}`}
+            onChange={(e) =>
+              setMap(map.map((x, j) => (j === i ? { ...x, component: e.target.value as Component } : x)))
+            }
+          >
+            {COMPONENTS.map((k) => (
+              <option key={k}>{k}</option>
+            ))}
+          </select>
+          @
+          <select
+            value={m.receiver}
+            aria-label={`Map receiver of channel ${m.channel}`}
+            onChange={(e) =>
+              setMap(map.map((x, j) => (j === i ? { ...x, receiver: e.target.value as ReceiverSlot } : x)))
+            }
+          >
+            {[...new Set([...receivers, m.receiver])].map((k) => (
+              <option key={k} value={k}>
+                {receiverLabel(survey, k)}
+              </option>
+            ))}
+          </select>
+        </span>
+      ))}
+      <button onClick={() => applyChannelMap(map)}>Apply to all records</button>
+      <span className="small muted">then change single records in the table (per-record overrides)</span>
+    </div>
+  );
+}
+
+function SetupReportBox() {
+  const report = useApp((s) => s.setupReport);
+  const log = useApp((s) => s.recordLog);
+  const [open, setOpen] = useState(false);
+  if (!report && !log) return null;
+  const problems = report?.problems ?? [];
+  const rejected = report?.rejected ?? [];
+  return (
+    <div className="setup-report" data-testid="setup-report">
+      <p className="small">
+        {log ? (
+          <>
+            Record log <strong>{log.name}</strong> ({log.rows.length} rows).{' '}
+          </>
+        ) : null}
+        {report?.inferences
+          .filter((i) => i.what === 'depth' || i.what === 'hit' || i.what === 'component')
+          .map((i) => `${i.what} from ${i.rule}: ${i.count}`)
+          .join(' · ')}
+        {rejected.length ? ` · ${rejected.length} header values not read as depths` : ''}
+        {problems.length ? ` · ${problems.length} problems` : ''}{' '}
+        {(rejected.length > 0 || problems.length > 0) && (
+          <button className="link" onClick={() => setOpen(!open)}>
+            {open ? 'hide' : 'show'}
+          </button>
+        )}
+      </p>
+      {open && (
+        <ul className="small">
+          {problems.map((p, i) => (
+            <li key={`p${i}`} className="error">
+              {p.message}
+            </li>
+          ))}
+          {rejected.map((x, i) => (
+            <li key={`r${i}`}>
+              {x.file}: {x.field} {x.value} — {x.message} (rule: {x.rule})
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
 function RecordsTable({ units }: { units: UnitSystem }) {
   const survey = useApp((s) => s.survey);
   const [pasteNote, setPasteNote] = useState<string | null>(null);
+  const [selected, setSelected] = useState<Set<string>>(new Set());
+  const [bulkHit, setBulkHit] = useState<HitDirection>('left');
+  const [logError, setLogError] = useState<string | null>(null);
   const receivers = receiverSlots(survey);
   const maxCh = Math.max(0, ...survey.records.map((r) => r.channels.length));
   const dep = label('depth', units);
+  const allSelected = survey.records.length > 0 && survey.records.every((r) => selected.has(r.recordId));
+  const sel = new Set([...selected].filter((id) => survey.records.some((r) => r.recordId === id)));
   return (
-    <div
-      className="table-wrap tall"
-      onPaste={(e) => {
-        const text = e.clipboardData.getData('text/plain');
-        if (!text.includes('\t') && !text.includes('\n')) return;
-        e.preventDefault();
-        const res = applyPaste(text, survey.records, units, (typed) => {
-          const t = typed.toLowerCase();
-          return receiverSlots(survey).find((k) => k === t || receiverLabel(survey, k).toLowerCase() === t) ?? null;
-        });
-        if (res.changed) updateSurvey((s) => ({ ...s, records: res.records }));
-        setPasteNote(`${res.changed} rows applied.${res.problems.length ? ' ' + res.problems.join(' ') : ''}`);
-      }}
-      tabIndex={0}
-      data-testid="geometry-records"
-    >
-      {pasteNote && <p className="notice">{pasteNote}</p>}
-      <table className="num geometry">
-        <thead>
-          <tr>
-            <th>Record</th>
-            <th>Depth ({dep})</th>
-            <th>Hit</th>
-            <th>Use</th>
-            <th>From</th>
-            {Array.from({ length: maxCh }, (_, i) => (
-              <th key={i}>Ch {i + 1}: component @ receiver</th>
+    <>
+      <p className="small muted paste-hint">
+        Paste rows from a spreadsheet into the table (tab-separated): record, depth ({dep}), hit, then component and
+        receiver ({receivers.map((k) => receiverLabel(survey, k)).join(', ')}) for each channel. Without record names
+        the rows apply in order. Or load the record log (CSV: file, depth_m or depth_ft, hit, components).{' '}
+        <label className="btn-like">
+          Load record log…
+          <input
+            type="file"
+            accept=".csv,.txt,.tsv"
+            hidden
+            data-testid="record-log-input"
+            onChange={async (e) => {
+              const f = e.target.files?.[0];
+              e.target.value = '';
+              if (!f) return;
+              const problem = loadRecordLog(f.name, await f.text());
+              setLogError(problem ? problem.message : null);
+            }}
+          />
+        </label>
+      </p>
+      {logError && <p className="error">{logError}</p>}
+      <SetupReportBox />
+      <ChannelMapBar receivers={receivers} />
+      <div className="form-grid bulk" data-testid="bulk-bar">
+        <span>{sel.size} selected:</span>
+        <label>
+          hit{' '}
+          <select
+            value={bulkHit}
+            onChange={(e) => setBulkHit(e.target.value as HitDirection)}
+            aria-label="Hit for selected"
+          >
+            {HITS.map((h) => (
+              <option key={h}>{h}</option>
             ))}
-          </tr>
-        </thead>
-        <tbody>
-          {survey.records.map((r) => (
-            <tr key={r.recordId} className={r.excluded ? 'off' : ''}>
-              <td className="text">{r.recordId}</td>
-              <td>
-                <QtyField
-                  kind="depth"
-                  units={units}
-                  si={r.depthM}
-                  allowEmpty
-                  onCommit={(v) => setRecord(r.recordId, { depthM: v })}
-                  ariaLabel={`Depth of ${r.recordId}`}
-                />
-              </td>
-              <td>
-                <select
-                  value={r.hit}
-                  onChange={(e) => setRecord(r.recordId, { hit: e.target.value as HitDirection })}
-                  aria-label={`Hit of ${r.recordId}`}
-                >
-                  {HITS.map((h) => (
-                    <option key={h}>{h}</option>
-                  ))}
-                </select>
-              </td>
-              <td>
+          </select>
+        </label>
+        <button disabled={!sel.size} onClick={() => setRecords(sel, { hit: bulkHit })}>
+          Set hit
+        </button>
+        <button disabled={!sel.size} onClick={() => setRecords(sel, { excluded: false })}>
+          Use
+        </button>
+        <button disabled={!sel.size} onClick={() => setRecords(sel, { excluded: true })}>
+          Leave out
+        </button>
+        <button disabled={!sel.size} onClick={() => setSelected(new Set())}>
+          Clear selection
+        </button>
+      </div>
+      {pasteNote && <p className="notice">{pasteNote}</p>}
+      <div
+        className="table-wrap tall"
+        onPaste={(e) => {
+          const text = e.clipboardData.getData('text/plain');
+          if (!text.includes('\t') && !text.includes('\n')) return;
+          e.preventDefault();
+          const res = applyPaste(text, survey.records, units, (typed) => receiverOfTyped(survey, typed));
+          if (res.changed) updateSurvey((s) => ({ ...s, records: res.records }));
+          setPasteNote(`${res.changed} rows applied.${res.problems.length ? ` ${res.problems.join(' ')}` : ''}`);
+        }}
+        tabIndex={0}
+        data-testid="geometry-records"
+      >
+        <table className="num geometry">
+          <thead>
+            <tr>
+              <th className="sticky-col">
                 <input
                   type="checkbox"
-                  checked={!r.excluded}
-                  onChange={(e) => setRecord(r.recordId, { excluded: !e.target.checked })}
-                  aria-label={`Use ${r.recordId}`}
+                  checked={allSelected}
+                  aria-label="Select all records"
+                  onChange={(e) =>
+                    setSelected(e.target.checked ? new Set(survey.records.map((r) => r.recordId)) : new Set())
+                  }
                 />
-              </td>
-              <td className="muted">{SOURCE_WORDS[r.depthSource]}</td>
-              {r.channels.map((c) => (
-                <td key={c.channel} className="chan">
-                  <select
-                    value={c.component}
-                    onChange={(e) => setChannel(r.recordId, c.channel, { component: e.target.value as Component })}
-                    aria-label={`Component of channel ${c.channel}`}
-                  >
-                    {COMPONENTS.map((k) => (
-                      <option key={k}>{k}</option>
-                    ))}
-                  </select>
-                  @
-                  <select
-                    value={c.receiver}
-                    onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value as ReceiverSlot })}
-                    aria-label={`Receiver of channel ${c.channel}`}
-                  >
-                    {[...new Set([...receivers, c.receiver])].map((k) => (
-                      <option key={k} value={k}>
-                        {receiverLabel(survey, k)}
-                      </option>
-                    ))}
-                  </select>
-                </td>
+              </th>
+              <th className="sticky-col2">Record</th>
+              <th>
+                {kindInfo(survey.kind).tipLogged ? 'Tip depth' : 'Depth'} ({dep})
+              </th>
+              <th>Hit</th>
+              <th>Use</th>
+              {Array.from({ length: maxCh }, (_, i) => (
+                <th key={i}>Ch {i + 1}</th>
               ))}
             </tr>
-          ))}
-        </tbody>
-      </table>
-      <p className="small muted">
-        Paste rows from a spreadsheet here (tab-separated): record, depth ({dep}), hit, then component and receiver for
-        each channel. Without record names the rows apply in order.
-      </p>
-    </div>
+          </thead>
+          <tbody>
+            {survey.records.map((r) => (
+              <tr key={r.recordId} className={r.excluded ? 'off' : ''} data-record={r.recordId}>
+                <td className="sticky-col">
+                  <input
+                    type="checkbox"
+                    checked={sel.has(r.recordId)}
+                    aria-label={`Select ${r.recordId}`}
+                    onChange={(e) => {
+                      const next = new Set(sel);
+                      if (e.target.checked) next.add(r.recordId);
+                      else next.delete(r.recordId);
+                      setSelected(next);
+                    }}
+                  />
+                </td>
+                <td className="text sticky-col2">{r.recordId}</td>
+                <td className="placed">
+                  <QtyField
+                    kind="depth"
+                    units={units}
+                    si={r.depthM}
+                    allowEmpty
+                    onCommit={(v) => setRecord(r.recordId, { depthM: v })}
+                    ariaLabel={`Depth of ${r.recordId}`}
+                  />
+                  <Src source={r.depthM === null ? null : r.depthSource} what="depth" />
+                </td>
+                <td className="placed">
+                  <select
+                    value={r.hit}
+                    onChange={(e) => setRecord(r.recordId, { hit: e.target.value as HitDirection })}
+                    aria-label={`Hit of ${r.recordId}`}
+                  >
+                    {HITS.map((h) => (
+                      <option key={h}>{h}</option>
+                    ))}
+                  </select>
+                  <Src source={r.hitSource} what="hit" />
+                </td>
+                <td>
+                  <input
+                    type="checkbox"
+                    checked={!r.excluded}
+                    onChange={(e) => setRecord(r.recordId, { excluded: !e.target.checked })}
+                    aria-label={`Use ${r.recordId}`}
+                  />
+                </td>
+                {r.channels.map((c) => (
+                  <td key={c.channel} className="chan placed">
+                    <select
+                      value={c.component}
+                      onChange={(e) => setChannel(r.recordId, c.channel, { component: e.target.value as Component })}
+                      aria-label={`Component of channel ${c.channel}`}
+                    >
+                      {COMPONENTS.map((k) => (
+                        <option key={k}>{k}</option>
+                      ))}
+                    </select>
+                    @
+                    <select
+                      value={c.receiver}
+                      onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value as ReceiverSlot })}
+                      aria-label={`Receiver of channel ${c.channel}`}
+                    >
+                      {[...new Set([...receivers, c.receiver])].map((k) => (
+                        <option key={k} value={k}>
+                          {receiverLabel(survey, k)}
+                        </option>
+                      ))}
+                    </select>
+                    <Src source={c.source} what={`channel ${c.channel}`} />
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </>
   );
 }
 
@@ -278,10 +545,19 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
   const [err, setErr] = useState<string | null>(null);
   const setHole = (patch: Partial<Borehole>) =>
     updateSurvey((s) => ({ ...s, boreholes: s.boreholes.map((h) => (h.id === hole.id ? { ...h, ...patch } : h)) }));
+  const [renameErr, setRenameErr] = useState<string | null>(null);
   return (
     <>
       <tr>
-        <td className="text">{hole.id}</td>
+        <td className="text">
+          <Field
+            value={hole.id}
+            width={10}
+            ariaLabel={`Name of hole ${hole.id}`}
+            onCommit={(t) => setRenameErr(renameHole(hole.id, t))}
+          />
+          {renameErr && <span className="error small"> {renameErr}</span>}
+        </td>
         <td>
           <QtyField
             kind="depth"

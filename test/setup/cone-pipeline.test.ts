@@ -8,7 +8,8 @@ import { describe, expect, it } from 'vitest';
 import { readRecordLog } from '../../src/core/io/recordlog';
 import type { WaveRecord } from '../../src/core/model';
 import { runPipeline } from '../../src/core/pipeline';
-import { emptyEdits, defaultSettings, pickEditKey } from '../../src/core/settings';
+import { emptyEdits, defaultSettings } from '../../src/core/settings';
+import { pickEditKey, stationKey } from '../../src/core/keys';
 import { inferSetup } from '../../src/core/setup/infer';
 import { toLegacySurvey } from '../../src/core/setup/legacy';
 import { defaultPlacementSettings } from '../../src/core/setup/types';
@@ -55,22 +56,21 @@ describe('seismic cone in the pipeline', () => {
     expect(survey.coneOffsetM).toBe(0.25);
     expect([...new Set(survey.records.map((r) => r.depthM))].sort()).toEqual([1, 1.5, 2, 2.5, 3, 3.5, 4, 4.5]);
     const out = runPipeline({ survey, records, settings: defaultSettings(), edits: emptyEdits() });
-    const st = out.prepared.stations.find((s) => s.key === 'R@3.000:H1' && s.wave === 'S')!;
+    const st = out.prepared.stations.find((s) => s.key === stationKey('r0', 3, 'H1') && s.wave === 'S')!;
     expect(st.depthM).toBeCloseTo(2.75, 12);
     expect(st.straightPathM).toBeCloseTo(Math.hypot(1.0, 2.75), 12);
     expect(out.derived.profile[0].topM).toBeCloseTo(0.75, 12);
   });
 
   it('changing the cone offset keeps the pick edit (same key) and moves the receiver', () => {
-    const key = pickEditKey('R@3.000:H1', 'S', 'onset');
+    const sk = stationKey('r0', 3, 'H1');
+    const key = pickEditKey(sk, 'S', 'onset');
     const edits = { ...emptyEdits(), picks: { [key]: 0.02 } };
     for (const off of [0.25, 0.3]) {
       const out = runPipeline({ survey: surveyAt(off), records, settings: defaultSettings(), edits });
-      const pick = out.derived.picks.find(
-        (p) => p.stationKey === 'R@3.000:H1' && p.wave === 'S' && p.origin === 'edited',
-      );
+      const pick = out.derived.picks.find((p) => p.stationKey === sk && p.wave === 'S' && p.origin === 'edited');
       expect(pick?.timeS).toBe(0.02);
-      const st = out.prepared.stations.find((s) => s.key === 'R@3.000:H1')!;
+      const st = out.prepared.stations.find((s) => s.key === sk)!;
       expect(st.depthM).toBeCloseTo(3 - off, 12);
     }
   });

@@ -30,23 +30,19 @@ function capture(cwd: string) {
 /** The complete survey placed from the forward model's truth (what a careful user would enter). */
 function truthSurvey(v: VariantSurvey): Survey {
   const s = v.synth.survey;
-  const legacy = (slot: string) =>
-    v.spec.kind === 'crosshole'
-      ? s.receiverHoleIds[slot === 'r1' ? 1 : 0]
-      : v.spec.kind === 'downhole-pair'
-        ? slot === 'r1'
-          ? 'lower'
-          : 'upper'
-        : 'R';
+  const cone = v.spec.kind === 'seismic-cone';
   const records: RecordAssignment[] = v.truth.map((t) => ({
     recordId: t.file,
-    depthM: t.receiverDepthsM.r0!,
+    depthM: t.loggedDepthM,
     hit: t.hit,
-    channels: t.channels.map((c) => ({ channel: c.channel, component: c.component, receiver: legacy(c.receiver) })),
+    channels: t.channels.map((c) => ({ channel: c.channel, component: c.component, receiver: c.receiver })),
     excluded: false,
-    assignedBy: 'manual',
+    depthSource: 'user',
+    hitSource: 'user',
   }));
-  return { ...s, records };
+  return cone
+    ? { ...s, kind: 'seismic-cone', receiverCount: 1, coneOffsetM: v.geometry.coneOffsetM, records }
+    : { ...s, records };
 }
 
 function profileRows(dir: string): string[][] {

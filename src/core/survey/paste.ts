@@ -94,12 +94,16 @@ export function applyPaste(
     for (let k = 0; 2 + 2 * k < c.length && k < r.channels.length; k++) {
       const comp = c[2 + 2 * k]?.trim().toUpperCase();
       const rx = c[3 + 2 * k]?.trim();
-      if (comp && (COMPONENTS as readonly string[]).includes(comp)) r.channels[k].component = comp as Component;
-      else if (comp) problems.push(`Row ${n + 1}: component "${comp}" is not H1, H2 or V.`);
+      if (comp && (COMPONENTS as readonly string[]).includes(comp)) {
+        r.channels[k].component = comp as Component;
+        r.channels[k].source = 'user';
+      } else if (comp) problems.push(`Row ${n + 1}: component "${comp}" is not H1, H2 or V.`);
       if (rx) {
         const slot = receiverOf(rx);
-        if (slot) r.channels[k].receiver = slot;
-        else problems.push(`Row ${n + 1}: receiver "${rx}" is not one of this survey's receivers.`);
+        if (slot) {
+          r.channels[k].receiver = slot;
+          r.channels[k].source = 'user';
+        } else problems.push(`Row ${n + 1}: receiver "${rx}" is not one of this survey's receivers.`);
       }
     }
     changed++;
