@@ -209,18 +209,8 @@ export function openFieldFolder(dir: string, flags: FolderFlags, callerDir: stri
     ...describeInferences(setup).map((l) => `  ${l}`),
   ];
   issues.push(...setup.problems);
-  const completed = {
-    ...doc,
-    // The placement with every value's source (docs/project-format.md version 2 record shape).
-    placement: {
-      kind,
-      receiverCount: geometry.receiverCount,
-      coneOffsetM: geometry.coneOffsetM,
-      channelMap: setup.channelMap,
-      records: setup.records,
-      rejectedHeaderValues: setup.rejected,
-      settings: placement,
-    },
-  };
+  // Every value's source is in the records (depthSource, hitSource, channel source); rejected header
+  // values are printed above, not stored (the project schema takes no extra keys).
+  const completed = doc;
   return { opened: { doc, files, missing: [] }, setup, lines, issues, completed };
 }

@@ -103,8 +103,14 @@ describe('cli profile on a folder of field files', () => {
     expect(a.length).toBeGreaterThan(5);
     expect(a).toEqual(await archiveProfile(v, 'dh'));
     const written = JSON.parse(readFileSync(join(root, 'dh-a-out', 'project.json'), 'utf8'));
-    expect(written.placement.records[0].depthM.source).toBe('log');
+    expect(written.survey.records[0].depthSource).toBe('log');
+    expect(written.survey.records[0].channels[0]).toMatchObject({ component: 'V', source: 'header' });
     expect(written.survey.records).toHaveLength(20);
+    // The completed project.json opens again (with the files beside it) to the same profile.
+    for (const f of v.files) writeFileSync(join(root, 'dh-a-out', f.name), f.bytes);
+    const again = capture(root);
+    expect(await runProfile(['dh-a-out', '--out', 'dh-a-again'], again.io), again.out.stderr).toBe(0);
+    expect(profileRows(join(root, 'dh-a-again'))).toEqual(a);
     void dir;
   });
   it('(a) seismic cone at 0.5 m steps, tip depths logged: receivers at tip - 0.25 m, same profile as the archive', async () => {
