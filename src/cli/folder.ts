@@ -211,6 +211,6 @@ export function openFieldFolder(dir: string, flags: FolderFlags, callerDir: stri
   issues.push(...setup.problems);
   // Every value's source is in the records (depthSource, hitSource, channel source); rejected header
   // values are printed above, not stored (the project schema takes no extra keys).
-  const completed = doc;
+  const completed = { ...doc, settings: { ...doc.settings, placement } };
   return { opened: { doc, files, missing: [] }, setup, lines, issues, completed };
 }

@@ -98,6 +98,7 @@ function place(survey: Survey, recs: WaveRecord[], namePattern?: string): Record
   const st = useApp.getState();
   const { assignments, setup } = placeForSurvey(survey, recs, {
     fileNamePattern: namePattern ?? st.namePattern,
+    maxHeaderDepthM: st.settings.placement.maxHeaderDepthM,
     log: st.recordLog,
   });
   useApp.setState({
