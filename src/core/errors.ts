@@ -51,6 +51,7 @@ export type ErrorCode =
   | 'FILTER_SOS'
   | 'INTERNAL'
   | 'MC_DRAWS'
+  | 'ORIENTATION_FAILED'
   | 'MC_NO_INTERVALS'
   | 'METHOD_DRIFT'
   | 'PAIR_BOUNDS'
