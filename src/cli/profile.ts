@@ -159,6 +159,11 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   });
   const issues = [...setupIssues, ...project.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
+  const setup = result.derived.setupProblems;
+  for (const p of setup)
+    io.stderr.write(
+      `set-up ${p.blocking ? 'problem (blocking)' : 'warning'}: ${p.message} Fix: ${p.fix} [${p.code}, ${p.count}]\n`,
+    );
   mkdirSync(out, { recursive: true });
   if (completed) writeFileSync(join(out, 'project.json'), `${JSON.stringify(completed, null, 1)}\n`);
   writeFileSync(join(out, 'picks.csv'), toCsv(picksTable(result.prepared.stations, result.derived, units)));
@@ -171,8 +176,11 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   const v = result.derived.site.vs30;
   io.stdout.write(
     `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.intervals.profileMethod}), ` +
-      (v ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m` : 'no time-averaged Vs') +
+      (v
+        ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m`
+        : (result.derived.site.setupIncomplete ?? 'no time-averaged Vs')) +
       `; wrote ${completed ? 'project.json, ' : ''}picks.csv, intervals.csv, profile.csv, layers.csv, ${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
   );
-  return strict && issues.length ? 3 : 0;
+  // Exit 0 with problems listed; under --strict, 3 when any problem (blocking set-up problems included) stands.
+  return strict && (issues.length || setup.some((p) => p.blocking)) ? 3 : 0;
 }

@@ -57,6 +57,7 @@ export type ErrorCode =
   | 'LOG_UNKNOWN_FILE'
   | 'RECORD_LOG'
   | 'MC_DRAWS'
+  | 'ORIENTATION_FAILED'
   | 'MC_NO_INTERVALS'
   | 'METHOD_DRIFT'
   | 'PAIR_BOUNDS'

@@ -28,6 +28,7 @@ export type ValueFlag =
   | 'no pick'
   | 'no delay'
   | 'methods differ'
+  | 'sd widened to the method spread'
   | 'no value'
   | `fallback from ${string}`
   | `vp left out (${string})`;

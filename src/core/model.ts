@@ -169,6 +169,8 @@ export interface Survey {
   receiverHoleIds: string[];
   records: RecordAssignment[];
   soil: SoilColumn;
+  /** One global left/right (up/down) swap of the hits inferred from the data (project.json survey.hitSwap). */
+  hitSwap?: boolean;
 }
 
 // ---------------------------------------------------------------- picks and delays

@@ -15,6 +15,9 @@ import { stationWaveKey, type IntervalKey, type StationKey } from './keys';
 import { autoPickSurvey, type AutoPickResult } from './picking/autopick';
 import { effectivePicks } from './picking/edits';
 import { buildStations, type Station } from './survey/stations';
+import type { DepthOrientation } from './survey/orientation';
+import { setupChecks, setupIncompleteText, type SetupProblem } from './survey/setup-checks';
+import { kindInfo } from './catalogue/testKinds';
 import {
   delayRequests,
   intervalValues,
@@ -22,7 +25,7 @@ import {
   type IntervalValue,
   type StationPair,
 } from './velocity/intervals';
-import { bridgingPairs } from './velocity/bridging';
+import { bridgingPairs, gapVelocityFrom } from './velocity/bridging';
 import { directVelocities, travelTimeRows, type DirectVelocity, type TravelTimeRow } from './velocity/direct';
 import { layerFits, layerModelFor, rayFitFor, type LayerFit } from './velocity/layers';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
@@ -45,17 +48,24 @@ export interface Prepared {
   stations: Station[];
   pairs: StationPair[];
   issues: ErrorInfo[];
+  /** Hits and horizontal rotation per record depth (inferred from the data where not given). */
+  orientation: DepthOrientation[];
 }
 
-export function prepare(survey: Survey, records: ReadonlyMap<string, WaveRecord>, settings: Settings): Prepared {
-  const { stations, issues } = buildStations(survey, records, settings);
+export function prepare(
+  survey: Survey,
+  records: ReadonlyMap<string, WaveRecord>,
+  settings: Settings,
+  azimuthDeg: Readonly<Record<string, number>> = {},
+): Prepared {
+  const { stations, issues, orientation } = buildStations(survey, records, settings, azimuthDeg);
   let pairs: StationPair[] = [];
   try {
     pairs = pairStations(survey, stations);
   } catch (e) {
     issues.push(toErrorInfo(e, survey.name));
   }
-  return { stations, pairs, issues };
+  return { stations, pairs, issues, orientation };
 }
 
 export function autoPick(
@@ -86,6 +96,8 @@ export interface Derived {
   layerModel: LayerModelFit | null;
   drift: MethodDrift | null;
   site: SiteSummary;
+  /** Set-up checks (survey/setup-checks.ts): blocking ones withhold Vs30 and the site classes. */
+  setupProblems: SetupProblem[];
   comparison: ComparisonResult | null;
   issues: ErrorInfo[];
 }
@@ -102,7 +114,9 @@ export interface DeriveOptions {
  * (the UI computes it when the user pauses); the same figures derive() gives with monteCarlo on.
  */
 export function siteSpread(derived: Derived, settings: Settings): SiteUncertainty | null {
-  return derived.site.vs30 ? spreadOf(siteIntervals(derived.profile), settings) : null;
+  if (!derived.site.vs30) return null;
+  const ivs = [...siteIntervals(derived.profile), ...derived.site.bridged].sort((a, b) => a.topM - b.topM);
+  return spreadOf(ivs, settings);
 }
 
 /** Light stage: everything that follows from the auto picks and the user's edits. */
@@ -153,7 +167,14 @@ export function derive(
   const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity } = profileRows(survey, intervals, issues);
-  const site = siteSummary(velocity, settings, options.monteCarlo ?? true);
+  const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
+  const site = siteSummary(
+    velocity,
+    settings,
+    options.monteCarlo ?? true,
+    setupIncompleteText(setupProblems),
+    kindInfo(survey.kind).sourceInHole ? null : gapVelocityFrom(kept, picks),
+  );
   const drift = methodDrift(intervals);
   if (drift?.significant) {
     issues.push({
@@ -174,6 +195,7 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     drift,
     site,
+    setupProblems,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,
     issues,
   };
@@ -198,7 +220,7 @@ export function runPipeline(
   input: PipelineInput,
   onProgress?: (stage: string, done: number, total: number) => void,
 ): PipelineResult {
-  const prepared = prepare(input.survey, input.records, input.settings);
+  const prepared = prepare(input.survey, input.records, input.settings, input.edits.azimuthDeg);
   onProgress?.('prepare', 1, 1);
   const auto = autoPick(prepared, input.settings, (d, t) => onProgress?.('auto-pick', d, t));
   const derived = derive(input.survey, prepared, auto, input.edits, input.settings, {

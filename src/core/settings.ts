@@ -182,6 +182,8 @@ export interface UserEdits {
   chosenMethod: Record<IntervalKey, IntervalMethod>;
   /** Interval keys left out of the profile. */
   excludedIntervals: IntervalKey[];
+  /** User-fixed azimuth of the first hit direction, degrees, keyed `<receiver>@<depth mm>` (orientation.ts). */
+  azimuthDeg?: Record<string, number>;
 }
 
 export function emptyEdits(): UserEdits {

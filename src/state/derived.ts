@@ -116,7 +116,8 @@ function emptyDerived(issues: Derived['issues']): Derived {
     layerModel: null,
     drift: null,
     comparison: null,
-    site: { vs30: null, classes: [], uncertainty: null, cautions: [] },
+    site: { vs30: null, classes: [], uncertainty: null, cautions: [], setupIncomplete: null, bridged: [] },
+    setupProblems: [],
     issues,
   };
 }

@@ -17,9 +17,14 @@ function processingSettings(s: Settings): unknown {
   return WORKER_SETTING_GROUPS.map((g) => s[g]);
 }
 
-export function processingKey(survey: Survey, settings: Settings, loadedIds: string[]): string {
+export function processingKey(
+  survey: Survey,
+  settings: Settings,
+  loadedIds: string[],
+  azimuthDeg: Record<string, number> = {},
+): string {
   const { soil: _soil, name: _name, ...geometry } = survey;
-  return JSON.stringify([geometry, processingSettings(settings), loadedIds]);
+  return JSON.stringify([geometry, processingSettings(settings), loadedIds, azimuthDeg]);
 }
 
 let timer: ReturnType<typeof setTimeout> | null = null;
@@ -30,9 +35,10 @@ let runningKey: string | null = null;
 export async function runProcessing(): Promise<void> {
   if (timer) clearTimeout(timer);
   timer = null;
-  const { survey, settings } = useApp.getState();
+  const { survey, settings, edits } = useApp.getState();
+  const azimuthDeg = edits.azimuthDeg ?? {};
   const ids = [...rawRecords.keys()].sort();
-  const key = processingKey(survey, settings, ids);
+  const key = processingKey(survey, settings, ids, azimuthDeg);
   processLane.cancel();
   const placed = survey.records.filter((r) => rawRecords.has(r.recordId) && !r.excluded);
   if (!placed.length) {
@@ -45,7 +51,7 @@ export async function runProcessing(): Promise<void> {
   useResults.setState({ status: { state: 'running', stage: 'prepare', done: 0, total: 1 } });
   let result: { prepared: Prepared; auto: AutoPickResult } | null = null;
   try {
-    await processLane.run({ type: 'process', survey, records, settings }, (m) => {
+    await processLane.run({ type: 'process', survey, records, settings, azimuthDeg }, (m) => {
       if (m.type === 'progress')
         useResults.setState({ status: { state: 'running', stage: m.stage, done: m.done, total: m.total } });
       if (m.type === 'processed') {
@@ -91,8 +97,8 @@ export function cancelProcessing(): void {
 
 /** Re-runs processing after `delayMs` when its inputs changed since the last run. */
 export function scheduleProcessing(delayMs = 400): void {
-  const { survey, settings } = useApp.getState();
-  const key = processingKey(survey, settings, [...rawRecords.keys()].sort());
+  const { survey, settings, edits } = useApp.getState();
+  const key = processingKey(survey, settings, [...rawRecords.keys()].sort(), edits.azimuthDeg ?? {});
   const res = useResults.getState();
   if (key === runningKey || (key === res.key && res.status.state === 'done')) return;
   if (timer) clearTimeout(timer);
@@ -103,7 +109,12 @@ export function scheduleProcessing(delayMs = 400): void {
 export function watchProcessing(): () => void {
   let prev = useApp.getState();
   return useApp.subscribe((s) => {
-    if (s.survey !== prev.survey || s.settings !== prev.settings || s.filesRevision !== prev.filesRevision)
+    if (
+      s.survey !== prev.survey ||
+      s.settings !== prev.settings ||
+      s.filesRevision !== prev.filesRevision ||
+      s.edits.azimuthDeg !== prev.edits.azimuthDeg
+    )
       scheduleProcessing();
     prev = s;
   });

@@ -363,6 +363,7 @@ const PrintBody = memo(function PrintBody({
       </table>
       <h2>Site</h2>
       <p>
+        {d?.site.setupIncomplete ? `Vs30 not given: ${d.site.setupIncomplete}` : null}
         Vs30 = {fmt('velocity', units, d?.site.vs30?.vsMps)} {v}
         {d?.site.uncertainty
           ? ` (P05 ${fmt('velocity', units, d.site.uncertainty.vs30P05Mps)}, P95 ${fmt('velocity', units, d.site.uncertainty.vs30P95Mps)})`

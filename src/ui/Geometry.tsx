@@ -4,6 +4,7 @@
  * processing settings. The records table takes a paste of tab-separated rows from a spreadsheet.
  */
 import { useEffect, useState } from 'react';
+import { OrientationTable } from './Setup';
 import type {
   Borehole,
   ChannelAssignment,
@@ -911,6 +912,7 @@ export function GeometryPane() {
   return (
     <section className="geometry-pane" aria-label="Geometry">
       <h2>Geometry</h2>
+      <OrientationTable />
       <div className="form-grid">
         <label>
           Survey name{' '}

@@ -2,6 +2,7 @@
  * Profile: Vs and Vp step profile with one-sigma bars, Gmax and Vs1 beside it, and the method
  * comparison table (every method's interval velocity, the one used, flags as short words).
  */
+import { CurrentSetupProblems } from './Setup';
 import { memo, useMemo, useRef, useState } from 'react';
 import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core/catalogue/methods';
 import type { IntervalKey, StationKey } from '../core/keys';
@@ -611,7 +612,11 @@ export function ProfilePane() {
       <div className="pane-head">
         <h2>Profile</h2>
         <span className="muted" data-testid="vs30-line">
-          {vs30 ? `Vs30 = ${fmt('velocity', units, vs30.vsMps)} ${label('velocity', units)}` : 'Vs30: –'}
+          {vs30
+            ? `Vs30 = ${fmt('velocity', units, vs30.vsMps)} ${label('velocity', units)}`
+            : d?.site.setupIncomplete
+              ? 'Vs30 withheld: set-up incomplete'
+              : 'Vs30: –'}
         </span>
         <span className="spacer" />
         <button onClick={() => setView({ sheet: 'site' })}>Site…</button>
@@ -628,7 +633,10 @@ export function ProfilePane() {
         ) : null}{' '}
         · bars ±1 sd
       </div>
-      <ProfilePlot />
+      <CurrentSetupProblems />
+      <div className={d?.site.setupIncomplete ? 'blocked-results' : undefined} data-blocked={!!d?.site.setupIncomplete}>
+        <ProfilePlot />
+      </div>
       <IntervalsTable />
       <p className="caution-line">Results need review by a qualified professional before use; local codes govern.</p>
     </section>

@@ -4,6 +4,7 @@
  * images, the project archive, a printable summary).
  */
 import { hasDirectVelocities } from '../core/catalogue/testKinds';
+import { CurrentSetupProblems } from './Setup';
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/site/classes';
 import {
   directTable,
@@ -55,7 +56,12 @@ export function SiteSheet() {
   const standards = (site?.classes ?? []).map((c) => c.standard);
   return (
     <SheetFrame title="Site">
-      {!vs30 ? (
+      {!vs30 && site?.setupIncomplete ? (
+        <>
+          <p data-testid="site-withheld">Vs30 and the site classes are not given: set-up incomplete.</p>
+          <CurrentSetupProblems />
+        </>
+      ) : !vs30 ? (
         <p>No time-averaged velocity yet: the profile needs at least one interval.</p>
       ) : (
         <>

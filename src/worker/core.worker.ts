@@ -43,7 +43,7 @@ function handle(req: WorkerRequest): void {
     } else if (req.type === 'process') {
       const records = new Map<string, WaveRecord>(req.records.map((r) => [r.id, r]));
       post({ type: 'progress', jobId, stage: 'prepare', done: 0, total: 1 });
-      const prepared = prepare(req.survey, records, req.settings);
+      const prepared = prepare(req.survey, records, req.settings, req.azimuthDeg ?? {});
       post({ type: 'progress', jobId, stage: 'prepare', done: 1, total: 1 });
       let last = 0;
       const auto = autoPick(prepared, req.settings, (done, total) => {

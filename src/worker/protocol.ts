@@ -24,7 +24,15 @@ export type WorkerRequest =
   | { type: 'parse'; jobId: number; files: NamedBytes[] }
   | { type: 'open-archive'; jobId: number; name: string; bytes: Uint8Array }
   | { type: 'make-demo'; jobId: number; kind: TestKind }
-  | { type: 'process'; jobId: number; survey: Survey; records: WaveRecord[]; settings: Settings };
+  | {
+      type: 'process';
+      jobId: number;
+      survey: Survey;
+      records: WaveRecord[];
+      settings: Settings;
+      /** User-fixed azimuths (edits.azimuthDeg). */
+      azimuthDeg?: Record<string, number>;
+    };
 
 export interface ParsedFile {
   name: string;

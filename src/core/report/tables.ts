@@ -330,6 +330,19 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
     classProbabilities: u?.classProbabilities ?? {},
     monteCarlo: { draws: settings.site.monteCarloDraws, seed: settings.site.monteCarloSeed },
     answers: settings.site.siteAnswers,
+    // Present and empty when the set-up checks found nothing; vs30Mps is null while one blocks.
+    setupIncomplete: d.site.setupIncomplete ?? null,
+    setupProblems: (d.setupProblems ?? []).map((p) => ({
+      code: p.code,
+      message: p.message,
+      count: p.count,
+      blocking: p.blocking,
+    })),
+    bridgedIntervals: (d.site.bridged ?? []).map((b) => ({
+      topM: num(b.topM, 3),
+      bottomM: num(b.bottomM, 3),
+      vsMps: num(b.vsMps, 2),
+    })),
     comparison: d.comparison
       ? {
           name: d.comparison.name,

@@ -20,6 +20,7 @@ import {
 import { conditionTrace } from '../signal/condition';
 import { reversedDifference, reversedSum, stackTraces } from '../signal/stack';
 import { distanceM, findHole, positionAlongHole, validateDeviation, type Vec3 } from './geometry';
+import { orientSurvey, type DepthOrientation } from './orientation';
 
 export interface StationHit {
   recordId: string;
@@ -80,6 +81,8 @@ export function searchWindowS(
 export interface StationBuild {
   stations: Station[];
   issues: ErrorInfo[];
+  /** Per record depth: effective hits, inferred azimuths and confidences (orientation.ts). */
+  orientation: DepthOrientation[];
 }
 
 /** Builds every station's working trace. Problems with one record or station are reported, not thrown. */
@@ -87,6 +90,7 @@ export function buildStations(
   survey: Survey,
   records: ReadonlyMap<string, WaveRecord>,
   settings: Settings,
+  azimuthDeg: Readonly<Record<string, number>> = {},
 ): StationBuild {
   const issues: ErrorInfo[] = [];
   // A hole whose deviation table is unusable is reported and taken as vertical, so the rest still computes.
@@ -103,6 +107,10 @@ export function buildStations(
     }
   });
   survey = { ...survey, boreholes };
+  const orient = orientSurvey(survey, records, settings, azimuthDeg, issues);
+  // The rotated horizontal is the shear working signal of a horizontal-beam survey (rotation on).
+  const shearOverride =
+    orient.mode === 'horizontal' && settings.conditioning.rotateHorizontals !== false ? orient.shear : null;
   type Group = {
     receiver: ReceiverSlot;
     depthM: number;
@@ -155,7 +163,7 @@ export function buildStations(
             gk,
             (g = { receiver: ch.receiver, depthM, loggedDepthM: ra.depthM, component: comp, wave, hits: [] }),
           );
-        g.hits.push({ recordId: ra.recordId, channel: ch.channel, hit: ra.hit });
+        g.hits.push({ recordId: ra.recordId, channel: ch.channel, hit: orient.hits.get(ra.recordId) ?? ra.hit });
       }
     }
   }
@@ -163,7 +171,7 @@ export function buildStations(
   for (const g of groups.values()) {
     const key = stationKey(g.receiver, g.loggedDepthM, g.component);
     try {
-      const st = buildStation(survey, records, settings, g);
+      const st = buildStation(survey, records, settings, g, g.wave === 'S' ? shearOverride : null);
       if (holesUsed(survey, g.receiver).some((h) => badHoles.has(h))) st.flags.push('deviation table rejected');
       stations.push(st);
     } catch (e) {
@@ -176,7 +184,7 @@ export function buildStations(
       a.receiver.localeCompare(b.receiver, 'en', { numeric: true }) ||
       a.depthM - b.depthM,
   );
-  return { stations, issues };
+  return { stations, issues, orientation: orient.depths };
 }
 
 function buildStation(
@@ -191,6 +199,7 @@ function buildStation(
     wave: Wave;
     hits: StationHit[];
   },
+  shearOverride: ReadonlyMap<string, Float64Array> | null = null,
 ): Station {
   const { receiver, depthM, loggedDepthM, component, wave, hits } = g;
   const key = stationKey(receiver, loggedDepthM, component);
@@ -212,7 +221,9 @@ function buildStation(
     throw new BorewaveError('STATION_BAD_SAMPLE_INTERVAL', `Sample interval at ${key} is not positive.`, key);
   const bandpass = wave === 'S' ? settings.conditioning.bandpassS : settings.conditioning.bandpassP;
   const cond = { detrend: settings.conditioning.detrend, taperFraction: settings.conditioning.taperFraction, bandpass };
-  const conditioned = traces.map((t) => conditionTrace(t.samples, dtS, cond));
+  const conditioned = traces.map(
+    (t, i) => shearOverride?.get(`${hits[i].recordId}|${receiver}`) ?? conditionTrace(t.samples, dtS, cond),
+  );
   const [dirA, dirB] = reversedDirections(survey.kind);
   const groupA = conditioned.filter((_, i) => hits[i].hit === dirA);
   const groupB = conditioned.filter((_, i) => hits[i].hit === dirB);
@@ -227,6 +238,9 @@ function buildStation(
     // One direction only (or reversal off): stack what there is, keeping the first direction's polarity.
     const all = groupA.length ? groupA : groupB.length ? groupB : conditioned;
     samples = all.length > 1 ? stackTraces(all) : all[0];
+    // Second direction only: the shear wave is flipped against the difference traces (first minus
+    // second) of the neighbouring depths, so flip it back; P does not reverse and stays as it is.
+    if (wave === 'S' && !groupA.length && groupB.length) samples = samples.map((x) => -x);
     workingKind = all.length > 1 ? 'stack' : 'single';
     if (wave === 'S' && settings.conditioning.useReversedHits) flags.push('no reversed pair');
   }

@@ -103,6 +103,16 @@ export interface SynthOptions {
   maxTriggerDelayS: number;
   /** Receiver rotation about the vertical, rad (default 0.1). */
   receiverRotationRad?: number;
+  /**
+   * Turning probe: the receiver azimuth random-walks from depth to depth (downhole kinds) with this
+   * step standard deviation, rad, from a uniformly random start over the full circle; null/absent =
+   * the fixed receiverRotationRad. Two receivers on one probe turn together (the lower 0.4 rad apart).
+   */
+  azimuthWalkSdRad?: number | null;
+  /** Mean turn per depth step of the turning probe, rad (a cable that twists one way); default 0. */
+  azimuthDriftRad?: number;
+  /** Hits recorded at each depth (by depth index); absent = one 'left' then one 'right' (crosshole 'up', 'down'). */
+  hitPlan?: HitDirection[][];
   /** Receiver tilt, rad (default 0.05). */
   receiverTiltRad?: number;
   /** S amplitude at 1 m path before attenuation (default 1000). */
@@ -133,6 +143,8 @@ export interface ChannelTruth {
   qEffP: number;
   /** Receiver position (east, north, depth), m. */
   receiverPositionM: Vec3;
+  /** Receiver rotation about the vertical, rad (nominal H1 turned toward nominal H2). */
+  receiverRotationRad: number;
 }
 
 export interface RecordTruth {
@@ -261,6 +273,7 @@ function crossholePath(model: EarthModel, wave: 'S' | 'P', depthM: number, src: 
 
 interface ReceiverSpec {
   name: string;
+  rotationRad: number;
   positionM: Vec3;
   /** Written to RECEIVER_LOCATION: hole collar east, north and the along-hole depth (what the crew sets). */
   nominalM: Vec3;
@@ -290,8 +303,24 @@ function hitLetter(hit: HitDirection): string {
   return { left: 'L', right: 'R', up: 'U', down: 'D', none: 'N' }[hit];
 }
 
-function recordIdFor(prefix: string, depthM: number, hit: HitDirection): string {
-  return `${prefix}_d${depthM.toFixed(1)}_${hitLetter(hit)}.sg2`;
+function recordIdFor(prefix: string, depthM: number, hit: HitDirection, index = 0, plan: HitDirection[] = []): string {
+  // A repeated hit at one depth gets a numbered name (…_L2) so ids stay unique.
+  const repeat = plan.slice(0, index).filter((h) => h === hit).length;
+  return `${prefix}_d${depthM.toFixed(1)}_${hitLetter(hit)}${repeat ? repeat + 1 : ''}.sg2`;
+}
+
+/** Receiver rotation per depth index: fixed, or a random walk over the full circle (turning probe). */
+function probeRotations(count: number, o: SynthOptions): number[] {
+  const fixed = o.receiverRotationRad ?? 0.1;
+  if (!o.azimuthWalkSdRad) return new Array<number>(count).fill(fixed);
+  const rng = mulberry32((o.seed ^ 0x5eed1) >>> 0);
+  let a = (rng.uniform() * 2 - 1) * Math.PI;
+  const out: number[] = [];
+  for (let k = 0; k < count; k++) {
+    if (k) a += (o.azimuthDriftRad ?? 0) + o.azimuthWalkSdRad * rng.normal();
+    out.push(a);
+  }
+  return out;
 }
 
 function formatCoord(x: number): string {
@@ -357,6 +386,7 @@ function renderShot(
           qEffS: r.s.qEff,
           qEffP: r.p.qEff,
           receiverPositionM: r.positionM,
+          receiverRotationRad: r.rotationRad,
         },
       });
     }
@@ -459,13 +489,15 @@ function downholeReceiver(
   sourceDepthM: number,
   offsetM: number,
   o: SynthOptions,
+  rotationRad: number,
 ): ReceiverSpec {
   return {
     name,
+    rotationRad,
     positionM: [0, 0, depthM],
     nominalM: [0, 0, depthM],
     // Nominal H1 along the beam (north); the source lies east of the hole.
-    axes: receiverAxes([0, 1, 0], o.receiverRotationRad ?? 0.1, o.receiverTiltRad ?? 0.05),
+    axes: receiverAxes([0, 1, 0], rotationRad, o.receiverTiltRad ?? 0.05),
     s: downholePath(model, 'S', sourceDepthM, depthM, offsetM),
     p: downholePath(model, 'P', sourceDepthM, depthM, offsetM),
     sMotion: [0, 1, 0],
@@ -487,20 +519,29 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
       );
     }
     const prefix = o.filePrefix ?? (g.kind === 'downhole' ? 'dh' : 'dhp');
-    for (const z of depths) {
+    const rotations = probeRotations(depths.length, o);
+    depths.forEach((z, k) => {
+      const rot = rotations[k];
       const receivers =
         g.kind === 'downhole'
-          ? [downholeReceiver(model, 'R', z, zs, g.sourceOffsetM, o)]
+          ? [downholeReceiver(model, 'R', z, zs, g.sourceOffsetM, o, rot)]
           : [
-              downholeReceiver(model, 'upper', z, zs, g.sourceOffsetM, o),
-              downholeReceiver(model, 'lower', z + g.receiverSpacingM, zs, g.sourceOffsetM, o),
+              downholeReceiver(model, 'upper', z, zs, g.sourceOffsetM, o, rot),
+              downholeReceiver(
+                model,
+                'lower',
+                z + g.receiverSpacingM,
+                zs,
+                g.sourceOffsetM,
+                o,
+                rot + (o.azimuthWalkSdRad ? 0.4 : 0),
+              ),
             ];
-      for (const [hit, polarity] of [
-        ['left', 1],
-        ['right', -1],
-      ] as const) {
+      const plan = o.hitPlan?.[k] ?? ['left', 'right'];
+      plan.forEach((hit, h) => {
+        const polarity = hit === 'right' ? -1 : 1;
         shots.push({
-          recordId: recordIdFor(prefix, z, hit),
+          recordId: recordIdFor(prefix, z, hit, h, plan),
           depthM: z,
           hit,
           polarity,
@@ -508,8 +549,8 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
           sourceNominalM: [g.sourceOffsetM, 0, zs],
           receivers,
         });
-      }
-    }
+      });
+    });
     return shots;
   }
   checkDepths(g.depthsM, 'depthsM');
@@ -527,6 +568,7 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
       const sMotion = unit3(sub3(down, scale3(s.directionAtReceiver, dot(down, s.directionAtReceiver))));
       return {
         name: hole.id,
+        rotationRad: o.receiverRotationRad ?? 0.1,
         positionM: rec,
         nominalM: [hole.collarEastM, hole.collarNorthM, z],
         axes: receiverAxes(radial, o.receiverRotationRad ?? 0.1, o.receiverTiltRad ?? 0.05),
@@ -535,20 +577,18 @@ function shotsFor(model: EarthModel, g: SynthGeometry, o: SynthOptions): ShotSpe
         sMotion,
       };
     });
-    for (const [hit, polarity] of [
-      ['up', -1],
-      ['down', 1],
-    ] as const) {
+    const plan = o.hitPlan?.[g.depthsM.indexOf(z)] ?? ['up', 'down'];
+    plan.forEach((hit, h) => {
       shots.push({
-        recordId: recordIdFor(prefix, z, hit),
+        recordId: recordIdFor(prefix, z, hit, h, plan),
         depthM: z,
         hit,
-        polarity,
+        polarity: hit === 'up' ? -1 : 1,
         sourcePositionM: src,
         sourceNominalM: [srcHole.collarEastM, srcHole.collarNorthM, z],
         receivers,
       });
-    }
+    });
   }
   return shots;
 }

@@ -2,7 +2,8 @@
  * Bridging an excluded depth in a one-receiver survey (successive-depth pairing).
  */
 import { toErrorInfo, type ErrorInfo } from '../errors';
-import type { PairDelay, Survey, Wave } from '../model';
+import type { PairDelay, Pick, Survey, Wave } from '../model';
+import { isOnsetPick } from '../catalogue/methods';
 import type { Settings } from '../settings';
 import { intervalKey, stationWaveKey, type StationWaveKey } from '../keys';
 import { hasSuccessiveDepths } from '../catalogue/testKinds';
@@ -48,4 +49,32 @@ export function bridgingPairs(
     }
   }
   return { pairs, delays };
+}
+
+/**
+ * Travel-time velocity across a depth span for Vs30 (site/summary.ts): V = (L_b - L_a)/(t_b - t_a)
+ * from the onset picks of one receiver's shear stations at the two ends of the span.
+ */
+export function gapVelocityFrom(
+  stations: readonly Station[],
+  picks: readonly Pick[],
+): (topM: number, bottomM: number) => { vsMps: number; vsSdMps: number } | null {
+  const onset = new Map<string, Pick>();
+  for (const p of picks) if (p.wave === 'S' && p.origin !== 'excluded' && isOnsetPick(p)) onset.set(p.stationKey, p);
+  const sStations = stations.filter((s) => s.wave === 'S' && onset.has(s.key));
+  return (topM, bottomM) => {
+    for (const a of sStations) {
+      if (Math.abs(a.depthM - topM) > 1e-6) continue;
+      const b = sStations.find((x) => x.receiver === a.receiver && Math.abs(x.depthM - bottomM) < 1e-6);
+      if (!b) continue;
+      const pa = onset.get(a.key)!;
+      const pb = onset.get(b.key)!;
+      const dt = pb.timeS - pa.timeS;
+      const dl = b.straightPathM - a.straightPathM;
+      if (!(dt > 0 && dl > 0)) continue;
+      const v = dl / dt;
+      return { vsMps: v, vsSdMps: (v * Math.hypot(pa.uncertaintyS, pb.uncertaintyS)) / dt };
+    }
+    return null;
+  };
 }

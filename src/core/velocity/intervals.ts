@@ -138,6 +138,24 @@ export interface IntervalInputs {
   edits: UserEdits;
 }
 
+/** Flags that make an interval's own sd (pick or delay scatter) too narrow to describe it. */
+export const SD_WIDENING_FLAGS = ['low correlation', 'at lag bound', 'outside lag bound', 'methods differ'];
+
+/**
+ * An interval flagged as doubtful gets an sd at least as wide as the spread between the methods
+ * (half the range of every method's value), so a bad row cannot enter Vs30 with a pick-only +-2 m/s.
+ */
+export function widenFlaggedSd(chosen: IntervalValue, rows: readonly IntervalValue[]): void {
+  if (chosen.velocityMps === null || !chosen.flags.some((f) => SD_WIDENING_FLAGS.includes(f))) return;
+  const vs = rows.filter((r) => r.velocityMps !== null).map((r) => r.velocityMps!);
+  if (vs.length < 2) return;
+  const halfRange = (Math.max(...vs) - Math.min(...vs)) / 2;
+  if (halfRange > (chosen.velocitySdMps ?? 0)) {
+    chosen.velocitySdMps = halfRange;
+    chosen.flags.push('sd widened to the method spread');
+  }
+}
+
 /** Every interval by every method, with the chosen one marked and flags set. */
 export function intervalValues(inp: IntervalInputs): IntervalValue[] {
   const out: IntervalValue[] = [];
@@ -236,6 +254,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
         if (Math.abs(mid - chosen.velocityMps!) > settings.intervals.methodDisagreementShare * chosen.velocityMps!)
           chosen.flags.push('methods differ');
       }
+      widenFlaggedSd(chosen, rows);
     }
     out.push(...rows);
   }
