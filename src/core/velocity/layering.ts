@@ -1,0 +1,545 @@
+/**
+ * Automatic layering of downhole travel times and the layered refracted-ray fit behind it.
+ *
+ * Observations are direct S times to receivers (one receiver per hit: absolute times, with a fitted
+ * common intercept that absorbs the mean trigger offset) or time differences between two receivers of
+ * the same hit (two-receiver surveys: the trigger cancels). With the ray paths held fixed the times are
+ * linear in the layer slownesses (by Fermat's principle the path lengths are the partial derivatives),
+ * so the fit alternates Snell's-law ray tracing (survey/rays.ts) and weighted least squares, as in
+ * velocity/rayfit.ts.
+ *
+ * Boundaries (mode 'auto'): candidates lie in the gaps between successive receiver depths. For the
+ * times reduced to vertical paths through the current model, the layers are found by an exact optimal
+ * segmentation (dynamic programming over receivers; Bellman 1961, "On the approximation of curves by
+ * line segments using dynamic programming", Comm. ACM 4(6), from memory): each layer is a straight
+ * line in the depth-time plot (absolute times, with its own intercept) or one slowness (differences),
+ * its cost the weighted sum of squared residuals; the number of layers is chosen by the Bayesian
+ * information criterion (Schwarz 1978, Ann. Stat. 6(2)): chi2 + penaltyScale * k ln N. Then each
+ * boundary is placed inside its gap by a one-dimensional search of the ray-fit misfit, and the fit is
+ * repeated with the new vertical reductions until the layering stops changing.
+ *
+ * Uncertainty: the ordinary least-squares covariance (A^T W A)^-1 scaled by the reduced chi-square when
+ * that exceeds 1 (any regression text), plus, for an interval that holds a boundary, the spread of the
+ * boundary inside its gap (uniform: sd = gap / sqrt 12).
+ *
+ * The fit never disappears silently: every failure comes back with the reason.
+ */
+import { layeredRay, type VelocityLayer } from '../survey/rays';
+
+export interface TimeObservation {
+  /** Upper receiver depth for a difference T(b) - T(a) of one hit; null = absolute time to b. */
+  depthAM: number | null;
+  depthBM: number;
+  /** Horizontal source-receiver offset, m (both receivers of a difference share it). */
+  offsetM: number;
+  timeS: number;
+  sdS: number;
+}
+
+export interface LayeringOptions {
+  sourceDepthM: number;
+  /** 'auto': boundaries from the data; 'user': the given boundaries. */
+  mode: 'auto' | 'user';
+  boundariesM?: number[];
+  minThicknessM: number;
+  /** Absolute times: fit a common intercept (the mean trigger offset); ignored for differences. */
+  intercept: boolean;
+  /** Multiplies the BIC penalty k ln N (1 = BIC). */
+  penaltyScale?: number;
+  maxLayers?: number;
+}
+
+export interface FittedLayer {
+  topM: number;
+  /** The last layer's bottom is the deepest receiver. */
+  bottomM: number;
+  vsMps: number;
+  vsSdMps: number;
+  /** Observations whose deepest receiver lies in the layer. */
+  receivers: number;
+}
+
+export interface LayeredFit {
+  layers: FittedLayer[];
+  /** Covariance of the layer slownesses, (s/m)^2, row-major m x m. */
+  slownessCovariance: number[];
+  /** Sd of each fitted boundary (between layers j and j+1), m. */
+  boundarySdM: number[];
+  interceptS: number | null;
+  chi2: number;
+  dof: number;
+  rmsMisfitS: number;
+  residualsS: number[];
+  bic: number;
+  notes: string[];
+}
+
+export type LayeringResult = { ok: true; fit: LayeredFit } | { ok: false; reason: string };
+
+interface Problem {
+  obs: TimeObservation[];
+  sourceDepthM: number;
+  intercept: boolean;
+}
+
+// ---------------------------------------------------------------- linear algebra (small, dense)
+
+function solveSpd(a: Float64Array, b: Float64Array, n: number): { x: Float64Array; inv: Float64Array } | null {
+  const l = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j <= i; j++) {
+      let s = a[i * n + j];
+      for (let k = 0; k < j; k++) s -= l[i * n + k] * l[j * n + k];
+      if (i === j) {
+        if (!(s > 1e-300)) return null;
+        l[i * n + i] = Math.sqrt(s);
+      } else l[i * n + j] = s / l[j * n + j];
+    }
+  }
+  const solve = (rhs: Float64Array) => {
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      let s = rhs[i];
+      for (let k = 0; k < i; k++) s -= l[i * n + k] * y[k];
+      y[i] = s / l[i * n + i];
+    }
+    const x = new Float64Array(n);
+    for (let i = n - 1; i >= 0; i--) {
+      let s = y[i];
+      for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
+      x[i] = s / l[i * n + i];
+    }
+    return x;
+  };
+  const inv = new Float64Array(n * n);
+  for (let j = 0; j < n; j++) {
+    const e = new Float64Array(n);
+    e[j] = 1;
+    const c = solve(e);
+    for (let i = 0; i < n; i++) inv[i * n + j] = c[i];
+  }
+  return { x: solve(b), inv };
+}
+
+// ---------------------------------------------------------------- the ray fit for fixed boundaries
+
+/** Path length of the ray to depth z inside each layer (tops sorted, first = source depth). */
+function pathsPerLayer(model: VelocityLayer[], sourceDepthM: number, z: number, offsetM: number): Float64Array {
+  const m = model.length;
+  const out = new Float64Array(m);
+  const ray = layeredRay(model, sourceDepthM, z, offsetM);
+  // segmentsBetween returns one segment per layer crossed, top to bottom
+  let k = 0;
+  for (let j = 0; j < m; j++) {
+    const top = j === 0 ? -Infinity : model[j].topM;
+    const bottom = j + 1 < m ? model[j + 1].topM : Infinity;
+    const h = Math.min(Math.max(z, sourceDepthM), bottom) - Math.max(Math.min(z, sourceDepthM), top);
+    if (h > 0) out[j] = ray.segmentPathM[k++] ?? 0;
+  }
+  if (ray.segmentPathM.length === 0) out[0] = Math.hypot(offsetM, z - sourceDepthM);
+  return out;
+}
+
+interface RawFit {
+  slowness: Float64Array;
+  interceptS: number | null;
+  cov: Float64Array;
+  chi2: number;
+  dof: number;
+  residualsS: number[];
+}
+
+function fitFixed(p: Problem, topsM: number[], maxIterations = 20, start?: Float64Array): RawFit | { reason: string } {
+  const m = topsM.length;
+  const useIntercept = p.intercept && p.obs.some((o) => o.depthAM === null);
+  const np = m + (useIntercept ? 1 : 0);
+  const n = p.obs.length;
+  if (n < np)
+    return {
+      reason: `${n} travel times cannot fix ${np} unknowns (${m} layers${useIntercept ? ' and the trigger offset' : ''})`,
+    };
+  // Start: the average vertical slowness of all observations.
+  let sum = 0;
+  let len = 0;
+  for (const o of p.obs) {
+    const za = o.depthAM ?? p.sourceDepthM;
+    sum += Math.abs(o.timeS);
+    len += Math.abs(o.depthBM - za);
+  }
+  let slowness = start && start.length === m ? start.slice() : new Float64Array(m).fill(len > 0 ? sum / len : 1 / 200);
+  let intercept = 0;
+  let last: RawFit | null = null;
+  for (let it = 0; it < maxIterations; it++) {
+    const model: VelocityLayer[] = topsM.map((t, j) => ({ topM: t, velocityMps: 1 / slowness[j] }));
+    const A = new Float64Array(n * np);
+    p.obs.forEach((o, i) => {
+      const pb = pathsPerLayer(model, p.sourceDepthM, o.depthBM, o.offsetM);
+      const pa = o.depthAM === null ? null : pathsPerLayer(model, p.sourceDepthM, o.depthAM, o.offsetM);
+      for (let j = 0; j < m; j++) A[i * np + j] = pb[j] - (pa ? pa[j] : 0);
+      if (useIntercept && o.depthAM === null) A[i * np + m] = 1;
+    });
+    const ata = new Float64Array(np * np);
+    const atb = new Float64Array(np);
+    p.obs.forEach((o, i) => {
+      const w = 1 / (o.sdS * o.sdS);
+      for (let a = 0; a < np; a++) {
+        const va = A[i * np + a];
+        if (va === 0) continue;
+        atb[a] += w * va * o.timeS;
+        for (let b = 0; b < np; b++) ata[a * np + b] += w * va * A[i * np + b];
+      }
+    });
+    const sol = solveSpd(ata, atb, np);
+    if (!sol) return { reason: 'the layers are not all crossed by the rays (a layer without receivers)' };
+    const next = sol.x.slice(0, m);
+    for (let j = 0; j < m; j++)
+      if (!(next[j] > 0))
+        return {
+          reason: `layer ${j + 1} (from ${topsM[j].toFixed(2)} m) would need a negative or infinite travel time: its times are out of order`,
+        };
+    let change = 0;
+    for (let j = 0; j < m; j++) change = Math.max(change, Math.abs(next[j] - slowness[j]) / slowness[j]);
+    slowness = next;
+    intercept = useIntercept ? sol.x[m] : 0;
+    // residuals with the solved slownesses on these paths (Fermat: first-order exact)
+    const residualsS = p.obs.map((o, i) => {
+      let t = useIntercept && o.depthAM === null ? intercept : 0;
+      for (let j = 0; j < m; j++) t += A[i * np + j] * slowness[j];
+      return o.timeS - t;
+    });
+    const chi2 = residualsS.reduce((s, r, i) => s + (r / p.obs[i].sdS) ** 2, 0);
+    last = { slowness, interceptS: useIntercept ? intercept : null, cov: sol.inv, chi2, dof: n - np, residualsS };
+    if (change < 1e-7) break;
+  }
+  return last!;
+}
+
+// ---------------------------------------------------------------- segmentation
+
+interface Point {
+  depthM: number;
+  timeS: number;
+  sdS: number;
+}
+
+/** Vertical reductions: each observation's time minus (ray time - vertical time) through the model. */
+function verticalReduced(p: Problem, topsM: number[], slowness: Float64Array | null): TimeObservation[] {
+  return p.obs.map((o) => {
+    const za = o.depthAM ?? p.sourceDepthM;
+    let corr: number;
+    if (!slowness) {
+      // straight rays at one velocity: vertical time = time x vertical / slant
+      const sb = Math.hypot(o.offsetM, o.depthBM - p.sourceDepthM);
+      const sa = Math.hypot(o.offsetM, za - p.sourceDepthM);
+      const vert = o.depthBM - za;
+      const slant = sb - sa;
+      return { ...o, timeS: slant > 0 ? (o.timeS * vert) / slant : o.timeS };
+    }
+    const model: VelocityLayer[] = topsM.map((t, j) => ({ topM: t, velocityMps: 1 / slowness[j] }));
+    const rb = layeredRay(model, p.sourceDepthM, o.depthBM, o.offsetM).timeS;
+    const vb = layeredRay(model, p.sourceDepthM, o.depthBM, 0).timeS;
+    corr = rb - vb;
+    if (o.depthAM !== null) {
+      const ra = layeredRay(model, p.sourceDepthM, o.depthAM, o.offsetM).timeS;
+      const va = layeredRay(model, p.sourceDepthM, o.depthAM, 0).timeS;
+      corr -= ra - va;
+    }
+    return { ...o, timeS: o.timeS - corr };
+  });
+}
+
+/**
+ * Exact optimal segmentation of the receivers into 1..maxLayers layers (dynamic programming), the
+ * number chosen by the penalised chi-square. Returns the index of the last receiver of each layer.
+ */
+export function segmentReceivers(
+  depthsM: number[],
+  obs: TimeObservation[],
+  o: { absolute: boolean; minThicknessM: number; penaltyScale: number; maxLayers: number },
+): { ends: number[]; chi2: number; bic: number } | null {
+  const n = depthsM.length;
+  if (n < 2) return null;
+  const idx = new Map(depthsM.map((z, i) => [z, i]));
+  // cost[i][j]: layer holding receivers i..j
+  const cost: number[][] = Array.from({ length: n }, () => new Array<number>(n).fill(Infinity));
+  const gapBelow = (j: number) => (j + 1 < n ? depthsM[j + 1] - depthsM[j] : 0);
+  const gapAbove = (i: number) => (i > 0 ? depthsM[i] - depthsM[i - 1] : 0);
+  for (let i = 0; i < n; i++) {
+    for (let j = i; j < n; j++) {
+      const thick = depthsM[j] - depthsM[i] + 0.5 * (gapAbove(i) + gapBelow(j));
+      if (thick + 1e-9 < o.minThicknessM && !(i === 0 && j === n - 1)) continue;
+      if (o.absolute) {
+        if (j - i < 1) continue;
+        // weighted straight-line fit t = a + s z over receivers i..j
+        let sw = 0;
+        let sz = 0;
+        let st = 0;
+        let szz = 0;
+        let szt = 0;
+        let stt = 0;
+        for (const ob of obs) {
+          const k = idx.get(ob.depthBM)!;
+          if (k < i || k > j) continue;
+          const w = 1 / (ob.sdS * ob.sdS);
+          sw += w;
+          sz += w * ob.depthBM;
+          st += w * ob.timeS;
+          szz += w * ob.depthBM * ob.depthBM;
+          szt += w * ob.depthBM * ob.timeS;
+          stt += w * ob.timeS * ob.timeS;
+        }
+        const det = sw * szz - sz * sz;
+        if (!(det > 0)) continue;
+        const s = (sw * szt - sz * st) / det;
+        const a = (st - s * sz) / sw;
+        cost[i][j] = Math.max(0, stt - 2 * a * st - 2 * s * szt + a * a * sw + 2 * a * s * sz + s * s * szz);
+      } else {
+        // one slowness for the differences wholly inside receivers i..j
+        let shh = 0;
+        let sht = 0;
+        let stt = 0;
+        let count = 0;
+        for (const ob of obs) {
+          const a = idx.get(ob.depthAM!)!;
+          const b = idx.get(ob.depthBM)!;
+          if (a < i || b > j) continue;
+          const w = 1 / (ob.sdS * ob.sdS);
+          const h = ob.depthBM - ob.depthAM!;
+          shh += w * h * h;
+          sht += w * h * ob.timeS;
+          stt += w * ob.timeS * ob.timeS;
+          count++;
+        }
+        if (!count) continue;
+        cost[i][j] = Math.max(0, stt - (sht * sht) / shh);
+      }
+    }
+  }
+  const maxK = Math.min(o.maxLayers, n);
+  // best[k][j]: min cost of receivers 0..j in k+1 layers; from[k][j]: start of the last layer
+  const best: number[][] = Array.from({ length: maxK }, () => new Array<number>(n).fill(Infinity));
+  const from: number[][] = Array.from({ length: maxK }, () => new Array<number>(n).fill(-1));
+  for (let j = 0; j < n; j++) best[0][j] = cost[0][j];
+  for (let k = 1; k < maxK; k++)
+    for (let j = 0; j < n; j++)
+      for (let i = 1; i <= j; i++) {
+        const c = best[k - 1][i - 1] + cost[i][j];
+        if (c < best[k][j]) {
+          best[k][j] = c;
+          from[k][j] = i;
+        }
+      }
+  const N = obs.length;
+  let choice = -1;
+  let bestBic = Infinity;
+  for (let k = 0; k < maxK; k++) {
+    if (!Number.isFinite(best[k][n - 1])) continue;
+    const params = o.absolute ? 2 * (k + 1) : 2 * (k + 1) - 1;
+    const bic = best[k][n - 1] + o.penaltyScale * params * Math.log(Math.max(N, 2));
+    if (bic < bestBic - 1e-9) {
+      bestBic = bic;
+      choice = k;
+    }
+  }
+  if (choice < 0) return null;
+  const ends: number[] = [];
+  let j = n - 1;
+  for (let k = choice; k >= 0; k--) {
+    ends.unshift(j);
+    j = k > 0 ? from[k][j] - 1 : -1;
+  }
+  return { ends, chi2: best[choice][n - 1], bic: bestBic };
+}
+
+function chi2Of(p: Problem, tops: number[], start?: Float64Array): number {
+  const f = fitFixed(p, tops, 20, start);
+  return 'reason' in f ? Infinity : f.chi2;
+}
+
+/** Places each boundary inside its gap by golden-section search of the ray-fit chi-square. */
+function refineBoundaries(p: Problem, tops: number[], gaps: [number, number][]): number[] {
+  const out = [...tops];
+  const r = (Math.sqrt(5) - 1) / 2;
+  const first = fitFixed(p, out);
+  const start = 'reason' in first ? undefined : first.slowness;
+  // coordinate descent: sweeps over the boundaries until none moves by more than 1 mm
+  for (let sweep = 0, moved = Infinity; sweep < 8 && moved > 1e-3; sweep++) {
+    moved = 0;
+    for (let b = 1; b < out.length; b++) {
+      let [lo, hi] = gaps[b - 1];
+      const at = (z: number) => {
+        const t = [...out];
+        t[b] = z;
+        return chi2Of(p, t, start);
+      };
+      let x1 = hi - r * (hi - lo);
+      let x2 = lo + r * (hi - lo);
+      let f1 = at(x1);
+      let f2 = at(x2);
+      for (let it = 0; it < 22; it++) {
+        if (f1 <= f2) {
+          hi = x2;
+          x2 = x1;
+          f2 = f1;
+          x1 = hi - r * (hi - lo);
+          f1 = at(x1);
+        } else {
+          lo = x1;
+          x1 = x2;
+          f1 = f2;
+          x2 = lo + r * (hi - lo);
+          f2 = at(x2);
+        }
+      }
+      moved = Math.max(moved, Math.abs(out[b] - 0.5 * (lo + hi)));
+      out[b] = 0.5 * (lo + hi);
+    }
+  }
+  return out;
+}
+
+function finish(p: Problem, tops: number[], gaps: [number, number][], bic: number, notes: string[]): LayeringResult {
+  const f = fitFixed(p, tops);
+  if ('reason' in f) return { ok: false, reason: f.reason };
+  const m = tops.length;
+  const np = f.cov.length === m * m ? m : m + 1;
+  const scale = f.dof > 0 ? Math.max(1, f.chi2 / f.dof) : 1;
+  const cov: number[] = [];
+  for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) cov.push(f.cov[a * np + b] * scale);
+  const depths = p.obs.map((o) => o.depthBM);
+  const deepest = Math.max(...depths);
+  const layers: FittedLayer[] = tops.map((t, j) => {
+    const bottom = j + 1 < m ? tops[j + 1] : deepest;
+    const s = f.slowness[j];
+    return {
+      topM: t,
+      bottomM: bottom,
+      vsMps: 1 / s,
+      vsSdMps: Math.sqrt(Math.max(0, cov[j * m + j])) / (s * s),
+      receivers: new Set(depths.filter((z) => z > t && (j + 1 >= m || z <= tops[j + 1]))).size,
+    };
+  });
+  const interceptSd = f.interceptS === null ? null : Math.sqrt(f.cov[m * np + m] * scale);
+  if (f.interceptS !== null && interceptSd !== null)
+    notes.push(
+      `trigger offset absorbed: fitted common intercept ${(f.interceptS * 1000).toFixed(3)} ± ${(interceptSd * 1000).toFixed(3)} ms`,
+    );
+  return {
+    ok: true,
+    fit: {
+      layers,
+      slownessCovariance: cov,
+      boundarySdM: gaps.map(([lo, hi]) => (hi - lo) / Math.sqrt(12)),
+      interceptS: f.interceptS,
+      chi2: f.chi2,
+      dof: f.dof,
+      rmsMisfitS: Math.sqrt(f.residualsS.reduce((s, r) => s + r * r, 0) / f.residualsS.length),
+      residualsS: f.residualsS,
+      bic,
+      notes,
+    },
+  };
+}
+
+/** The layered S model from travel times: boundaries automatic or the user's, per-layer Vs and sd. */
+export function fitLayering(observations: TimeObservation[], o: LayeringOptions): LayeringResult {
+  const obs = observations.filter((x) => Number.isFinite(x.timeS) && x.sdS > 0);
+  const dropped = observations.length - obs.length;
+  const notes: string[] = dropped ? [`${dropped} travel times without a value or sd left out`] : [];
+  if (obs.length < 2) return { ok: false, reason: `only ${obs.length} usable travel times (2 or more needed)` };
+  const absolute = obs.every((x) => x.depthAM === null);
+  const differences = obs.every((x) => x.depthAM !== null);
+  if (!absolute && !differences)
+    return { ok: false, reason: 'absolute times and two-receiver differences cannot be mixed in one fit' };
+  const p: Problem = { obs, sourceDepthM: o.sourceDepthM, intercept: o.intercept };
+  const depthsM = [...new Set(obs.flatMap((x) => (x.depthAM === null ? [x.depthBM] : [x.depthAM, x.depthBM])))].sort(
+    (a, b) => a - b,
+  );
+  const top0 = o.sourceDepthM;
+  const gapOf = (z: number): [number, number] => {
+    let lo = top0;
+    let hi = depthsM[depthsM.length - 1];
+    for (const d of depthsM) {
+      if (d <= z) lo = d;
+      else {
+        hi = d;
+        break;
+      }
+    }
+    return [lo, hi];
+  };
+  if (o.mode === 'user') {
+    const wanted = [...new Set(o.boundariesM ?? [])].sort((a, b) => a - b);
+    const tops = [top0];
+    for (const b of wanted) {
+      if (!(b > top0) || b >= depthsM[depthsM.length - 1]) {
+        notes.push(`boundary at ${b} m ignored: outside the receivers (${top0}-${depthsM[depthsM.length - 1]} m)`);
+        continue;
+      }
+      const prev = tops[tops.length - 1];
+      if (!depthsM.some((z) => z > prev && z <= b)) {
+        notes.push(`boundary at ${b} m merged with the one above: no receiver between them`);
+        continue;
+      }
+      tops.push(b);
+    }
+    const gaps = tops.slice(1).map(gapOf);
+    return finish(p, tops, gaps, NaN, notes);
+  }
+  // auto: segmentation on vertical reductions, repeated until the layering is stable
+  let tops = [top0];
+  let slowness: Float64Array | null = null;
+  let bic = NaN;
+  let gaps: [number, number][] = [];
+  let previous = '';
+  for (let pass = 0; pass < 4; pass++) {
+    const reduced = verticalReduced(p, tops, slowness);
+    const seg = segmentReceivers(depthsM, reduced, {
+      absolute,
+      minThicknessM: o.minThicknessM,
+      penaltyScale: o.penaltyScale ?? 1,
+      maxLayers: o.maxLayers ?? 12,
+    });
+    if (!seg) return { ok: false, reason: 'too few receivers for a layering' };
+    bic = seg.bic;
+    gaps = seg.ends.slice(0, -1).map((e) => [depthsM[e], depthsM[e + 1]] as [number, number]);
+    const signature = seg.ends.join(',');
+    tops = [top0, ...gaps.map(([lo, hi]) => 0.5 * (lo + hi))];
+    tops = refineBoundaries(p, tops, gaps);
+    const f = fitFixed(p, tops);
+    if ('reason' in f) return { ok: false, reason: f.reason };
+    slowness = f.slowness;
+    if (signature === previous) break;
+    previous = signature;
+  }
+  return finish(p, tops, gaps, bic, notes);
+}
+
+/**
+ * An interval's Vs from the layered model: length / vertical time through the fitted layers, with sd
+ * from the slowness covariance and the spread of any boundary inside the interval.
+ */
+export function layerIntervalVs(fit: LayeredFit, topM: number, bottomM: number): { vsMps: number; vsSdMps: number } {
+  const m = fit.layers.length;
+  const h = new Array<number>(m).fill(0);
+  fit.layers.forEach((l, j) => {
+    const lt = j === 0 ? -Infinity : l.topM;
+    const lb = j + 1 < m ? fit.layers[j + 1].topM : Infinity;
+    h[j] = Math.max(0, Math.min(bottomM, lb) - Math.max(topM, lt));
+  });
+  let t = 0;
+  for (let j = 0; j < m; j++) t += h[j] / fit.layers[j].vsMps;
+  let varT = 0;
+  for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) varT += h[a] * h[b] * fit.slownessCovariance[a * m + b];
+  // a boundary inside the interval: dT/dz = s_above - s_below
+  for (let j = 1; j < m; j++) {
+    const z = fit.layers[j].topM;
+    if (z > topM && z < bottomM) {
+      const ds = 1 / fit.layers[j - 1].vsMps - 1 / fit.layers[j].vsMps;
+      varT += (ds * fit.boundarySdM[j - 1]) ** 2;
+    }
+  }
+  const len = bottomM - topM;
+  const v = len / t;
+  return { vsMps: v, vsSdMps: (len * Math.sqrt(varT)) / (t * t) };
+}
