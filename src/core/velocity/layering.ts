@@ -47,6 +47,8 @@ export interface LayeringOptions {
   /** Multiplies the BIC penalty k ln N (1 = BIC). */
   penaltyScale?: number;
   maxLayers?: number;
+  /** Final coordinate-descent search of the boundaries on the ray-fit misfit (slower). */
+  refine?: boolean;
 }
 
 export interface FittedLayer {
@@ -216,12 +218,6 @@ function fitFixed(p: Problem, topsM: number[], maxIterations = 20, start?: Float
 
 // ---------------------------------------------------------------- segmentation
 
-interface Point {
-  depthM: number;
-  timeS: number;
-  sdS: number;
-}
-
 /** Vertical reductions: each observation's time minus (ray time - vertical time) through the model. */
 function verticalReduced(p: Problem, topsM: number[], slowness: Float64Array | null): TimeObservation[] {
   return p.obs.map((o) => {
@@ -256,12 +252,15 @@ export function segmentReceivers(
   depthsM: number[],
   obs: TimeObservation[],
   o: { absolute: boolean; minThicknessM: number; penaltyScale: number; maxLayers: number },
-): { ends: number[]; chi2: number; bic: number } | null {
+): { ends: number[]; lines: { interceptS: number; slownessSpM: number }[]; chi2: number; bic: number } | null {
   const n = depthsM.length;
   if (n < 2) return null;
   const idx = new Map(depthsM.map((z, i) => [z, i]));
   // cost[i][j]: layer holding receivers i..j
   const cost: number[][] = Array.from({ length: n }, () => new Array<number>(n).fill(Infinity));
+  // fitted line of each candidate layer: t = intercept + slowness z (differences: slowness only)
+  const slopeOf: number[][] = Array.from({ length: n }, () => new Array<number>(n).fill(NaN));
+  const interceptOf: number[][] = Array.from({ length: n }, () => new Array<number>(n).fill(0));
   const gapBelow = (j: number) => (j + 1 < n ? depthsM[j + 1] - depthsM[j] : 0);
   const gapAbove = (i: number) => (i > 0 ? depthsM[i] - depthsM[i - 1] : 0);
   for (let i = 0; i < n; i++) {
@@ -293,6 +292,8 @@ export function segmentReceivers(
         const s = (sw * szt - sz * st) / det;
         const a = (st - s * sz) / sw;
         cost[i][j] = Math.max(0, stt - 2 * a * st - 2 * s * szt + a * a * sw + 2 * a * s * sz + s * s * szz);
+        slopeOf[i][j] = s;
+        interceptOf[i][j] = a;
       } else {
         // one slowness for the differences wholly inside receivers i..j
         let shh = 0;
@@ -312,6 +313,7 @@ export function segmentReceivers(
         }
         if (!count) continue;
         cost[i][j] = Math.max(0, stt - (sht * sht) / shh);
+        slopeOf[i][j] = sht / shh;
       }
     }
   }
@@ -348,7 +350,42 @@ export function segmentReceivers(
     ends.unshift(j);
     j = k > 0 ? from[k][j] - 1 : -1;
   }
-  return { ends, chi2: best[choice][n - 1], bic: bestBic };
+  const lines = ends.map((e, k) => {
+    const start = k === 0 ? 0 : ends[k - 1] + 1;
+    return { interceptS: interceptOf[start][e], slownessSpM: slopeOf[start][e] };
+  });
+  return { ends, lines, chi2: best[choice][n - 1], bic: bestBic };
+}
+
+/**
+ * Each boundary inside its gap, from the layers' lines on the vertically reduced times: where the
+ * lines of the layers above and below cross (absolute times), or where the one difference that
+ * straddles the gap is matched by the two slownesses (two receivers); the gap's middle otherwise.
+ */
+function placeBoundaries(
+  reduced: TimeObservation[],
+  gaps: [number, number][],
+  lines: { interceptS: number; slownessSpM: number }[],
+  absolute: boolean,
+): number[] {
+  return gaps.map(([lo, hi], b) => {
+    const up = lines[b];
+    const down = lines[b + 1];
+    const ds = up.slownessSpM - down.slownessSpM;
+    let z = 0.5 * (lo + hi);
+    if (Math.abs(ds) > 1e-12) {
+      if (absolute) z = (down.interceptS - up.interceptS) / ds;
+      else {
+        const o = reduced.find((x) => x.depthAM !== null && x.depthAM <= lo + 1e-9 && x.depthBM >= hi - 1e-9);
+        if (o) {
+          const a = o.depthAM!;
+          const g = o.depthBM - a;
+          z = a + (o.timeS - g * down.slownessSpM) / ds;
+        }
+      }
+    }
+    return Math.min(hi, Math.max(lo, Number.isFinite(z) ? z : 0.5 * (lo + hi)));
+  });
 }
 
 function chi2Of(p: Problem, tops: number[], start?: Float64Array): number {
@@ -492,7 +529,7 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
   let bic = NaN;
   let gaps: [number, number][] = [];
   let previous = '';
-  for (let pass = 0; pass < 4; pass++) {
+  for (let pass = 0; pass < 12; pass++) {
     const reduced = verticalReduced(p, tops, slowness);
     const seg = segmentReceivers(depthsM, reduced, {
       absolute,
@@ -503,15 +540,17 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
     if (!seg) return { ok: false, reason: 'too few receivers for a layering' };
     bic = seg.bic;
     gaps = seg.ends.slice(0, -1).map((e) => [depthsM[e], depthsM[e + 1]] as [number, number]);
+    const next = [top0, ...placeBoundaries(reduced, gaps, seg.lines, absolute)];
     const signature = seg.ends.join(',');
-    tops = [top0, ...gaps.map(([lo, hi]) => 0.5 * (lo + hi))];
-    tops = refineBoundaries(p, tops, gaps);
-    const f = fitFixed(p, tops);
+    const moved = signature === previous ? Math.max(...next.map((z, k) => Math.abs(z - tops[k]))) : Infinity;
+    tops = next;
+    const f = fitFixed(p, tops, 20, signature === previous ? (slowness ?? undefined) : undefined);
     if ('reason' in f) return { ok: false, reason: f.reason };
     slowness = f.slowness;
-    if (signature === previous) break;
+    if (moved < 1e-4) break;
     previous = signature;
   }
+  if (o.refine) tops = refineBoundaries(p, tops, gaps);
   return finish(p, tops, gaps, bic, notes);
 }
 

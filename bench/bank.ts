@@ -1,0 +1,365 @@
+/**
+ * The bank of random layered earths (src/core/synth/randomEarth.ts): per test kind, surveys on
+ * training seeds (to choose defaults and tune) and held-out seeds (the figures reported). Each survey
+ * runs the whole pipeline with default settings; every S interval by every method is compared with the
+ * truth: the interval length over the true vertical travel time (docs/true-vs.md), and also with the
+ * velocity an onset measures (noise-free attenuated pulse, first reaching 1% of its peak).
+ *
+ * The layered-model method ('layer-model') is computed here from the pipeline's picks and delays with
+ * src/core/velocity/layering.ts until the pipeline carries it.
+ */
+import type { WaveRecord } from '../src/core/model';
+import { autoPick, derive, prepare } from '../src/core/pipeline';
+import { defaultSettings, emptyEdits } from '../src/core/settings';
+import { demoCrossholeHoles, synthesizeSurvey, type SynthGeometry, type SynthOptions } from '../src/core/synth';
+import { trueVsAt } from '../src/core/synth/earth';
+import { renderArrival } from '../src/core/synth/pulse';
+import { randomEarth, trueIntervalVsMps, verticalTimeS, verticalTStarS } from '../src/core/synth/randomEarth';
+import type { EarthModel } from '../src/core/synth/earth';
+import { fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
+
+export type BankKind = 'one-receiver' | 'two-receiver' | 'cone-0.5m' | 'crosshole';
+export const BANK_KINDS: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m', 'crosshole'];
+
+/** Prior sd of a per-hit trigger offset uniform on 0-0.5 ms: 0.5 / sqrt(12) ms. */
+export const TRIGGER_OFFSET_SD_S = 0.5e-3 / Math.sqrt(12);
+const MAX_TRIGGER_OFFSET_S = 0.5e-3;
+
+export interface LayerModelTuning {
+  /** Multiplier of the BIC penalty. */
+  penaltyScale: number;
+  minThicknessM: number;
+  /** One-receiver surveys: absolute times from the onset picks or first onset + cumulative xcorr delays. */
+  timeSource: 'onset' | 'xcorr';
+  /** Floor on the sd of one time or delay, s (pick sds can be optimistic). */
+  sdFloorS: number;
+}
+
+export const DEFAULT_TUNING: LayerModelTuning = {
+  penaltyScale: 1,
+  minThicknessM: 1,
+  timeSource: 'onset',
+  sdFloorS: 5e-5,
+};
+
+export interface IntervalResult {
+  method: string;
+  topM: number;
+  bottomM: number;
+  vsMps: number;
+  sdMps: number | null;
+  trueVsMps: number;
+  onsetVsMps: number | null;
+}
+
+interface Case {
+  kind: BankKind;
+  seed: number;
+  model: EarthModel;
+  geometry: SynthGeometry;
+  options: SynthOptions;
+}
+
+function grid(a: number, b: number, step: number): number[] {
+  return Array.from({ length: Math.round((b - a) / step) + 1 }, (_, i) => Math.round((a + i * step) * 1000) / 1000);
+}
+
+export function bankCase(kind: BankKind, seed: number): Case {
+  const step = kind === 'cone-0.5m' ? 0.5 : 1;
+  const depthM = kind === 'cone-0.5m' ? 20 : kind === 'crosshole' ? 20 : 25;
+  const earth = randomEarth(seed * 7 + BANK_KINDS.indexOf(kind), { depthM, gridStepM: step });
+  const rot = ((seed * 37) % 60) / 100 - 0.3; // fixed probe azimuth per survey, -0.3..0.3 rad
+  const common = {
+    seed,
+    attenuation: true,
+    snr: 25,
+    maxTriggerDelayS: MAX_TRIGGER_OFFSET_S,
+    pToSRatio: 0.2,
+    receiverRotationRad: rot,
+    receiverTiltRad: 0.05,
+  };
+  const offset = 2 + ((seed * 13) % 6) / 10; // 2.0-2.5 m
+  let geometry: SynthGeometry;
+  let options: SynthOptions;
+  if (kind === 'crosshole') {
+    geometry = { kind: 'crosshole', holes: demoCrossholeHoles(), depthsM: grid(1, depthM, 1) };
+    options = {
+      ...common,
+      sampleIntervalS: 2.5e-5,
+      samplesPerTrace: 3072,
+      firstSampleS: -0.001,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1500,
+    };
+  } else {
+    geometry =
+      kind === 'two-receiver'
+        ? {
+            kind: 'downhole-pair',
+            holeId: 'DH1',
+            upperDepthsM: grid(1, depthM - 1, 1),
+            receiverSpacingM: 1,
+            sourceOffsetM: offset,
+          }
+        : // The cone is run as a one-receiver survey at 0.5 m steps (receiver depths; the tip lies coneOffsetM below).
+          { kind: 'downhole', holeId: 'DH1', depthsM: grid(1, depthM, step), sourceOffsetM: offset };
+    options = { ...common, sampleIntervalS: 1e-4, samplesPerTrace: 4096, sFrequencyHz: 100, pFrequencyHz: 400 };
+  }
+  return { kind, seed, model: earth.model, geometry, options };
+}
+
+/** Onset of the noise-free pulse after a vertical path to depth z: first time it reaches 1% of its peak. */
+function onsetTimeS(model: EarthModel, z: number, fHz: number): number {
+  const tR = verticalTimeS(model, 0, z);
+  const tStar = verticalTStarS(model, 0, z);
+  const dt = 1e-5;
+  const n = 4096;
+  const first = tR - 0.005;
+  const w = renderArrival(n, dt, first, {
+    arrivalS: tR,
+    frequencyHz: fHz,
+    attenuation: tStar > 0 ? { travelTimeS: tR, q: tR / tStar, referenceHz: fHz } : null,
+  });
+  let peak = 0;
+  for (const x of w) peak = Math.max(peak, Math.abs(x));
+  for (let i = 0; i < n; i++) if (Math.abs(w[i]) >= 0.01 * peak) return first + i * dt;
+  return tR;
+}
+
+function recordsMap(rs: WaveRecord[]): Map<string, WaveRecord> {
+  return new Map(rs.map((r) => [r.id, r]));
+}
+
+export interface SurveyRun {
+  kind: BankKind;
+  seed: number;
+  intervals: IntervalResult[];
+  layerModelNote: string | null;
+  layers: number | null;
+}
+
+/** A survey run through the pipeline once; the layered model is evaluated on it for each tuning. */
+export interface PreparedCase {
+  c: Case;
+  stations: ReturnType<typeof prepare>['stations'];
+  derived: ReturnType<typeof derive>;
+  perMethod: IntervalResult[];
+  truthOf: (top: number, bottom: number) => number;
+  onsetTruth: (top: number, bottom: number) => number | null;
+}
+
+export function prepareCase(c: Case): PreparedCase {
+  const res = synthesizeSurvey(c.model, c.geometry, c.options);
+  const settings = defaultSettings();
+  const prep = prepare(res.survey, recordsMap(res.records), settings);
+  const auto = autoPick(prep, settings);
+  const d = derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false });
+  const onsetCache = new Map<number, number>();
+  const onsetAt = (z: number) => {
+    let t = onsetCache.get(z);
+    if (t === undefined) {
+      t = onsetTimeS(c.model, z, c.options.sFrequencyHz);
+      onsetCache.set(z, t);
+    }
+    return t;
+  };
+  const truthOf = (top: number, bottom: number) =>
+    c.kind === 'crosshole' ? trueVsAt(c.model, top) : trueIntervalVsMps(c.model, top, bottom);
+  const onsetTruth = (top: number, bottom: number) =>
+    c.kind === 'crosshole' ? null : (bottom - top) / (onsetAt(bottom) - onsetAt(top));
+  const perMethod: IntervalResult[] = [];
+  for (const r of d.intervals) {
+    if (r.wave !== 'S' || r.velocityMps === null) continue;
+    perMethod.push({
+      method: r.method,
+      topM: r.topM,
+      bottomM: r.bottomM,
+      vsMps: r.velocityMps,
+      sdMps: r.velocitySdMps,
+      trueVsMps: truthOf(r.topM, r.bottomM),
+      onsetVsMps: onsetTruth(r.topM, r.bottomM),
+    });
+  }
+  return { c, stations: prep.stations, derived: d, perMethod, truthOf, onsetTruth };
+}
+
+/** The layered-model intervals of a prepared survey for one tuning. */
+export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyRun {
+  const { c, derived: d } = p;
+  const out = [...p.perMethod];
+  let note: string | null = null;
+  let layers: number | null = null;
+  if (c.kind !== 'crosshole') {
+    const obs = layerObservations(c, p.stations, d, tuning);
+    const fit = fitLayering(obs, {
+      sourceDepthM: 0,
+      mode: 'auto',
+      minThicknessM: tuning.minThicknessM,
+      intercept: true,
+      penaltyScale: tuning.penaltyScale,
+    });
+    if (!fit.ok) note = fit.reason;
+    else {
+      layers = fit.fit.layers.length;
+      const keys = new Set<string>();
+      for (const r of d.intervals) {
+        if (r.wave !== 'S') continue;
+        const k = `${r.topM}|${r.bottomM}`;
+        if (keys.has(k)) continue;
+        keys.add(k);
+        const v = layerIntervalVs(fit.fit, r.topM, r.bottomM);
+        out.push({
+          method: 'layer-model',
+          topM: r.topM,
+          bottomM: r.bottomM,
+          vsMps: v.vsMps,
+          sdMps: v.vsSdMps,
+          trueVsMps: p.truthOf(r.topM, r.bottomM),
+          onsetVsMps: p.onsetTruth(r.topM, r.bottomM),
+        });
+      }
+    }
+  }
+  return { kind: c.kind, seed: c.seed, intervals: out, layerModelNote: note, layers };
+}
+
+export function runCase(c: Case, tuning: LayerModelTuning): SurveyRun {
+  return evaluateCase(prepareCase(c), tuning);
+}
+
+type Derived = ReturnType<typeof derive>;
+type Stations = ReturnType<typeof prepare>['stations'];
+
+function layerObservations(c: Case, stations: Stations, d: Derived, t: LayerModelTuning): TimeObservation[] {
+  const sStations = new Map(stations.filter((s) => s.wave === 'S').map((s) => [s.key, s]));
+  const offsetOf = (key: string) => {
+    const s = sStations.get(key)!;
+    return Math.hypot(s.receiverPos[0] - s.sourcePos[0], s.receiverPos[1] - s.sourcePos[1]);
+  };
+  const depthOf = (key: string) => sStations.get(key)!.receiverPos[2];
+  if (c.kind === 'two-receiver') {
+    const obs: TimeObservation[] = [];
+    for (const iv of d.intervals) {
+      if (iv.wave !== 'S' || iv.method !== 'xcorr' || iv.dtS === null) continue;
+      const delay = d.delays.find((x) => x.pairKey === iv.key && x.method === 'xcorr');
+      obs.push({
+        depthAM: depthOf(iv.stationA),
+        depthBM: depthOf(iv.stationB),
+        offsetM: offsetOf(iv.stationB),
+        timeS: iv.dtS,
+        sdS: Math.hypot(delay?.uncertaintyS ?? 0, t.sdFloorS),
+      });
+    }
+    return obs;
+  }
+  // one receiver per hit: absolute times with the per-hit trigger offset as a prior (its mean is the fitted intercept)
+  const onsets = new Map<string, { timeS: number; sdS: number }>();
+  for (const p of d.picks)
+    if (p.wave === 'S' && (p.method === 'aic' || p.method === 'stalta') && p.origin !== 'excluded')
+      onsets.set(p.stationKey, { timeS: p.timeS, sdS: p.uncertaintyS });
+  const keys = [...sStations.keys()].sort((a, b) => depthOf(a) - depthOf(b));
+  const obs: TimeObservation[] = [];
+  if (t.timeSource === 'onset') {
+    for (const k of keys) {
+      const o = onsets.get(k);
+      if (!o) continue;
+      obs.push({
+        depthAM: null,
+        depthBM: depthOf(k),
+        offsetM: offsetOf(k),
+        timeS: o.timeS,
+        sdS: Math.hypot(o.sdS, TRIGGER_OFFSET_SD_S, t.sdFloorS),
+      });
+    }
+    return obs;
+  }
+  // first onset + cumulative xcorr delays
+  const delayInto = new Map<string, { delayS: number; sdS: number }>();
+  for (const iv of d.intervals)
+    if (iv.wave === 'S' && iv.method === 'xcorr' && iv.dtS !== null) {
+      const delay = d.delays.find((x) => x.pairKey === iv.key && x.method === 'xcorr');
+      delayInto.set(iv.stationB, { delayS: iv.dtS, sdS: delay?.uncertaintyS ?? 0 });
+    }
+  let time: number | null = null;
+  for (const k of keys) {
+    if (time === null) {
+      const o = onsets.get(k);
+      if (o) time = o.timeS;
+    } else {
+      const dl = delayInto.get(k);
+      if (!dl) break;
+      time += dl.delayS;
+    }
+    if (time !== null)
+      obs.push({
+        depthAM: null,
+        depthBM: depthOf(k),
+        offsetM: offsetOf(k),
+        timeS: time,
+        sdS: Math.hypot(TRIGGER_OFFSET_SD_S, t.sdFloorS),
+      });
+  }
+  return obs;
+}
+
+// ---------------------------------------------------------------- figures
+
+function quantile(xs: number[], q: number): number {
+  if (!xs.length) return NaN;
+  const s = [...xs].sort((a, b) => a - b);
+  const pos = (s.length - 1) * q;
+  const lo = Math.floor(pos);
+  const hi = Math.ceil(pos);
+  return s[lo] + (s[hi] - s[lo]) * (pos - lo);
+}
+
+export interface MethodFigures {
+  n: number;
+  medianErrPct: number;
+  p90ErrPct: number;
+  /** Against the velocity an onset measures. */
+  medianErrVsOnsetPct: number | null;
+  within1Sd: number | null;
+  within2Sd: number | null;
+}
+
+export function figures(runs: SurveyRun[]): Record<string, MethodFigures> {
+  const by = new Map<string, IntervalResult[]>();
+  for (const r of runs) for (const iv of r.intervals) by.set(iv.method, [...(by.get(iv.method) ?? []), iv]);
+  const out: Record<string, MethodFigures> = {};
+  for (const [m, ivs] of by) {
+    const err = ivs.map((iv) => (100 * Math.abs(iv.vsMps - iv.trueVsMps)) / iv.trueVsMps);
+    const errOn = ivs
+      .filter((iv) => iv.onsetVsMps !== null)
+      .map((iv) => (100 * Math.abs(iv.vsMps - iv.onsetVsMps!)) / iv.onsetVsMps!);
+    const withSd = ivs.filter((iv) => iv.sdMps !== null && iv.sdMps > 0);
+    const share = (k: number) =>
+      withSd.length ? withSd.filter((iv) => Math.abs(iv.vsMps - iv.trueVsMps) <= k * iv.sdMps!).length / withSd.length : null;
+    const r3 = (x: number) => Math.round(x * 1000) / 1000;
+    out[m] = {
+      n: ivs.length,
+      medianErrPct: r3(quantile(err, 0.5)),
+      p90ErrPct: r3(quantile(err, 0.9)),
+      medianErrVsOnsetPct: errOn.length ? r3(quantile(errOn, 0.5)) : null,
+      within1Sd: share(1) === null ? null : r3(share(1)!),
+      within2Sd: share(2) === null ? null : r3(share(2)!),
+    };
+  }
+  return out;
+}
+
+export function seeds(split: 'training' | 'held-out', count: number): number[] {
+  const base = split === 'training' ? 1000 : 5000;
+  return Array.from({ length: count }, (_, i) => base + i);
+}
+
+export function runBank(
+  kinds: BankKind[],
+  split: 'training' | 'held-out',
+  count: number,
+  tuning: LayerModelTuning,
+): Record<string, SurveyRun[]> {
+  const out: Record<string, SurveyRun[]> = {};
+  for (const k of kinds) out[k] = seeds(split, count).map((s) => runCase(bankCase(k, s), tuning));
+  return out;
+}
