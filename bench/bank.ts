@@ -16,7 +16,7 @@ import { trueVsAt } from '../src/core/synth/earth';
 import { renderArrival } from '../src/core/synth/pulse';
 import { randomEarth, trueIntervalVsMps, verticalTimeS, verticalTStarS } from '../src/core/synth/randomEarth';
 import type { EarthModel } from '../src/core/synth/earth';
-import { fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
+import { blendIntervals, fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
 
 export type BankKind = 'one-receiver' | 'two-receiver' | 'cone-0.5m' | 'crosshole';
 export const BANK_KINDS: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m', 'crosshole'];
@@ -56,6 +56,8 @@ interface Case {
   kind: BankKind;
   seed: number;
   model: EarthModel;
+  /** Drawn layer boundaries (gradient sub-layers not counted), m. */
+  boundariesM: number[];
   geometry: SynthGeometry;
   options: SynthOptions;
 }
@@ -105,7 +107,7 @@ export function bankCase(kind: BankKind, seed: number): Case {
           { kind: 'downhole', holeId: 'DH1', depthsM: grid(1, depthM, step), sourceOffsetM: offset };
     options = { ...common, sampleIntervalS: 1e-4, samplesPerTrace: 4096, sFrequencyHz: 100, pFrequencyHz: 400 };
   }
-  return { kind, seed, model: earth.model, geometry, options };
+  return { kind, seed, model: earth.model, boundariesM: earth.boundariesM, geometry, options };
 }
 
 /** Onset of the noise-free pulse after a vertical path to depth z: first time it reaches 1% of its peak. */
@@ -201,23 +203,37 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
     if (!fit.ok) note = fit.reason;
     else {
       layers = fit.fit.layers.length;
-      const keys = new Set<string>();
-      for (const r of d.intervals) {
-        if (r.wave !== 'S') continue;
-        const k = `${r.topM}|${r.bottomM}`;
-        if (keys.has(k)) continue;
-        keys.add(k);
-        const v = layerIntervalVs(fit.fit, r.topM, r.bottomM);
-        out.push({
-          method: 'layer-model',
+      const rows = d.intervals.filter((r) => r.wave === 'S' && r.method === 'xcorr');
+      const lm = rows.map((r) => layerIntervalVs(fit.fit, r.topM, r.bottomM));
+      // the interval's own correlation delay; one receiver per hit: its sd includes both hits' trigger offsets
+      const pseudo = c.kind !== 'two-receiver';
+      const own = rows.map((r) => {
+        if (r.velocityMps === null || r.velocitySdMps === null) return { v: null, sd: null };
+        const len = r.pathBM - r.pathAM;
+        const trig = pseudo ? (r.velocityMps * r.velocityMps * Math.SQRT2 * TRIGGER_OFFSET_SD_S) / len : 0;
+        const floor = (r.velocityMps * r.velocityMps * tuning.sdFloorS) / len;
+        return { v: r.velocityMps, sd: Math.hypot(r.velocitySdMps, trig, floor) };
+      });
+      const blend = blendIntervals(
+        rows.map((r, i) => ({
           topM: r.topM,
           bottomM: r.bottomM,
-          vsMps: v.vsMps,
-          sdMps: v.vsSdMps,
+          layerVsMps: lm[i].vsMps,
+          layerSdMps: lm[i].vsSdMps,
+          ownVsMps: own[i].v,
+          ownSdMps: own[i].sd,
+        })),
+      );
+      rows.forEach((r, i) => {
+        const base = {
+          topM: r.topM,
+          bottomM: r.bottomM,
           trueVsMps: p.truthOf(r.topM, r.bottomM),
           onsetVsMps: p.onsetTruth(r.topM, r.bottomM),
-        });
-      }
+        };
+        out.push({ ...base, method: 'layer-model', vsMps: lm[i].vsMps, sdMps: lm[i].vsSdMps });
+        out.push({ ...base, method: 'layer-blend', vsMps: blend[i].vsMps, sdMps: blend[i].vsSdMps });
+      });
     }
   }
   return { kind: c.kind, seed: c.seed, intervals: out, layerModelNote: note, layers };

@@ -47,6 +47,8 @@ export interface LayeringOptions {
   /** Multiplies the BIC penalty k ln N (1 = BIC). */
   penaltyScale?: number;
   maxLayers?: number;
+  /** Let boundaries move to a neighbouring gap when the continuous ray fit prefers it (default on). */
+  hop?: boolean;
   /** Final coordinate-descent search of the boundaries on the ray-fit misfit (slower). */
   refine?: boolean;
 }
@@ -388,9 +390,56 @@ function placeBoundaries(
   });
 }
 
-function chi2Of(p: Problem, tops: number[], start?: Float64Array): number {
-  const f = fitFixed(p, tops, 20, start);
+function chi2Of(p: Problem, tops: number[], start?: Float64Array, maxIterations = 20): number {
+  const f = fitFixed(p, tops, maxIterations, start);
   return 'reason' in f ? Infinity : f.chi2;
+}
+
+/**
+ * The segmentation's cost lets each layer's line start afresh; the ray fit makes travel time
+ * continuous across a boundary. So each boundary may move to the neighbouring gap, or within its gap,
+ * when that lowers the ray-fit chi-square (coordinate descent over the boundaries, a few sweeps).
+ */
+function hopBoundaries(
+  p: Problem,
+  tops: number[],
+  gaps: [number, number][],
+  depthsM: number[],
+  start: Float64Array,
+): { tops: number[]; gaps: [number, number][] } {
+  const out = [...tops];
+  const g = gaps.map((x) => [...x] as [number, number]);
+  let best = chi2Of(p, out, start, 4);
+  for (let sweep = 0; sweep < 3; sweep++) {
+    let improved = false;
+    for (let b = 1; b < out.length; b++) {
+      const k = depthsM.indexOf(g[b - 1][0]);
+      for (const dk of [-1, 0, 1]) {
+        const lo = depthsM[k + dk];
+        const hi = depthsM[k + dk + 1];
+        if (lo === undefined || hi === undefined) continue;
+        const above = b > 1 ? out[b - 1] : p.sourceDepthM;
+        const below = b + 1 < out.length ? out[b + 1] : Infinity;
+        if (!(lo >= above) || !(hi <= below)) continue;
+        // the layers either side must keep a receiver each
+        if (!depthsM.some((z) => z > above && z <= lo) || !depthsM.some((z) => z >= hi && z < below)) continue;
+        for (const f of [0.2, 0.5, 0.8]) {
+          const z = lo + f * (hi - lo);
+          const t = [...out];
+          t[b] = z;
+          const c = chi2Of(p, t, start, 4);
+          if (c < best - 1e-9) {
+            best = c;
+            out[b] = z;
+            g[b - 1] = [lo, hi];
+            improved = true;
+          }
+        }
+      }
+    }
+    if (!improved) break;
+  }
+  return { tops: out, gaps: g };
 }
 
 /** Places each boundary inside its gap by golden-section search of the ray-fit chi-square. */
@@ -550,6 +599,12 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
     if (moved < 1e-4) break;
     previous = signature;
   }
+  if (o.hop !== false && slowness && tops.length > 1) {
+    const h = hopBoundaries(p, tops, gaps, depthsM, slowness);
+    tops = h.tops;
+    gaps = h.gaps;
+    // back into closed-form placement within the chosen gaps is not repeated: the search set the position
+  }
   if (o.refine) tops = refineBoundaries(p, tops, gaps);
   return finish(p, tops, gaps, bic, notes);
 }
@@ -581,4 +636,52 @@ export function layerIntervalVs(fit: LayeredFit, topM: number, bottomM: number):
   const len = bottomM - topM;
   const v = len / t;
   return { vsMps: v, vsSdMps: (len * Math.sqrt(varT)) / (t * t) };
+}
+
+export interface BlendInput {
+  topM: number;
+  bottomM: number;
+  /** From the layered model. */
+  layerVsMps: number;
+  layerSdMps: number;
+  /** The interval's own measurement (e.g. the correlation delay), when it has one. */
+  ownVsMps: number | null;
+  ownSdMps: number | null;
+}
+
+/**
+ * Each interval's Vs from the layered model used as a prior and the interval's own measurement as
+ * data (precision-weighted, in slowness). The model error, the spread of true interval slownesses
+ * about their layer's, is estimated from the data by the method of moments (the mean squared
+ * difference between the two less the variance both claim; DerSimonian & Laird 1986, Control. Clin.
+ * Trials 7(3), from memory) and added to the prior's variance, so an interval that the layers do not
+ * represent (a thin layer between two receivers) follows its own measurement, with an sd that says so.
+ */
+export function blendIntervals(rows: BlendInput[]): { vsMps: number; vsSdMps: number; modelSdSpM: number }[] {
+  const sl = rows.map((r) => {
+    const sLayer = 1 / r.layerVsMps;
+    const vLayer = (r.layerSdMps * sLayer * sLayer) ** 2;
+    const own = r.ownVsMps !== null && r.ownVsMps > 0 && r.ownSdMps !== null && r.ownSdMps > 0;
+    const sOwn = own ? 1 / r.ownVsMps! : NaN;
+    const vOwn = own ? (r.ownSdMps! * sOwn * sOwn) ** 2 : NaN;
+    return { sLayer, vLayer, sOwn, vOwn, own };
+  });
+  const withOwn = sl.filter((x) => x.own);
+  let tau2 = 0;
+  if (withOwn.length >= 3) {
+    const excess = withOwn.map((x) => (x.sOwn - x.sLayer) ** 2 - x.vOwn - x.vLayer);
+    tau2 = Math.max(0, excess.reduce((s, e) => s + e, 0) / excess.length);
+  }
+  return sl.map((x) => {
+    const vPrior = x.vLayer + tau2;
+    let s = x.sLayer;
+    let v = vPrior;
+    if (x.own) {
+      const w1 = 1 / vPrior;
+      const w2 = 1 / x.vOwn;
+      s = (w1 * x.sLayer + w2 * x.sOwn) / (w1 + w2);
+      v = 1 / (w1 + w2);
+    }
+    return { vsMps: 1 / s, vsSdMps: Math.sqrt(v) / (s * s), modelSdSpM: Math.sqrt(tau2) };
+  });
 }
