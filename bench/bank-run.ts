@@ -1,12 +1,6 @@
-import { BANK_KINDS, DEFAULT_TUNING, figures, runBank, type BankKind } from './bank';
-import { performance } from 'node:perf_hooks';
+/** `npx tsx bench/bank-run.ts [seeds per split] [--json]`: the bank alone (bench/bank.ts). */
+import { bankReport, printBank } from './bank';
 const n = Number(process.argv[2] ?? 3);
-const kinds = (process.argv[3]?.split(',') ?? BANK_KINDS) as BankKind[];
-const t0 = performance.now();
-const runs = runBank(kinds, 'training', n, DEFAULT_TUNING);
-for (const k of kinds) {
-  console.log(k, runs[k].map((r) => r.layerModelNote).filter(Boolean));
-  const f = figures(runs[k]);
-  for (const [m, x] of Object.entries(f)) console.log('  ', m.padEnd(14), JSON.stringify(x));
-}
-console.log('ms', performance.now() - t0);
+const rep = bankReport(n);
+if (process.argv.includes('--json')) process.stdout.write(JSON.stringify(rep, null, 1) + '\n');
+else printBank(rep, (s) => process.stdout.write(s + '\n'));

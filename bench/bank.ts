@@ -35,10 +35,11 @@ export interface LayerModelTuning {
   sdFloorS: number;
 }
 
+/** Chosen on training seeds with bench/tune.ts (BIC penalty x0.5-2, onset or correlation times). */
 export const DEFAULT_TUNING: LayerModelTuning = {
   penaltyScale: 1,
   minThicknessM: 1,
-  timeSource: 'onset',
+  timeSource: 'xcorr',
   sdFloorS: 5e-5,
 };
 
@@ -231,7 +232,7 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
           trueVsMps: p.truthOf(r.topM, r.bottomM),
           onsetVsMps: p.onsetTruth(r.topM, r.bottomM),
         };
-        out.push({ ...base, method: 'layer-model', vsMps: lm[i].vsMps, sdMps: lm[i].vsSdMps });
+        out.push({ ...base, method: 'layer-model', vsMps: lm[i].vsMps, sdMps: blend[i].layerWithModelSdMps });
         out.push({ ...base, method: 'layer-blend', vsMps: blend[i].vsMps, sdMps: blend[i].vsSdMps });
       });
     }
@@ -339,9 +340,27 @@ export interface MethodFigures {
   within2Sd: number | null;
 }
 
-export function figures(runs: SurveyRun[]): Record<string, MethodFigures> {
+function byMethod(runs: SurveyRun[]): Map<string, IntervalResult[]> {
   const by = new Map<string, IntervalResult[]>();
   for (const r of runs) for (const iv of r.intervals) by.set(iv.method, [...(by.get(iv.method) ?? []), iv]);
+  return by;
+}
+
+/**
+ * Sd scale per method that makes 68% of the training intervals lie within one scaled sd of the truth
+ * (the 0.68 quantile of |error| / sd). Tuned on training seeds only.
+ */
+export function sdScales(runs: SurveyRun[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const [m, ivs] of byMethod(runs)) {
+    const z = ivs.filter((iv) => iv.sdMps && iv.sdMps > 0).map((iv) => Math.abs(iv.vsMps - iv.trueVsMps) / iv.sdMps!);
+    if (z.length) out[m] = Math.round(Math.max(0.5, quantile(z, 0.68)) * 100) / 100;
+  }
+  return out;
+}
+
+export function figures(runs: SurveyRun[], scales: Record<string, number> = {}): Record<string, MethodFigures> {
+  const by = byMethod(runs);
   const out: Record<string, MethodFigures> = {};
   for (const [m, ivs] of by) {
     const err = ivs.map((iv) => (100 * Math.abs(iv.vsMps - iv.trueVsMps)) / iv.trueVsMps);
@@ -349,8 +368,11 @@ export function figures(runs: SurveyRun[]): Record<string, MethodFigures> {
       .filter((iv) => iv.onsetVsMps !== null)
       .map((iv) => (100 * Math.abs(iv.vsMps - iv.onsetVsMps!)) / iv.onsetVsMps!);
     const withSd = ivs.filter((iv) => iv.sdMps !== null && iv.sdMps > 0);
+    const sc = scales[m] ?? 1;
     const share = (k: number) =>
-      withSd.length ? withSd.filter((iv) => Math.abs(iv.vsMps - iv.trueVsMps) <= k * iv.sdMps!).length / withSd.length : null;
+      withSd.length
+        ? withSd.filter((iv) => Math.abs(iv.vsMps - iv.trueVsMps) <= k * sc * iv.sdMps!).length / withSd.length
+        : null;
     const r3 = (x: number) => Math.round(x * 1000) / 1000;
     out[m] = {
       n: ivs.length,
@@ -378,4 +400,61 @@ export function runBank(
   const out: Record<string, SurveyRun[]> = {};
   for (const k of kinds) out[k] = seeds(split, count).map((s) => runCase(bankCase(k, s), tuning));
   return out;
+}
+
+export interface BankReport {
+  seedsPerSplit: number;
+  /** Per kind and method, training and held-out figures (sd scaled by the training scale). */
+  table: Record<string, Record<string, { training: MethodFigures; heldOut: MethodFigures }>>;
+  /** Held-out share of intervals with the truth within 1 and 2 (scaled) sd. */
+  calibration: Record<string, Record<string, { within1Sd: number | null; within2Sd: number | null }>>;
+  sdScale: Record<string, Record<string, number>>;
+  /** Default method per kind: lowest median + P90/2 on training seeds. */
+  defaultMethod: Record<string, string>;
+  layerModelFailures: Record<string, string[]>;
+}
+
+export function bankReport(count: number, tuning: LayerModelTuning = DEFAULT_TUNING, kinds = BANK_KINDS): BankReport {
+  const rep: BankReport = {
+    seedsPerSplit: count,
+    table: {},
+    calibration: {},
+    sdScale: {},
+    defaultMethod: {},
+    layerModelFailures: {},
+  };
+  for (const k of kinds) {
+    const train = seeds('training', count).map((s) => runCase(bankCase(k, s), tuning));
+    const held = seeds('held-out', count).map((s) => runCase(bankCase(k, s), tuning));
+    const scales = sdScales(train);
+    const ft = figures(train, scales);
+    const fh = figures(held, scales);
+    rep.sdScale[k] = scales;
+    rep.table[k] = {};
+    rep.calibration[k] = {};
+    for (const m of Object.keys(ft)) {
+      if (!fh[m]) continue;
+      rep.table[k][m] = { training: ft[m], heldOut: fh[m] };
+      rep.calibration[k][m] = { within1Sd: fh[m].within1Sd, within2Sd: fh[m].within2Sd };
+    }
+    const score = (f: MethodFigures) => f.medianErrPct + f.p90ErrPct / 2;
+    rep.defaultMethod[k] = Object.entries(ft)
+      .filter(([m]) => fh[m] && ft[m].n >= 0.8 * Math.max(...Object.values(ft).map((x) => x.n)))
+      .sort((a, b) => score(a[1]) - score(b[1]))[0][0];
+    rep.layerModelFailures[k] = [...train, ...held].flatMap((r) => (r.layerModelNote ? [`seed ${r.seed}: ${r.layerModelNote}`] : []));
+  }
+  return rep;
+}
+
+export function printBank(rep: BankReport, log: (s: string) => void): void {
+  log(`\nBank of random layered earths: ${rep.seedsPerSplit} training + ${rep.seedsPerSplit} held-out surveys per kind`);
+  log('  |error| of interval Vs against the truth (length / true vertical time), median / P90 %; calibration held-out (sd x training scale)');
+  for (const [k, rows] of Object.entries(rep.table)) {
+    log(`  ${k} (default on training: ${rep.defaultMethod[k]})`);
+    for (const [m, r] of Object.entries(rows))
+      log(
+        `    ${m.padEnd(14)} training ${r.training.medianErrPct.toFixed(2).padStart(6)} / ${r.training.p90ErrPct.toFixed(2).padStart(6)}   held-out ${r.heldOut.medianErrPct.toFixed(2).padStart(6)} / ${r.heldOut.p90ErrPct.toFixed(2).padStart(6)}   vs onset velocity ${r.heldOut.medianErrVsOnsetPct?.toFixed(2) ?? '  -  '}   within 1 sd ${r.heldOut.within1Sd ?? '-'}  2 sd ${r.heldOut.within2Sd ?? '-'}  (scale ${rep.sdScale[k][m] ?? 1})  n=${r.heldOut.n}`,
+      );
+    if (rep.layerModelFailures[k].length) log(`    layer model not made: ${rep.layerModelFailures[k].join('; ')}`);
+  }
 }

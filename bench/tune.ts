@@ -7,9 +7,9 @@ import { bankCase, DEFAULT_TUNING, evaluateCase, figures, prepareCase, seeds, ty
 const count = Number(process.argv[2] ?? 6);
 const kinds: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m'];
 const prepared = new Map(kinds.map((k) => [k, seeds('training', count).map((s) => prepareCase(bankCase(k, s)))]));
-for (const penaltyScale of [0.5, 1, 2, 4])
+for (const penaltyScale of [0.5, 1, 2])
   for (const timeSource of ['onset', 'xcorr'] as const)
-    for (const sdFloorS of [2e-5, 1e-4]) {
+    for (const sdFloorS of [5e-5]) {
       const t = { ...DEFAULT_TUNING, penaltyScale, timeSource, sdFloorS };
       const parts: string[] = [];
       for (const k of kinds) {

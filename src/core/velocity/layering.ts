@@ -657,7 +657,9 @@ export interface BlendInput {
  * Trials 7(3), from memory) and added to the prior's variance, so an interval that the layers do not
  * represent (a thin layer between two receivers) follows its own measurement, with an sd that says so.
  */
-export function blendIntervals(rows: BlendInput[]): { vsMps: number; vsSdMps: number; modelSdSpM: number }[] {
+export function blendIntervals(
+  rows: BlendInput[],
+): { vsMps: number; vsSdMps: number; layerWithModelSdMps: number; modelSdSpM: number }[] {
   const sl = rows.map((r) => {
     const sLayer = 1 / r.layerVsMps;
     const vLayer = (r.layerSdMps * sLayer * sLayer) ** 2;
@@ -676,12 +678,21 @@ export function blendIntervals(rows: BlendInput[]): { vsMps: number; vsSdMps: nu
     const vPrior = x.vLayer + tau2;
     let s = x.sLayer;
     let v = vPrior;
+    // where this interval's own measurement disagrees with the layers by more than both claim, the
+    // layers' sd takes the excess (a local method-of-moments estimate, never below the pooled one)
+    let vLocal = vPrior;
     if (x.own) {
-      const w1 = 1 / vPrior;
+      vLocal = Math.max(vPrior, x.vLayer + (x.sOwn - x.sLayer) ** 2 - x.vOwn);
+      const w1 = 1 / vLocal;
       const w2 = 1 / x.vOwn;
       s = (w1 * x.sLayer + w2 * x.sOwn) / (w1 + w2);
       v = 1 / (w1 + w2);
     }
-    return { vsMps: 1 / s, vsSdMps: Math.sqrt(v) / (s * s), modelSdSpM: Math.sqrt(tau2) };
+    return {
+      vsMps: 1 / s,
+      vsSdMps: Math.sqrt(v) / (s * s),
+      layerWithModelSdMps: Math.sqrt(vLocal) / (x.sLayer * x.sLayer),
+      modelSdSpM: Math.sqrt(tau2),
+    };
   });
 }
