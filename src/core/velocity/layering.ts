@@ -656,9 +656,11 @@ export interface BlendInput {
  * difference between the two less the variance both claim; DerSimonian & Laird 1986, Control. Clin.
  * Trials 7(3), from memory) and added to the prior's variance, so an interval that the layers do not
  * represent (a thin layer between two receivers) follows its own measurement, with an sd that says so.
+ * `modelSdShare` sets a floor on the model error as a share of the layer slowness (tuned on training seeds).
  */
 export function blendIntervals(
   rows: BlendInput[],
+  o: { modelSdShare?: number } = {},
 ): { vsMps: number; vsSdMps: number; layerWithModelSdMps: number; modelSdSpM: number }[] {
   const sl = rows.map((r) => {
     const sLayer = 1 / r.layerVsMps;
@@ -674,8 +676,11 @@ export function blendIntervals(
     const excess = withOwn.map((x) => (x.sOwn - x.sLayer) ** 2 - x.vOwn - x.vLayer);
     tau2 = Math.max(0, excess.reduce((s, e) => s + e, 0) / excess.length);
   }
+  // a floor on the model error: a share of the layer's slowness (an interval inside a layer need not
+  // share its value exactly even where the data cannot tell)
+  const share = o.modelSdShare ?? 0;
   return sl.map((x) => {
-    const vPrior = x.vLayer + tau2;
+    const vPrior = x.vLayer + Math.max(tau2, (share * x.sLayer) ** 2);
     let s = x.sLayer;
     let v = vPrior;
     // where this interval's own measurement disagrees with the layers by more than both claim, the
