@@ -8,6 +8,7 @@
  * The layered-model method ('layer-model') is computed here from the pipeline's picks and delays with
  * src/core/velocity/layering.ts until the pipeline carries it.
  */
+import type { StationKey } from '../src/core/keys';
 import type { WaveRecord } from '../src/core/model';
 import { autoPick, derive, prepare } from '../src/core/pipeline';
 import { defaultSettings, emptyEdits } from '../src/core/settings';
@@ -253,11 +254,11 @@ type Stations = ReturnType<typeof prepare>['stations'];
 
 function layerObservations(c: Case, stations: Stations, d: Derived, t: LayerModelTuning): TimeObservation[] {
   const sStations = new Map(stations.filter((s) => s.wave === 'S').map((s) => [s.key, s]));
-  const offsetOf = (key: string) => {
+  const offsetOf = (key: StationKey) => {
     const s = sStations.get(key)!;
     return Math.hypot(s.receiverPos[0] - s.sourcePos[0], s.receiverPos[1] - s.sourcePos[1]);
   };
-  const depthOf = (key: string) => sStations.get(key)!.receiverPos[2];
+  const depthOf = (key: StationKey) => sStations.get(key)!.receiverPos[2];
   if (c.kind === 'two-receiver') {
     const obs: TimeObservation[] = [];
     for (const iv of d.intervals) {
