@@ -237,16 +237,20 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
           trueVsMps: p.truthOf(r.topM, r.bottomM),
           onsetVsMps: p.onsetTruth(r.topM, r.bottomM),
         };
-        out.push({ ...base, method: 'layer-model', vsMps: lm[i].vsMps, sdMps: blend[i].layerWithModelSdMps });
-        out.push({ ...base, method: 'layer-blend', vsMps: blend[i].vsMps, sdMps: blend[i].vsSdMps });
+        // the bench's own copy of the method, for tuning (bench/tune.ts); the pipeline's rows are 'layer-model'
+        out.push({ ...base, method: 'layer-model:tuned', vsMps: lm[i].vsMps, sdMps: blend[i].layerWithModelSdMps });
+        out.push({ ...base, method: 'layer-blend:tuned', vsMps: blend[i].vsMps, sdMps: blend[i].vsSdMps });
       });
     }
   }
   return { kind: c.kind, seed: c.seed, intervals: out, layerModelNote: note, layers };
 }
 
-export function runCase(c: Case, tuning: LayerModelTuning): SurveyRun {
-  return evaluateCase(prepareCase(c), tuning);
+/** One survey through the pipeline with default settings: every method as the app gives it. */
+export function runCase(c: Case): SurveyRun {
+  const p = prepareCase(c);
+  const layers = p.derived.layering.fit?.layers.length ?? null;
+  return { kind: c.kind, seed: c.seed, intervals: p.perMethod, layerModelNote: p.derived.layering.reason, layers };
 }
 
 type Derived = ReturnType<typeof derive>;
@@ -396,17 +400,6 @@ export function seeds(split: 'training' | 'held-out', count: number): number[] {
   return Array.from({ length: count }, (_, i) => base + i);
 }
 
-export function runBank(
-  kinds: BankKind[],
-  split: 'training' | 'held-out',
-  count: number,
-  tuning: LayerModelTuning,
-): Record<string, SurveyRun[]> {
-  const out: Record<string, SurveyRun[]> = {};
-  for (const k of kinds) out[k] = seeds(split, count).map((s) => runCase(bankCase(k, s), tuning));
-  return out;
-}
-
 export interface BankReport {
   seedsPerSplit: number;
   /** Per kind and method, training and held-out figures (sd scaled by the training scale). */
@@ -419,7 +412,7 @@ export interface BankReport {
   layerModelFailures: Record<string, string[]>;
 }
 
-export function bankReport(count: number, tuning: LayerModelTuning = DEFAULT_TUNING, kinds = BANK_KINDS): BankReport {
+export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
   const rep: BankReport = {
     seedsPerSplit: count,
     table: {},
@@ -429,8 +422,8 @@ export function bankReport(count: number, tuning: LayerModelTuning = DEFAULT_TUN
     layerModelFailures: {},
   };
   for (const k of kinds) {
-    const train = seeds('training', count).map((s) => runCase(bankCase(k, s), tuning));
-    const held = seeds('held-out', count).map((s) => runCase(bankCase(k, s), tuning));
+    const train = seeds('training', count).map((s) => runCase(bankCase(k, s)));
+    const held = seeds('held-out', count).map((s) => runCase(bankCase(k, s)));
     const scales = sdScales(train);
     const ft = figures(train, scales);
     const fh = figures(held, scales);

@@ -18,7 +18,7 @@ for (const t of grid) {
     for (const k of kinds) {
       const runs = prepared.get(k)!.map((p) => evaluateCase(p, t));
       const f = figures(runs, sdScales(runs));
-      for (const m of ['layer-model', 'layer-blend']) {
+      for (const m of ['layer-model:tuned', 'layer-blend:tuned']) {
         const x = f[m];
         if (!x) continue;
         parts.push(`${k}/${m} ${x.medianErrPct.toFixed(2)}/${x.p90ErrPct.toFixed(2)} (${x.within1Sd},${x.within2Sd})`);
