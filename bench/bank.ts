@@ -250,7 +250,8 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
 export function runCase(c: Case): SurveyRun {
   const p = prepareCase(c);
   const layers = p.derived.layering.fit?.layers.length ?? null;
-  return { kind: c.kind, seed: c.seed, intervals: p.perMethod, layerModelNote: p.derived.layering.reason, layers };
+  const note = c.kind === 'crosshole' ? null : p.derived.layering.reason;
+  return { kind: c.kind, seed: c.seed, intervals: p.perMethod, layerModelNote: note, layers };
 }
 
 type Derived = ReturnType<typeof derive>;
