@@ -137,8 +137,8 @@ test('layered model: boundaries from the travel times, then edited by the user, 
   expect(auto.fit!.layers.length).toBeGreaterThanOrEqual(2);
   await page.getByRole('tab', { name: 'Geometry' }).click();
   await page.getByRole('button', { name: /Edit these boundaries/ }).click();
-  await expect.poll(async () => (await appState(page)).settings.layeringMode).toBe('user');
-  const entered = (await appState(page)).settings.layerBoundariesM as number[];
+  await expect.poll(async () => (await appState(page)).settings.layering.mode).toBe('user');
+  const entered = (await appState(page)).settings.layering.boundariesM as number[];
   expect(entered.length).toBe(auto.fit!.layers.length - 1);
   // Remove the first boundary: the fit follows with one layer fewer, starting at the source depth.
   const field = page.getByLabel('Layer boundaries', { exact: true });

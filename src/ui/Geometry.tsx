@@ -557,17 +557,19 @@ function LayeringModeField({ settings, units }: { settings: Settings; units: Uni
       Layered model:{' '}
       <select
         aria-label="Layered model boundaries"
-        value={settings.layeringMode}
-        onChange={(e) => updateSettings({ layeringMode: e.target.value as Settings['layeringMode'] })}
+        value={settings.layering.mode}
+        onChange={(e) => updateSettings({ layering: { mode: e.target.value as Settings['layering']['mode'] } })}
       >
         <option value="auto">boundaries from the travel times</option>
         <option value="user">the layer boundaries entered</option>
       </select>{' '}
-      {settings.layeringMode === 'auto' && auto.length > 0 && (
+      {settings.layering.mode === 'auto' && auto.length > 0 && (
         <button
           type="button"
           onClick={() =>
-            updateSettings({ layeringMode: 'user', layerBoundariesM: auto.map((z) => Math.round(z * 100) / 100) })
+            updateSettings({
+              layering: { mode: 'user', boundariesM: auto.map((z) => Math.round(z * 100) / 100) },
+            })
           }
         >
           Edit these boundaries ({auto.map((z) => fmt('depth', units, z, 2)).join(', ')} {label('depth', units)})

@@ -21,7 +21,7 @@ export function TravelTime() {
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
   const stations = useResults((s) => s.prepared?.stations);
   const survey = useApp((s) => s.survey);
-  const settingsMode = useApp((s) => s.settings.layeringMode);
+  const settingsMode = useApp((s) => s.settings.layering.mode);
   const receiver = effectiveReceiver(stations ?? [], wave, view.receiver);
   // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw this plot.
   const travelTimes = d?.travelTimes;
