@@ -37,7 +37,7 @@ const MODEL_SD_SHARE = 0.06;
 export const LAYER_MODEL_SD_SCALE: Partial<Record<TestKind, number>> = {
   downhole: 0.26,
   'downhole-pair': 0.15,
-  'seismic-cone': 0.3,
+  'seismic-cone': 0.34,
 };
 
 export interface LayerMethodResult {
