@@ -6,7 +6,10 @@
  * 4,096 samples), twice: attenuation off (the pulse keeps its shape; accuracy figures in the JSON) and
  * on (to show onset- and correlation-based delays drifting apart with depth); the demo crosshole set;
  * and a 60-depth downhole survey for the per-edit timings (derive, Monte Carlo).
+ * Then the bank of random layered earths (bench/bank.ts): accuracy and calibration per test kind and
+ * method on training and held-out seeds (JSON keys `bank` and `calibration`).
  */
+import { bankReport, printBank } from './bank';
 import { intervalKey, pickEditKey } from '../src/core/keys';
 import { performance } from 'node:perf_hooks';
 import Papa from 'papaparse';
@@ -28,6 +31,11 @@ import {
 } from '../src/core/synth';
 
 const json = process.argv.includes('--json');
+/** --quick: the bank with 2 seeds per split and no dense speed surveys; --bank-only: the bank alone; --bank-seeds N. */
+const quick = process.argv.includes('--quick');
+const bankOnly = process.argv.includes('--bank-only');
+const seedArg = process.argv.indexOf('--bank-seeds');
+const bankSeeds = seedArg > 0 ? Number(process.argv[seedArg + 1]) : quick ? 2 : 4;
 const log = (s: string) => {
   if (!json) process.stdout.write(s + '\n');
 };
@@ -354,55 +362,73 @@ function textRead() {
   };
 }
 
-const tr = textRead();
-log(
-  `Text reading, ${tr.files} files x ${tr.rows} rows x 4 columns (${tr.megabytes.toFixed(1)} MB): reader ${tr.readerMs.toFixed(0)} ms; previous path (papaparse per line + per-row arrays) ${tr.perLinePapaparseMs.toFixed(0)} ms; one papaparse call per file ${tr.wholeFilePapaparseMs.toFixed(0)} ms`,
-);
-if (process.argv.includes('--text-only')) process.exit(0);
+function speedSections() {
+  const tr = textRead();
+  log(
+    `Text reading, ${tr.files} files x ${tr.rows} rows x 4 columns (${tr.megabytes.toFixed(1)} MB): reader ${tr.readerMs.toFixed(0)} ms; previous path (papaparse per line + per-row arrays) ${tr.perLinePapaparseMs.toFixed(0)} ms; one papaparse call per file ${tr.wholeFilePapaparseMs.toFixed(0)} ms`,
+  );
+  if (process.argv.includes('--text-only')) process.exit(0);
 
-const clean = denseDownhole(false);
-const cleanRun = runSurvey('Downhole, attenuation off', clean);
-const acc = accuracy(clean, cleanRun, 1 / 100);
-log('  accuracy of S interval delays against the model (attenuation off):');
-for (const [m, a] of Object.entries(acc)) {
+  const clean = denseDownhole(false);
+  const cleanRun = runSurvey('Downhole, attenuation off', clean);
+  const acc = accuracy(clean, cleanRun, 1 / 100);
+  log('  accuracy of S interval delays against the model (attenuation off):');
+  for (const [m, a] of Object.entries(acc)) {
+    log(
+      `    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms (${a.medianErrSamples.toFixed(2)} samples)  p90 ${a.p90ErrMs.toFixed(4)} ms (${a.p90ErrSamples.toFixed(2)} samples)  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%  n=${a.n}`,
+    );
+  }
+  const att = denseDownhole(true);
+  const attRun = runSurvey('Downhole, attenuation on', att);
+  const accAtt = accuracy(att, attRun, 1 / 100);
+  const dr = drift(attRun);
+  log('  with attenuation: cumulative (xcorr - onset) interval time against depth (pulse broadening):');
+  for (const p of dr.points) log(`    to ${p.depthM.toFixed(1)} m: ${p.cumulativeMs.toFixed(3)} ms`);
   log(
-    `    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms (${a.medianErrSamples.toFixed(2)} samples)  p90 ${a.p90ErrMs.toFixed(4)} ms (${a.p90ErrSamples.toFixed(2)} samples)  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%  n=${a.n}`,
+    `    intervals flagged "methods differ": ${(dr.flaggedShare * 100).toFixed(1)}%; survey-level drift ${attRun.derived.drift ? `${(attRun.derived.drift.share * 100).toFixed(2)}% of travel time, ${attRun.derived.drift.significant ? 'reported (METHOD_DRIFT)' : 'not significant'}` : 'n/a'}`,
   );
+  log(
+    `    same figures with attenuation off: drift ${cleanRun.derived.drift ? `${(cleanRun.derived.drift.share * 100).toFixed(2)}%, ${cleanRun.derived.drift.significant ? 'reported' : 'not reported'}` : 'n/a'}`,
+  );
+  for (const [m, a] of Object.entries(accAtt))
+    log(
+      `    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms  p90 ${a.p90ErrMs.toFixed(4)} ms  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%`,
+    );
+  const xh = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), demoCrossholeOptions());
+  const xhRun = runSurvey('Crosshole (demo geometry)', xh);
+  const pd = pairDelayMs(cleanRun);
+  log(
+    `\nOne pair delay (xcorr, 4,096-sample traces): ${pd.inSurveyMs.toFixed(3)} ms as in the survey run (target < 0.2 ms); ${pd.withAnalysisMs.toFixed(3)} ms including the analysis of both traces`,
+  );
+  const pe = perEdit();
+  log(
+    `Per edit on a 60-depth survey: derive ${pe.deriveMedianMs.toFixed(1)} ms with the Monte Carlo, ${pe.deriveWithoutMcMedianMs.toFixed(1)} ms without (target < 50 ms); Monte Carlo 60 intervals x 10,000 draws ${pe.monteCarlo60Ms.toFixed(1)} ms (target < 50 ms)`,
+  );
+
+  return { tr, cleanRun, acc, attRun, accAtt, dr, xhRun, pd, pe };
 }
-const att = denseDownhole(true);
-const attRun = runSurvey('Downhole, attenuation on', att);
-const accAtt = accuracy(att, attRun, 1 / 100);
-const dr = drift(attRun);
-log('  with attenuation: cumulative (xcorr - onset) interval time against depth (pulse broadening):');
-for (const p of dr.points) log(`    to ${p.depthM.toFixed(1)} m: ${p.cumulativeMs.toFixed(3)} ms`);
-log(
-  `    intervals flagged "methods differ": ${(dr.flaggedShare * 100).toFixed(1)}%; survey-level drift ${attRun.derived.drift ? `${(attRun.derived.drift.share * 100).toFixed(2)}% of travel time, ${attRun.derived.drift.significant ? 'reported (METHOD_DRIFT)' : 'not significant'}` : 'n/a'}`,
-);
-log(
-  `    same figures with attenuation off: drift ${cleanRun.derived.drift ? `${(cleanRun.derived.drift.share * 100).toFixed(2)}%, ${cleanRun.derived.drift.significant ? 'reported' : 'not reported'}` : 'n/a'}`,
-);
-for (const [m, a] of Object.entries(accAtt))
-  log(
-    `    ${m.padEnd(14)} median ${a.medianErrMs.toFixed(4)} ms  p90 ${a.p90ErrMs.toFixed(4)} ms  cycle skips ${(a.cycleSkipShare * 100).toFixed(2)}%`,
-  );
-const xh = synthesizeSurvey(demoEarthModel(), demoCrossholeGeometry(), demoCrossholeOptions());
-const xhRun = runSurvey('Crosshole (demo geometry)', xh);
-const pd = pairDelayMs(cleanRun);
-log(
-  `\nOne pair delay (xcorr, 4,096-sample traces): ${pd.inSurveyMs.toFixed(3)} ms as in the survey run (target < 0.2 ms); ${pd.withAnalysisMs.toFixed(3)} ms including the analysis of both traces`,
-);
-const pe = perEdit();
-log(
-  `Per edit on a 60-depth survey: derive ${pe.deriveMedianMs.toFixed(1)} ms with the Monte Carlo, ${pe.deriveWithoutMcMedianMs.toFixed(1)} ms without (target < 50 ms); Monte Carlo 60 intervals x 10,000 draws ${pe.monteCarlo60Ms.toFixed(1)} ms (target < 50 ms)`,
-);
+
+const speed = quick || bankOnly ? null : speedSections();
+const bank = bankReport(bankSeeds);
+printBank(bank, log);
 // Stated site-class probabilities against the model's class on a bank of forward-model surveys
 // (held-out seeds 7000-7011; thresholds were tuned on seeds 500-515, scripts/measure-calibration.ts).
-const calibration = classCalibration(Array.from({ length: 12 }, (_, i) => 7000 + i));
-log(
-  `Class calibration: ${calibration.surveys} surveys, ${calibration.statedAtLeast90} statements at >= 90%, right in ${(calibration.rightWhenStatedAtLeast90 * 100).toFixed(1)}% (goal >= 90%)`,
-);
+const classCal = quick ? null : classCalibration(Array.from({ length: 12 }, (_, i) => 7000 + i));
+if (classCal)
+  log(
+    `Class calibration: ${classCal.surveys} surveys, ${classCal.statedAtLeast90} statements at >= 90%, right in ${(classCal.rightWhenStatedAtLeast90 * 100).toFixed(1)}% (goal >= 90%)`,
+  );
 
-if (json) {
+if (json && !speed) {
+  process.stdout.write(
+    JSON.stringify(
+      { bank, calibration: bank.calibration, defaultMethod: bank.defaultMethod, classCalibration: classCal },
+      null,
+      1,
+    ) + '\n',
+  );
+} else if (json && speed) {
+  const { tr, cleanRun, xhRun, pd, pe, acc, accAtt, dr, attRun } = speed;
   const stage = (ms: number, traces: number) => ({
     ms: Math.round(ms * 100) / 100,
     tracesPerS: Math.round(traces / (ms / 1000)),
@@ -432,7 +458,10 @@ if (json) {
       driftReported: attRun.derived.drift?.significant ?? false,
     },
     attenuationOffDriftReported: cleanRun.derived.drift?.significant ?? false,
-    classCalibration: calibration,
+    bank,
+    calibration: bank.calibration,
+    defaultMethod: bank.defaultMethod,
+    classCalibration: classCal,
   };
   process.stdout.write(JSON.stringify(doc, null, 1) + '\n');
 }

@@ -78,7 +78,7 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   )!;
   expect(autoPick, 'an automatic onset pick at 10 m').toBeTruthy();
   const chosenBefore = before.intervals.find((r) => r.key === INTERVAL_ABOVE && r.chosen)!;
-  expect(chosenBefore.method).toBe('xcorr');
+  expect(chosenBefore.method).toBe('layer-model');
   const vs30Before = before.vs30;
 
   // Mouse: click 2 ms after the automatic onset on the 10 m trace.
@@ -109,7 +109,7 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   expect(st.edits.picks[EDIT_KEY]).toBeCloseTo(mouseS + 2 * 5e-5, 12);
   await page.screenshot({ path: `${SCREENS}/02-pick-edited.png` });
 
-  // Undo the two nudges and the click: back to no edit, xcorr chosen again.
+  // Undo the two nudges and the click: back to no edit, the default (layered model) chosen again.
   await page.keyboard.press('z');
   await page.keyboard.press('z');
   st = await appState(page);
@@ -118,7 +118,7 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   st = await appState(page);
   expect(st.edits.picks[EDIT_KEY]).toBeUndefined();
   after = await derivedState(page);
-  expect(after.intervals.find((r) => r.key === INTERVAL_ABOVE && r.chosen)!.method).toBe('xcorr');
+  expect(after.intervals.find((r) => r.key === INTERVAL_ABOVE && r.chosen)!.method).toBe('layer-model');
   expect(after.vs30).toBe(vs30Before);
   // Redo brings the click back.
   await page.keyboard.press('Shift+Z');

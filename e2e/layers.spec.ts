@@ -112,3 +112,39 @@ test('layer boundaries typed in Geometry (5, 10 m) set the Travel time fits', as
   await expect.poll(async () => (await appState(page)).settings.layering.boundariesM).toEqual([]);
   expect((await fitsAndRows(page)).fits).toEqual(before.fits);
 });
+
+interface Layering {
+  fit: { layers: { topM: number; bottomM: number; vsMps: number }[] } | null;
+  reason: string | null;
+}
+
+async function layering(page: Page): Promise<Layering> {
+  return page.evaluate(() => {
+    const bw = (window as unknown as { __borewave: { derived: () => { layering: unknown } | null } }).__borewave;
+    return JSON.parse(JSON.stringify(bw.derived()!.layering));
+  });
+}
+
+test('layered model: boundaries from the travel times, then edited by the user, and the fit follows', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await page.locator('button[data-demo="downhole"]').click();
+  await waitProcessed(page);
+  const auto = await layering(page);
+  // The demo's automatic layering gives a model with at least two layers (never silently nothing).
+  expect(auto.reason).toBeNull();
+  expect(auto.fit!.layers.length).toBeGreaterThanOrEqual(2);
+  await page.getByRole('tab', { name: 'Geometry' }).click();
+  await page.getByRole('button', { name: /Edit these boundaries/ }).click();
+  await expect.poll(async () => (await appState(page)).settings.layering.mode).toBe('user');
+  const entered = (await appState(page)).settings.layering.boundariesM as number[];
+  expect(entered.length).toBe(auto.fit!.layers.length - 1);
+  // Remove the first boundary: the fit follows with one layer fewer, starting at the source depth.
+  const field = page.getByLabel('Layer boundaries', { exact: true });
+  await field.fill(entered.slice(1).join(', '));
+  await field.press('Enter');
+  await expect.poll(async () => (await layering(page)).fit?.layers.length).toBe(auto.fit!.layers.length - 1);
+  const user = await layering(page);
+  expect(user.fit!.layers.slice(1).map((l) => l.topM)).toEqual(entered.slice(1));
+});

@@ -28,6 +28,9 @@ import {
 import { bridgingPairs, gapVelocityFrom } from './velocity/bridging';
 import { directVelocities, travelTimeRows, type DirectVelocity, type TravelTimeRow } from './velocity/direct';
 import { layerFits, layerModelFor, rayFitFor, type LayerFit } from './velocity/layers';
+import type { LayeredFit } from './velocity/layering';
+import { layerMethod } from './velocity/layerMethod';
+import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
 import { profileRows, type ProfileRow } from './stiffness/rows';
@@ -94,6 +97,8 @@ export interface Derived {
   rayFit: RayFitResult | null;
   /** Downhole: S layer velocities over the chosen layers from the onset times with refracted rays. */
   layerModel: LayerModelFit | null;
+  /** Downhole kinds: the layered model behind the 'layer-model' method (automatic or user boundaries), or why there is none. */
+  layering: { fit: LayeredFit | null; reason: string | null };
   drift: MethodDrift | null;
   site: SiteSummary;
   /** Set-up checks (survey/setup-checks.ts): blocking ones withhold Vs30 and the site classes. */
@@ -164,7 +169,37 @@ export function derive(
   for (const d of allDelays) delaysByPair.set(d.pairKey, [...(delaysByPair.get(d.pairKey) ?? []), d]);
   const kept = prepared.stations.filter((st) => !excluded.has(stationWaveKey(st.key, st.wave)));
   const ray = rayFitFor(survey, { ...prepared, stations: kept, pairs }, picks, allDelays, settings);
-  const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
+  const layering = layerMethod(
+    survey.kind,
+    survey.sourceDepthM,
+    pairs,
+    picks,
+    allDelays,
+    {
+      mode: settings.layering.mode,
+      boundariesM: settings.layering.boundariesM,
+      minThicknessM: settings.layering.minThicknessM,
+      triggerOffsetSdS: settings.intervals.triggerOffsetSdS,
+    },
+    isOnsetPick,
+  );
+  // The layered model never disappears silently: where it cannot be made, say why.
+  if (methodApplies('layer-model', survey.kind) && layering.reason)
+    issues.push({
+      code: 'LAYER_MODEL_NOT_MADE',
+      message: `No layered model: ${layering.reason}. Intervals use the other methods.`,
+      field: 'layering',
+    });
+  const intervals = intervalValues({
+    pairs,
+    picksByStation,
+    delaysByPair,
+    rayFit: ray.byPair,
+    layerModel: layering.byPair,
+    kind: survey.kind,
+    settings,
+    edits,
+  });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity } = profileRows(survey, intervals, issues);
   const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
@@ -193,6 +228,7 @@ export function derive(
     layerFits: layerFits(survey, travelTimes, settings, 'onset'),
     rayFit: ray.result,
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
+    layering: { fit: layering.fit, reason: layering.reason },
     drift,
     site,
     setupProblems,

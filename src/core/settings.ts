@@ -136,7 +136,8 @@ export function defaultSettings(): Settings {
       vpRangeMps: [150, 5000],
     },
     intervals: {
-      profileMethod: 'xcorr',
+      // the best on the bench's training seeds for every downhole kind; crosshole takes DEFAULT_PROFILE_METHOD
+      profileMethod: 'layer-model',
       methodDisagreementShare: 0.1,
       rayFit: true,
       triggerDelayS: 0,

@@ -114,6 +114,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     layerFits: [],
     rayFit: null,
     layerModel: null,
+    layering: { fit: null, reason: null },
     drift: null,
     comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [], setupIncomplete: null, bridged: [] },

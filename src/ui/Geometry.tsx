@@ -30,6 +30,7 @@ import {
   surfaceSource,
   TEST_KIND_CATALOGUE,
 } from '../core/catalogue/testKinds';
+import { useDerived } from '../state/derived';
 import { rawRecords } from '../state/raw';
 import { updateSettings, updateSurvey } from '../state/edits';
 import { loadDeviation, loadRecordLog, reassignAll } from '../state/files';
@@ -823,6 +824,39 @@ function LayerBoundariesField({ settings, units }: { settings: Settings; units: 
   );
 }
 
+/** The layered model's boundaries: chosen from the travel times, or the ones entered above (the fit follows). */
+function LayeringModeField({ settings, units }: { settings: Settings; units: UnitSystem }) {
+  const d = useDerived();
+  const fit = d?.layering.fit;
+  const auto = fit ? fit.layers.slice(1).map((l) => l.topM) : [];
+  return (
+    <label>
+      Layered model:{' '}
+      <select
+        aria-label="Layered model boundaries"
+        value={settings.layering.mode}
+        onChange={(e) => updateSettings({ layering: { mode: e.target.value as Settings['layering']['mode'] } })}
+      >
+        <option value="auto">boundaries from the travel times</option>
+        <option value="user">the layer boundaries entered</option>
+      </select>{' '}
+      {settings.layering.mode === 'auto' && auto.length > 0 && (
+        <button
+          type="button"
+          onClick={() =>
+            updateSettings({
+              layering: { mode: 'user', boundariesM: auto.map((z) => Math.round(z * 100) / 100) },
+            })
+          }
+        >
+          Edit these boundaries ({auto.map((z) => fmt('depth', units, z, 2)).join(', ')} {label('depth', units)})
+        </button>
+      )}
+      {d?.layering.reason && <span className="field-error"> No layered model: {d.layering.reason}.</span>}
+    </label>
+  );
+}
+
 function ProcessingFields({ settings, units }: { settings: Settings; units: UnitSystem }) {
   const v = label('velocity', units);
   const range = (which: 'vsRangeMps' | 'vpRangeMps', i: 0 | 1) => (
@@ -891,6 +925,7 @@ function ProcessingFields({ settings, units }: { settings: Settings; units: Unit
         />
       </label>
       <LayerBoundariesField settings={settings} units={units} />
+      <LayeringModeField settings={settings} units={units} />
       <label>
         Flag when methods differ by more than{' '}
         <NumField

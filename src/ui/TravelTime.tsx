@@ -21,6 +21,7 @@ export function TravelTime() {
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
   const stations = useResults((s) => s.prepared?.stations);
   const survey = useApp((s) => s.survey);
+  const settingsMode = useApp((s) => s.settings.layering.mode);
   const receiver = effectiveReceiver(stations ?? [], wave, view.receiver);
   // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw this plot.
   const travelTimes = d?.travelTimes;
@@ -145,6 +146,18 @@ export function TravelTime() {
           ? ` (line = straight slant paths; ray = refracted rays, RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)`
           : ''}
       </div>
+      {wave === 'S' && d?.layering && (d.layering.fit || d.layering.reason) && (
+        <div className="pane-note" aria-label="Layered model">
+          {d.layering.fit
+            ? `Layered model (${settingsMode === 'user' ? 'boundaries entered' : 'boundaries from the travel times'}): ${d.layering.fit.layers
+                .map(
+                  (l) =>
+                    `${fmt('depth', units, l.topM, 2)}–${fmt('depth', units, l.bottomM, 2)} ${label('depth', units)} ${fmt('velocity', units, l.vsMps, 0)} ± ${fmt('velocity', units, l.vsSdMps, 0)}`,
+                )
+                .join(' · ')} ${label('velocity', units)}`
+            : `No layered model: ${d.layering.reason}.`}
+        </div>
+      )}
       <Plot name="travel-time" data={data} layout={layout} className="plot small" defer />
     </section>
   );

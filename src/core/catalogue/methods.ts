@@ -8,7 +8,15 @@
  */
 import type { PickMethod, TestKind, Wave } from '../model';
 
-export type IntervalMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing' | 'xcorr' | 'phase' | 'ray-fit';
+export type IntervalMethod =
+  | 'onset'
+  | 'peak'
+  | 'trough'
+  | 'zero-crossing'
+  | 'xcorr'
+  | 'phase'
+  | 'ray-fit'
+  | 'layer-model';
 
 /** Pick methods a user can correct by hand ('onset' = the station's first-arrival pick). */
 export type EditablePickMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing';
@@ -119,7 +127,30 @@ export const INTERVAL_METHOD_CATALOGUE: readonly IntervalMethodInfo[] = [
     waves: ['S'],
     kinds: ['downhole', 'seismic-cone'],
   },
+  {
+    // velocity/layerMethod.ts: layers chosen from the travel times (or the user's), refracted rays
+    id: 'layer-model',
+    kind: 'model',
+    editable: false,
+    label: 'layered model',
+    shortLabel: 'Layers',
+    inDisagreementCheck: false,
+    fallbackRank: null,
+    waves: ['S'],
+    kinds: ['downhole', 'downhole-pair', 'seismic-cone'],
+  },
 ];
+
+/**
+ * The profile method when the settings' method does not apply to the survey's kind: the method with
+ * the lowest median + P90/2 interval error on the training seeds of the bench's bank of random earths.
+ */
+export const DEFAULT_PROFILE_METHOD: Readonly<Record<TestKind, IntervalMethod>> = {
+  downhole: 'layer-model',
+  'downhole-pair': 'layer-model',
+  'seismic-cone': 'layer-model',
+  crosshole: 'xcorr',
+};
 
 const BY_ID = new Map(INTERVAL_METHOD_CATALOGUE.map((m) => [m.id, m]));
 

@@ -9,15 +9,17 @@
  * Interval V = (L_b - L_a)/(t_b - t_a), L the straight source-receiver distance (slant distance for a
  * surface source; 3-D distance between deviated positions for crosshole).
  */
-import type { DelayRequest, PairDelay, Pick, Survey, Wave } from '../model';
+import type { DelayRequest, PairDelay, Pick, Survey, TestKind, Wave } from '../model';
 import type { Settings, UserEdits } from '../settings';
 import type { Station } from '../survey/stations';
 import type { IntervalFlag } from '../flags';
 import { intervalKey, type IntervalKey, type StationKey } from '../keys';
 import { pairingRule } from '../catalogue/testKinds';
 import {
+  DEFAULT_PROFILE_METHOD,
   DELAY_METHODS,
   FALLBACK_ORDER,
+  methodApplies,
   PICK_INTERVAL_METHODS,
   methodInfo,
   pickIsMethod,
@@ -134,6 +136,10 @@ export interface IntervalInputs {
   delaysByPair: Map<IntervalKey, PairDelay[]>;
   /** Ray-fit interval velocities by pair key (downhole), when computed. */
   rayFit: Map<IntervalKey, { velocityMps: number; sdMps: number }>;
+  /** Layered-model interval velocities by pair key (downhole kinds), when computed. */
+  layerModel?: Map<IntervalKey, { velocityMps: number; sdMps: number }>;
+  /** Test kind: the profile method falls back to the kind's default where the settings' one does not apply. */
+  kind?: TestKind;
   settings: Settings;
   edits: UserEdits;
 }
@@ -216,14 +222,18 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       }
       finish(m, d.delayS, d.uncertaintyS, d.flags);
     }
-    const rf = inp.rayFit.get(pair.key);
-    if (rf) {
+    for (const [method, table] of [
+      ['ray-fit', inp.rayFit],
+      ['layer-model', inp.layerModel ?? new Map<IntervalKey, { velocityMps: number; sdMps: number }>()],
+    ] as const) {
+      const rf = table.get(pair.key);
+      if (!rf) continue;
       const flags: IntervalFlag[] = [];
       if (rf.velocityMps < range[0]) flags.push('slow?');
       if (rf.velocityMps > range[1]) flags.push('fast?');
       rows.push({
         ...base,
-        method: 'ray-fit',
+        method,
         dtS: null,
         velocityMps: rf.velocityMps,
         velocitySdMps: rf.sdMps,
@@ -232,7 +242,11 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       });
     }
     // The chosen value: the user's choice for this interval, else the settings' method, else the fallback order.
-    const wanted = edits.chosenMethod[pair.key] ?? settings.intervals.profileMethod;
+    const wanted =
+      edits.chosenMethod[pair.key] ??
+      (methodApplies(settings.intervals.profileMethod, inp.kind ?? 'downhole')
+        ? settings.intervals.profileMethod
+        : DEFAULT_PROFILE_METHOD[inp.kind ?? 'downhole']);
     const valid = (r: IntervalValue) => r.velocityMps !== null;
     let chosen = rows.find((r) => r.method === wanted && valid(r));
     if (!chosen) {

@@ -1,0 +1,465 @@
+/**
+ * The bank of random layered earths (src/core/synth/randomEarth.ts): per test kind, surveys on
+ * training seeds (to choose defaults and tune) and held-out seeds (the figures reported). Each survey
+ * runs the whole pipeline with default settings; every S interval by every method is compared with the
+ * truth: the interval length over the true vertical travel time (docs/true-vs.md), and also with the
+ * velocity an onset measures (noise-free attenuated pulse, first reaching 1% of its peak).
+ *
+ * The layered-model method ('layer-model') is computed here from the pipeline's picks and delays with
+ * src/core/velocity/layering.ts until the pipeline carries it.
+ */
+import type { StationKey } from '../src/core/keys';
+import type { WaveRecord } from '../src/core/model';
+import { autoPick, derive, prepare } from '../src/core/pipeline';
+import { defaultSettings, emptyEdits } from '../src/core/settings';
+import { demoCrossholeHoles, synthesizeSurvey, type SynthGeometry, type SynthOptions } from '../src/core/synth';
+import { trueVsAt } from '../src/core/synth/earth';
+import { renderArrival } from '../src/core/synth/pulse';
+import { randomEarth, trueIntervalVsMps, verticalTimeS, verticalTStarS } from '../src/core/synth/randomEarth';
+import type { EarthModel } from '../src/core/synth/earth';
+import { blendIntervals, fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
+
+export type BankKind = 'one-receiver' | 'two-receiver' | 'cone-0.5m' | 'crosshole';
+export const BANK_KINDS: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m', 'crosshole'];
+
+/** Prior sd of a per-hit trigger offset uniform on 0-0.5 ms: 0.5 / sqrt(12) ms. */
+export const TRIGGER_OFFSET_SD_S = 0.5e-3 / Math.sqrt(12);
+const MAX_TRIGGER_OFFSET_S = 0.5e-3;
+
+export interface LayerModelTuning {
+  /** Multiplier of the BIC penalty. */
+  penaltyScale: number;
+  minThicknessM: number;
+  /** One-receiver surveys: absolute times from the onset picks or first onset + cumulative xcorr delays. */
+  timeSource: 'onset' | 'xcorr';
+  /** Floor on the sd of one time or delay, s (pick sds can be optimistic). */
+  sdFloorS: number;
+  /** Floor of the layer model's model error, share of the layer slowness. */
+  modelSdShare: number;
+}
+
+/** Chosen on training seeds with bench/tune.ts (BIC penalty x0.5-2, onset or correlation times). */
+export const DEFAULT_TUNING: LayerModelTuning = {
+  penaltyScale: 1,
+  minThicknessM: 1,
+  timeSource: 'xcorr',
+  sdFloorS: 5e-5,
+  modelSdShare: 0.06,
+};
+
+export interface IntervalResult {
+  method: string;
+  topM: number;
+  bottomM: number;
+  vsMps: number;
+  sdMps: number | null;
+  trueVsMps: number;
+  onsetVsMps: number | null;
+}
+
+interface Case {
+  kind: BankKind;
+  seed: number;
+  model: EarthModel;
+  /** Drawn layer boundaries (gradient sub-layers not counted), m. */
+  boundariesM: number[];
+  geometry: SynthGeometry;
+  options: SynthOptions;
+}
+
+function grid(a: number, b: number, step: number): number[] {
+  return Array.from({ length: Math.round((b - a) / step) + 1 }, (_, i) => Math.round((a + i * step) * 1000) / 1000);
+}
+
+export function bankCase(kind: BankKind, seed: number): Case {
+  const step = kind === 'cone-0.5m' ? 0.5 : 1;
+  const depthM = kind === 'cone-0.5m' ? 20 : kind === 'crosshole' ? 20 : 25;
+  const earth = randomEarth(seed * 7 + BANK_KINDS.indexOf(kind), { depthM, gridStepM: step });
+  const rot = ((seed * 37) % 60) / 100 - 0.3; // fixed probe azimuth per survey, -0.3..0.3 rad
+  const common = {
+    seed,
+    attenuation: true,
+    snr: 25,
+    maxTriggerDelayS: MAX_TRIGGER_OFFSET_S,
+    pToSRatio: 0.2,
+    receiverRotationRad: rot,
+    receiverTiltRad: 0.05,
+  };
+  const offset = 2 + ((seed * 13) % 6) / 10; // 2.0-2.5 m
+  let geometry: SynthGeometry;
+  let options: SynthOptions;
+  if (kind === 'crosshole') {
+    geometry = { kind: 'crosshole', holes: demoCrossholeHoles(), depthsM: grid(1, depthM, 1) };
+    options = {
+      ...common,
+      sampleIntervalS: 2.5e-5,
+      samplesPerTrace: 3072,
+      firstSampleS: -0.001,
+      sFrequencyHz: 300,
+      pFrequencyHz: 1500,
+    };
+  } else {
+    geometry =
+      kind === 'two-receiver'
+        ? {
+            kind: 'downhole-pair',
+            holeId: 'DH1',
+            upperDepthsM: grid(1, depthM - 1, 1),
+            receiverSpacingM: 1,
+            sourceOffsetM: offset,
+          }
+        : // The cone is run as a one-receiver survey at 0.5 m steps (receiver depths; the tip lies coneOffsetM below).
+          { kind: 'downhole', holeId: 'DH1', depthsM: grid(1, depthM, step), sourceOffsetM: offset };
+    options = { ...common, sampleIntervalS: 1e-4, samplesPerTrace: 4096, sFrequencyHz: 100, pFrequencyHz: 400 };
+  }
+  return { kind, seed, model: earth.model, boundariesM: earth.boundariesM, geometry, options };
+}
+
+/** Onset of the noise-free pulse after a vertical path to depth z: first time it reaches 1% of its peak. */
+function onsetTimeS(model: EarthModel, z: number, fHz: number): number {
+  const tR = verticalTimeS(model, 0, z);
+  const tStar = verticalTStarS(model, 0, z);
+  const dt = 1e-5;
+  const n = 4096;
+  const first = tR - 0.005;
+  const w = renderArrival(n, dt, first, {
+    arrivalS: tR,
+    frequencyHz: fHz,
+    attenuation: tStar > 0 ? { travelTimeS: tR, q: tR / tStar, referenceHz: fHz } : null,
+  });
+  let peak = 0;
+  for (const x of w) peak = Math.max(peak, Math.abs(x));
+  for (let i = 0; i < n; i++) if (Math.abs(w[i]) >= 0.01 * peak) return first + i * dt;
+  return tR;
+}
+
+function recordsMap(rs: WaveRecord[]): Map<string, WaveRecord> {
+  return new Map(rs.map((r) => [r.id, r]));
+}
+
+export interface SurveyRun {
+  kind: BankKind;
+  seed: number;
+  intervals: IntervalResult[];
+  layerModelNote: string | null;
+  layers: number | null;
+}
+
+/** A survey run through the pipeline once; the layered model is evaluated on it for each tuning. */
+export interface PreparedCase {
+  c: Case;
+  stations: ReturnType<typeof prepare>['stations'];
+  derived: ReturnType<typeof derive>;
+  perMethod: IntervalResult[];
+  truthOf: (top: number, bottom: number) => number;
+  onsetTruth: (top: number, bottom: number) => number | null;
+}
+
+export function prepareCase(c: Case): PreparedCase {
+  const res = synthesizeSurvey(c.model, c.geometry, c.options);
+  const settings = defaultSettings();
+  const prep = prepare(res.survey, recordsMap(res.records), settings);
+  const auto = autoPick(prep, settings);
+  const d = derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false });
+  const onsetCache = new Map<number, number>();
+  const onsetAt = (z: number) => {
+    let t = onsetCache.get(z);
+    if (t === undefined) {
+      t = onsetTimeS(c.model, z, c.options.sFrequencyHz);
+      onsetCache.set(z, t);
+    }
+    return t;
+  };
+  const truthOf = (top: number, bottom: number) =>
+    c.kind === 'crosshole' ? trueVsAt(c.model, top) : trueIntervalVsMps(c.model, top, bottom);
+  const onsetTruth = (top: number, bottom: number) =>
+    c.kind === 'crosshole' ? null : (bottom - top) / (onsetAt(bottom) - onsetAt(top));
+  const perMethod: IntervalResult[] = [];
+  for (const r of d.intervals) {
+    if (r.wave !== 'S' || r.velocityMps === null) continue;
+    perMethod.push({
+      method: r.method,
+      topM: r.topM,
+      bottomM: r.bottomM,
+      vsMps: r.velocityMps,
+      sdMps: r.velocitySdMps,
+      trueVsMps: truthOf(r.topM, r.bottomM),
+      onsetVsMps: onsetTruth(r.topM, r.bottomM),
+    });
+  }
+  return { c, stations: prep.stations, derived: d, perMethod, truthOf, onsetTruth };
+}
+
+/** The layered-model intervals of a prepared survey for one tuning. */
+export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyRun {
+  const { c, derived: d } = p;
+  const out = [...p.perMethod];
+  let note: string | null = null;
+  let layers: number | null = null;
+  if (c.kind !== 'crosshole') {
+    const obs = layerObservations(c, p.stations, d, tuning);
+    const fit = fitLayering(obs, {
+      sourceDepthM: 0,
+      mode: 'auto',
+      minThicknessM: tuning.minThicknessM,
+      intercept: true,
+      penaltyScale: tuning.penaltyScale,
+    });
+    if (!fit.ok) note = fit.reason;
+    else {
+      layers = fit.fit.layers.length;
+      const rows = d.intervals.filter((r) => r.wave === 'S' && r.method === 'xcorr');
+      const lm = rows.map((r) => layerIntervalVs(fit.fit, r.topM, r.bottomM));
+      // the interval's own correlation delay; one receiver per hit: its sd includes both hits' trigger offsets
+      const pseudo = c.kind !== 'two-receiver';
+      const own = rows.map((r) => {
+        if (r.velocityMps === null || r.velocitySdMps === null) return { v: null, sd: null };
+        const len = r.pathBM - r.pathAM;
+        const trig = pseudo ? (r.velocityMps * r.velocityMps * Math.SQRT2 * TRIGGER_OFFSET_SD_S) / len : 0;
+        const floor = (r.velocityMps * r.velocityMps * tuning.sdFloorS) / len;
+        return { v: r.velocityMps, sd: Math.hypot(r.velocitySdMps, trig, floor) };
+      });
+      const blend = blendIntervals(
+        rows.map((r, i) => ({
+          topM: r.topM,
+          bottomM: r.bottomM,
+          layerVsMps: lm[i].vsMps,
+          layerSdMps: lm[i].vsSdMps,
+          ownVsMps: own[i].v,
+          ownSdMps: own[i].sd,
+        })),
+        { modelSdShare: tuning.modelSdShare },
+      );
+      rows.forEach((r, i) => {
+        const base = {
+          topM: r.topM,
+          bottomM: r.bottomM,
+          trueVsMps: p.truthOf(r.topM, r.bottomM),
+          onsetVsMps: p.onsetTruth(r.topM, r.bottomM),
+        };
+        // the bench's own copy of the method, for tuning (bench/tune.ts); the pipeline's rows are 'layer-model'
+        out.push({ ...base, method: 'layer-model:tuned', vsMps: lm[i].vsMps, sdMps: blend[i].layerWithModelSdMps });
+        out.push({ ...base, method: 'layer-blend:tuned', vsMps: blend[i].vsMps, sdMps: blend[i].vsSdMps });
+      });
+    }
+  }
+  return { kind: c.kind, seed: c.seed, intervals: out, layerModelNote: note, layers };
+}
+
+/** One survey through the pipeline with default settings: every method as the app gives it. */
+export function runCase(c: Case): SurveyRun {
+  const p = prepareCase(c);
+  const layers = p.derived.layering.fit?.layers.length ?? null;
+  const note = c.kind === 'crosshole' ? null : p.derived.layering.reason;
+  return { kind: c.kind, seed: c.seed, intervals: p.perMethod, layerModelNote: note, layers };
+}
+
+type Derived = ReturnType<typeof derive>;
+type Stations = ReturnType<typeof prepare>['stations'];
+
+function layerObservations(c: Case, stations: Stations, d: Derived, t: LayerModelTuning): TimeObservation[] {
+  const sStations = new Map(stations.filter((s) => s.wave === 'S').map((s) => [s.key, s]));
+  const offsetOf = (key: StationKey) => {
+    const s = sStations.get(key)!;
+    return Math.hypot(s.receiverPos[0] - s.sourcePos[0], s.receiverPos[1] - s.sourcePos[1]);
+  };
+  const depthOf = (key: StationKey) => sStations.get(key)!.receiverPos[2];
+  if (c.kind === 'two-receiver') {
+    const obs: TimeObservation[] = [];
+    for (const iv of d.intervals) {
+      if (iv.wave !== 'S' || iv.method !== 'xcorr' || iv.dtS === null) continue;
+      const delay = d.delays.find((x) => x.pairKey === iv.key && x.method === 'xcorr');
+      obs.push({
+        depthAM: depthOf(iv.stationA),
+        depthBM: depthOf(iv.stationB),
+        offsetM: offsetOf(iv.stationB),
+        timeS: iv.dtS,
+        sdS: Math.hypot(delay?.uncertaintyS ?? 0, t.sdFloorS),
+      });
+    }
+    return obs;
+  }
+  // one receiver per hit: absolute times with the per-hit trigger offset as a prior (its mean is the fitted intercept)
+  const onsets = new Map<string, { timeS: number; sdS: number }>();
+  for (const p of d.picks)
+    if (p.wave === 'S' && (p.method === 'aic' || p.method === 'stalta') && p.origin !== 'excluded')
+      onsets.set(p.stationKey, { timeS: p.timeS, sdS: p.uncertaintyS });
+  const keys = [...sStations.keys()].sort((a, b) => depthOf(a) - depthOf(b));
+  const obs: TimeObservation[] = [];
+  if (t.timeSource === 'onset') {
+    for (const k of keys) {
+      const o = onsets.get(k);
+      if (!o) continue;
+      obs.push({
+        depthAM: null,
+        depthBM: depthOf(k),
+        offsetM: offsetOf(k),
+        timeS: o.timeS,
+        sdS: Math.hypot(o.sdS, TRIGGER_OFFSET_SD_S, t.sdFloorS),
+      });
+    }
+    return obs;
+  }
+  // first onset + cumulative xcorr delays
+  const delayInto = new Map<string, { delayS: number; sdS: number }>();
+  for (const iv of d.intervals)
+    if (iv.wave === 'S' && iv.method === 'xcorr' && iv.dtS !== null) {
+      const delay = d.delays.find((x) => x.pairKey === iv.key && x.method === 'xcorr');
+      delayInto.set(iv.stationB, { delayS: iv.dtS, sdS: delay?.uncertaintyS ?? 0 });
+    }
+  let time: number | null = null;
+  for (const k of keys) {
+    if (time === null) {
+      const o = onsets.get(k);
+      if (o) time = o.timeS;
+    } else {
+      const dl = delayInto.get(k);
+      if (!dl) break;
+      time += dl.delayS;
+    }
+    if (time !== null)
+      obs.push({
+        depthAM: null,
+        depthBM: depthOf(k),
+        offsetM: offsetOf(k),
+        timeS: time,
+        sdS: Math.hypot(TRIGGER_OFFSET_SD_S, t.sdFloorS),
+      });
+  }
+  return obs;
+}
+
+// ---------------------------------------------------------------- figures
+
+function quantile(xs: number[], q: number): number {
+  if (!xs.length) return NaN;
+  const s = [...xs].sort((a, b) => a - b);
+  const pos = (s.length - 1) * q;
+  const lo = Math.floor(pos);
+  const hi = Math.ceil(pos);
+  return s[lo] + (s[hi] - s[lo]) * (pos - lo);
+}
+
+export interface MethodFigures {
+  n: number;
+  medianErrPct: number;
+  p90ErrPct: number;
+  /** Against the velocity an onset measures. */
+  medianErrVsOnsetPct: number | null;
+  within1Sd: number | null;
+  within2Sd: number | null;
+}
+
+function byMethod(runs: SurveyRun[]): Map<string, IntervalResult[]> {
+  const by = new Map<string, IntervalResult[]>();
+  for (const r of runs) for (const iv of r.intervals) by.set(iv.method, [...(by.get(iv.method) ?? []), iv]);
+  return by;
+}
+
+/**
+ * Sd scale per method that makes 68% of the training intervals lie within one scaled sd of the truth
+ * (the 0.68 quantile of |error| / sd). Tuned on training seeds only.
+ */
+export function sdScales(runs: SurveyRun[]): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const [m, ivs] of byMethod(runs)) {
+    const z = ivs.filter((iv) => iv.sdMps && iv.sdMps > 0).map((iv) => Math.abs(iv.vsMps - iv.trueVsMps) / iv.sdMps!);
+    if (z.length) out[m] = Math.round(Math.max(0.3, quantile(z, 0.68)) * 100) / 100;
+  }
+  return out;
+}
+
+export function figures(runs: SurveyRun[], scales: Record<string, number> = {}): Record<string, MethodFigures> {
+  const by = byMethod(runs);
+  const out: Record<string, MethodFigures> = {};
+  for (const [m, ivs] of by) {
+    const err = ivs.map((iv) => (100 * Math.abs(iv.vsMps - iv.trueVsMps)) / iv.trueVsMps);
+    const errOn = ivs
+      .filter((iv) => iv.onsetVsMps !== null)
+      .map((iv) => (100 * Math.abs(iv.vsMps - iv.onsetVsMps!)) / iv.onsetVsMps!);
+    const withSd = ivs.filter((iv) => iv.sdMps !== null && iv.sdMps > 0);
+    const sc = scales[m] ?? 1;
+    const share = (k: number) =>
+      withSd.length
+        ? withSd.filter((iv) => Math.abs(iv.vsMps - iv.trueVsMps) <= k * sc * iv.sdMps!).length / withSd.length
+        : null;
+    const r3 = (x: number) => Math.round(x * 1000) / 1000;
+    out[m] = {
+      n: ivs.length,
+      medianErrPct: r3(quantile(err, 0.5)),
+      p90ErrPct: r3(quantile(err, 0.9)),
+      medianErrVsOnsetPct: errOn.length ? r3(quantile(errOn, 0.5)) : null,
+      within1Sd: share(1) === null ? null : r3(share(1)!),
+      within2Sd: share(2) === null ? null : r3(share(2)!),
+    };
+  }
+  return out;
+}
+
+export function seeds(split: 'training' | 'held-out', count: number): number[] {
+  const base = split === 'training' ? 1000 : 5000;
+  return Array.from({ length: count }, (_, i) => base + i);
+}
+
+export interface BankReport {
+  seedsPerSplit: number;
+  /** Per kind and method, training and held-out figures (sd scaled by the training scale). */
+  table: Record<string, Record<string, { training: MethodFigures; heldOut: MethodFigures }>>;
+  /** Held-out share of intervals with the truth within 1 and 2 (scaled) sd. */
+  calibration: Record<string, Record<string, { within1Sd: number | null; within2Sd: number | null }>>;
+  sdScale: Record<string, Record<string, number>>;
+  /** Default method per kind: lowest median + P90/2 on training seeds. */
+  defaultMethod: Record<string, string>;
+  layerModelFailures: Record<string, string[]>;
+}
+
+export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
+  const rep: BankReport = {
+    seedsPerSplit: count,
+    table: {},
+    calibration: {},
+    sdScale: {},
+    defaultMethod: {},
+    layerModelFailures: {},
+  };
+  for (const k of kinds) {
+    const train = seeds('training', count).map((s) => runCase(bankCase(k, s)));
+    const held = seeds('held-out', count).map((s) => runCase(bankCase(k, s)));
+    const scales = sdScales(train);
+    const ft = figures(train, scales);
+    const fh = figures(held, scales);
+    rep.sdScale[k] = scales;
+    rep.table[k] = {};
+    rep.calibration[k] = {};
+    for (const m of Object.keys(ft)) {
+      if (!fh[m]) continue;
+      rep.table[k][m] = { training: ft[m], heldOut: fh[m] };
+      rep.calibration[k][m] = { within1Sd: fh[m].within1Sd, within2Sd: fh[m].within2Sd };
+    }
+    const score = (f: MethodFigures) => f.medianErrPct + f.p90ErrPct / 2;
+    rep.defaultMethod[k] = Object.entries(ft)
+      .filter(([m]) => fh[m] && ft[m].n >= 0.8 * Math.max(...Object.values(ft).map((x) => x.n)))
+      .sort((a, b) => score(a[1]) - score(b[1]))[0][0];
+    rep.layerModelFailures[k] = [...train, ...held].flatMap((r) =>
+      r.layerModelNote ? [`seed ${r.seed}: ${r.layerModelNote}`] : [],
+    );
+  }
+  return rep;
+}
+
+export function printBank(rep: BankReport, log: (s: string) => void): void {
+  log(
+    `\nBank of random layered earths: ${rep.seedsPerSplit} training + ${rep.seedsPerSplit} held-out surveys per kind`,
+  );
+  log(
+    '  |error| of interval Vs against the truth (length / true vertical time), median / P90 %; calibration held-out (sd x training scale)',
+  );
+  for (const [k, rows] of Object.entries(rep.table)) {
+    log(`  ${k} (default on training: ${rep.defaultMethod[k]})`);
+    for (const [m, r] of Object.entries(rows))
+      log(
+        `    ${m.padEnd(14)} training ${r.training.medianErrPct.toFixed(2).padStart(6)} / ${r.training.p90ErrPct.toFixed(2).padStart(6)}   held-out ${r.heldOut.medianErrPct.toFixed(2).padStart(6)} / ${r.heldOut.p90ErrPct.toFixed(2).padStart(6)}   vs onset velocity ${r.heldOut.medianErrVsOnsetPct?.toFixed(2) ?? '  -  '}   within 1 sd ${r.heldOut.within1Sd ?? '-'}  2 sd ${r.heldOut.within2Sd ?? '-'}  (scale ${rep.sdScale[k][m] ?? 1})  n=${r.heldOut.n}`,
+      );
+    if (rep.layerModelFailures[k].length) log(`    layer model not made: ${rep.layerModelFailures[k].join('; ')}`);
+  }
+}
