@@ -1,0 +1,277 @@
+/**
+ * Builds the report's plain data (./data) from the pipeline's result. The only file of the report that
+ * knows the pipeline's shapes: when they move, this adapts and the figures and document stay as they are.
+ */
+import type { Survey } from '../model';
+import type { Derived, Prepared } from '../pipeline';
+import { stationWaveKey, type Settings, type UserEdits } from '../settings';
+import { STANDARD_NAMES } from '../stiffness/site';
+import { toDisplay, unitSpec, type UnitSystem } from '../units';
+import type { ReportData, ReportInterval, ReportPickOrigin, ReportSetting, ReportWave } from './data';
+import { EXPORT_CAUTIONS } from './tables';
+
+export const TEST_KIND_WORDS: Record<string, string> = {
+  downhole: 'Downhole, one receiver (ASTM D7400)',
+  'downhole-pair': 'Downhole, two receivers (true interval, ASTM D7400)',
+  crosshole: 'Crosshole (ASTM D4428/D4428M)',
+  'seismic-cone': 'Seismic cone downhole (ASTM D7400)',
+};
+
+export const METHOD_WORDS: Record<string, string> = {
+  onset: 'onset',
+  peak: 'first peak',
+  trough: 'first trough',
+  'zero-crossing': 'zero crossing',
+  xcorr: 'cross-correlation',
+  phase: 'phase slope',
+  'ray-fit': 'refracted-ray fit',
+};
+
+const ONSET_PICKS = new Set(['aic', 'stalta', 'manual']);
+
+export interface ReportInputs {
+  survey: Survey;
+  settings: Settings;
+  edits: UserEdits;
+  prepared: Prepared;
+  derived: Derived;
+  units: UnitSystem;
+  softwareVersion: string;
+  /** ISO 8601; the caller's clock (kept out of the core). */
+  madeAt: string;
+}
+
+/** Set-up problems that block Vs30 and the class, where the result carries them (site or top level). */
+export function setupProblemsOf(derived: Derived): string[] {
+  const found: unknown[] = [];
+  for (const holder of [derived.site as object, derived as object]) {
+    if ('setupProblems' in holder) {
+      const v = (holder as { setupProblems: unknown }).setupProblems;
+      if (Array.isArray(v)) found.push(...v);
+    }
+  }
+  return found
+    .map((p) =>
+      typeof p === 'string'
+        ? p
+        : p && typeof p === 'object' && 'message' in p
+          ? String((p as { message: unknown }).message) +
+            ('fix' in p && (p as { fix: unknown }).fix ? ` Fix: ${String((p as { fix: unknown }).fix)}` : '')
+          : '',
+    )
+    .filter(Boolean);
+}
+
+function optionalText(o: object, key: string): string | null {
+  if (!(key in o)) return null;
+  const v = (o as Record<string, unknown>)[key];
+  return typeof v === 'string' && v.trim() ? v.trim() : null;
+}
+
+function holesOf(survey: Survey): string[] {
+  return survey.kind === 'crosshole'
+    ? [survey.mainHoleId, ...survey.receiverHoleIds].filter(Boolean)
+    : [survey.mainHoleId].filter(Boolean);
+}
+
+function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSetting[] {
+  // Settings are shown as entered (not rounded to the reporting digits), free of conversion noise.
+  const plain = (x: number) => String(Number(x.toPrecision(6)));
+  const dist = (m: number) => `${plain(toDisplay('depth', units, m))} ${unitSpec('depth', units).label}`;
+  const vel = (v: number) => `${plain(toDisplay('velocity', units, v))} ${unitSpec('velocity', units).label}`;
+  const band = (b: Settings['bandpassS']) => (b ? `${b.lowHz}–${b.highHz} Hz, order ${b.order}` : 'none');
+  const rows: ReportSetting[] = [
+    { label: 'Profile method', value: METHOD_WORDS[s.profileMethod] ?? s.profileMethod },
+    { label: 'Onset picker', value: s.onsetMethod === 'aic' ? 'AIC (Maeda 1985)' : 'STA/LTA (Allen 1978)' },
+    { label: 'Reversed hits', value: s.useReversedHits ? 'S from their difference, P from their sum' : 'not used' },
+    { label: 'Band-pass S / P', value: `${band(s.bandpassS)} / ${band(s.bandpassP)}` },
+    { label: 'Plausible Vs range', value: `${vel(s.vsRangeMps[0])} – ${vel(s.vsRangeMps[1])}` },
+    { label: 'Plausible Vp range', value: `${vel(s.vpRangeMps[0])} – ${vel(s.vpRangeMps[1])}` },
+    {
+      label: '“Methods differ” when other methods differ by more than',
+      value: `${plain(s.methodDisagreementShare * 100)} %`,
+    },
+    { label: 'Position uncertainty (each end)', value: dist(s.positionSdM) },
+  ];
+  if (survey.kind === 'crosshole')
+    rows.push({ label: 'Trigger delay t0', value: `${plain(s.triggerDelayS * 1000)} ms` });
+  else {
+    rows.push({
+      label: 'Source offset / depth',
+      value: `${dist(survey.sourceOffsetM)} / ${dist(survey.sourceDepthM)}`,
+    });
+    if (survey.kind === 'downhole-pair') rows.push({ label: 'Receiver spacing', value: dist(survey.receiverSpacingM) });
+    rows.push({ label: 'Refracted-ray layer fit', value: s.rayFit ? 'on' : 'off' });
+  }
+  rows.push({
+    label: 'Layer boundaries',
+    value: s.layerBoundariesM.length ? s.layerBoundariesM.map(dist).join(', ') : 'from the soil column',
+  });
+  rows.push({
+    label: 'Water table',
+    value: survey.soil.waterTableM === null ? 'none given' : dist(survey.soil.waterTableM),
+  });
+  rows.push({
+    label: 'Vs30 when the profile is shorter than 30 m',
+    value: s.vs30Rule === 'extend-deepest' ? 'deepest velocity extended to 30 m' : 'averaged over the measured depth',
+  });
+  rows.push({ label: 'Monte Carlo draws / seed', value: `${s.monteCarloDraws} / ${s.monteCarloSeed}` });
+  const yes = Object.entries(s.siteAnswers)
+    .filter(([, v]) => v)
+    .map(([k]) => k);
+  rows.push({ label: 'Site questions answered yes', value: yes.length ? yes.join(', ') : 'none' });
+  rows.push({
+    label: 'Hand edits',
+    value: '',
+  });
+  return rows;
+}
+
+function intervalRows(derived: Derived, settings: Settings): ReportInterval[] {
+  const byKey = new Map<string, Derived['intervals']>();
+  for (const r of derived.intervals) byKey.set(r.key, [...(byKey.get(r.key) ?? []), r]);
+  const out: ReportInterval[] = [];
+  for (const rows of byKey.values()) {
+    const chosen = rows.find((r) => r.chosen);
+    const used = chosen ?? rows.find((r) => r.method === settings.profileMethod) ?? rows[0];
+    const others = rows
+      .filter((r) => r !== used && r.velocityMps !== null && Number.isFinite(r.velocityMps))
+      .map((r) => r.velocityMps as number);
+    out.push({
+      wave: used.wave,
+      topM: used.topM,
+      bottomM: used.bottomM,
+      method: METHOD_WORDS[used.method] ?? used.method,
+      dtS: used.dtS,
+      velocityMps: used.velocityMps,
+      velocitySdMps: used.velocitySdMps,
+      otherMethodsMps: others.length ? [Math.min(...others), Math.max(...others)] : null,
+      flags: chosen ? [...used.flags] : [...used.flags, 'left out of the profile'],
+    });
+  }
+  return out.sort(
+    (a, b) => (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.topM - b.topM || a.bottomM - b.bottomM,
+  );
+}
+
+export function reportDataFrom(inp: ReportInputs): ReportData {
+  const { survey, settings, edits, prepared, derived, units } = inp;
+  const excluded = new Set(edits.excludedStations);
+  const onset = new Map<string, { timeS: number; origin: ReportPickOrigin }>();
+  for (const p of derived.picks)
+    if (ONSET_PICKS.has(p.method) && Number.isFinite(p.timeS))
+      onset.set(stationWaveKey(p.stationKey, p.wave), { timeS: p.timeS, origin: p.origin });
+  const traces = prepared.stations.map((s) => {
+    const k = stationWaveKey(s.key, s.wave);
+    return {
+      depthM: s.depthM,
+      wave: s.wave as ReportWave,
+      receiver: s.receiver,
+      samples: s.working.samples,
+      sampleIntervalS: s.working.sampleIntervalS,
+      delayS: s.working.delayS,
+      pick: onset.get(k) ?? null,
+      excluded: excluded.has(k),
+    };
+  });
+  const travel = derived.travelTimes
+    .filter((r) => r.times.onset)
+    .map((r) => ({
+      depthM: r.depthM,
+      pathM: r.pathM,
+      wave: r.wave as ReportWave,
+      receiver: r.receiver,
+      timeS: r.times.onset!.timeS,
+      origin: r.times.onset!.origin,
+    }));
+  const layerFits: ReportData['layerFits'] = derived.layerFits.map((f) => ({
+    wave: f.wave,
+    topM: f.topM,
+    bottomM: f.bottomM,
+    method: `straight-line fit (${METHOD_WORDS[f.method] ?? f.method})`,
+    velocityMps: f.velocityMps,
+    velocitySdMps: f.velocitySdMps,
+    interceptS: f.interceptS,
+    stations: f.stations,
+    rmsMisfitS: f.rmsResidualS,
+    flags: f.velocitySdMps === null ? ['two stations: no sd'] : [],
+  }));
+  if (derived.layerModel)
+    for (const l of derived.layerModel.layers)
+      layerFits.push({
+        wave: 'S',
+        topM: l.topM,
+        bottomM: l.bottomM,
+        method: 'refracted-ray fit (onset)',
+        velocityMps: l.velocityMps,
+        velocitySdMps: l.velocitySdMps,
+        interceptS: null,
+        stations: l.receivers,
+        rmsMisfitS: derived.layerModel.rmsMisfitS,
+        flags: derived.layerModel.converged ? [] : ['not converged'],
+      });
+  const v = derived.site.vs30;
+  const u = derived.site.uncertainty;
+  const setupProblems = setupProblemsOf(derived);
+  const settingRows = settingsRows(survey, settings, units);
+  const edited = Object.keys(edits.picks).length;
+  settingRows[settingRows.length - 1].value =
+    `${edited} pick${edited === 1 ? '' : 's'} set by hand, ${edits.excludedStations.length} station${edits.excludedStations.length === 1 ? '' : 's'} excluded, ` +
+    `${Object.keys(edits.chosenMethod).length} interval method${Object.keys(edits.chosenMethod).length === 1 ? '' : 's'} chosen, ${edits.excludedIntervals.length} interval${edits.excludedIntervals.length === 1 ? '' : 's'} left out`;
+  return {
+    title: {
+      project: survey.name,
+      site: optionalText(survey, 'siteName'),
+      holes: holesOf(survey),
+      testKind: TEST_KIND_WORDS[survey.kind] ?? survey.kind,
+      testDate: optionalText(survey, 'testDate'),
+      units,
+      softwareVersion: inp.softwareVersion,
+      madeAt: inp.madeAt,
+    },
+    settings: settingRows,
+    traces,
+    travel,
+    layerFits,
+    intervals: intervalRows(derived, settings),
+    profile: derived.profile.map((r) => ({
+      topM: r.topM,
+      bottomM: r.bottomM,
+      vsMps: r.vsMps,
+      vsSdMps: r.vsSdMps,
+      vpMps: r.vpMps,
+      vpSdMps: r.vpSdMps,
+      gmaxKpa: r.gmaxKpa,
+      gmaxSdKpa: r.gmaxSdKpa,
+      vs1Mps: r.vs1Mps,
+      sigmaVEffKpa: r.sigmaVEffKpa,
+      densityMgM3: r.densityMgM3,
+      poissonRatio: r.poissonRatio,
+      method: METHOD_WORDS[r.method] ?? r.method,
+      flags: [...r.flags],
+    })),
+    waterTableM: survey.soil.waterTableM,
+    site: {
+      setupProblems,
+      vs30Mps: setupProblems.length ? null : (v?.vsMps ?? null),
+      toDepthM: v?.toDepthM ?? null,
+      profileDepthM: v?.profileDepthM ?? null,
+      extended: v?.extended ?? false,
+      flags: v?.flags ?? [],
+      spread:
+        u && !setupProblems.length
+          ? { p05Mps: u.vs30P05Mps, p50Mps: u.vs30P50Mps, p95Mps: u.vs30P95Mps, draws: settings.monteCarloDraws }
+          : null,
+      classes: setupProblems.length
+        ? []
+        : derived.site.classes.map((k) => ({
+            standard: STANDARD_NAMES[k.standard] ?? k.standard,
+            siteClass: k.siteClass,
+            probabilities: Object.entries(u?.classProbabilities[k.standard] ?? {}).sort((a, b) => b[1] - a[1]),
+            basis: k.basis,
+          })),
+    },
+    notes: [...new Set(derived.issues.map((i) => `${i.file ? `${i.file}: ` : ''}${i.message}`))].slice(0, 60),
+    cautions: [...EXPORT_CAUTIONS],
+  };
+}
