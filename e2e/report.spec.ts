@@ -6,7 +6,6 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import { readFileSync } from 'node:fs';
-import { version } from '../package.json';
 import { makeReport } from '../src/cli/report';
 import type { WaveRecord } from '../src/core/model';
 import { readWaveFile } from '../src/core/io/readers';
@@ -16,6 +15,8 @@ import { reportHtml } from '../src/core/report/html';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { externalReferences } from '../test/helpers/external';
 import { appState, waitProcessed } from './helpers';
+
+const version = String(JSON.parse(readFileSync('package.json', 'utf8')).version);
 
 /** Pages in a PDF made by Chromium (one /Type /Page object per page). */
 function pdfPages(pdf: Buffer): number {

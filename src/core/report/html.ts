@@ -145,7 +145,9 @@ function siteSection(d: ReportData): string {
       ]),
     ),
   );
-  for (const k of s.classes) if (k.basis) out.push(`<p class="muted">${esc(k.basis)}</p>`);
+  out.push(
+    '<p class="muted">Classes from the measured Vs30 only, with the questions beyond Vs30 answered as listed under the settings.</p>',
+  );
   return out.join('');
 }
 
