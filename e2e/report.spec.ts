@@ -5,7 +5,7 @@
  * references; an exported profile PNG is at least 2,000 px wide.
  */
 import { expect, test, type Page } from '@playwright/test';
-import { readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { makeReport } from '../src/cli/report';
 import type { WaveRecord } from '../src/core/model';
 import { readWaveFile } from '../src/core/io/readers';
@@ -14,7 +14,7 @@ import { reportDataFrom } from '../src/core/report/adapter';
 import { reportHtml } from '../src/core/report/html';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { externalReferences } from '../test/helpers/external';
-import { appState, waitProcessed } from './helpers';
+import { appState, SCREENS, waitProcessed } from './helpers';
 
 const version = String(JSON.parse(readFileSync('package.json', 'utf8')).version);
 
@@ -87,6 +87,8 @@ test('"Report…" opens the core report; its PDF has the same pages; the profile
   const [dl] = await Promise.all([page.waitForEvent('download'), page.getByTestId('figure-png-profile').click()]);
   expect(dl.suggestedFilename()).toMatch(/profile\.png$/);
   const png = readFileSync((await dl.path())!);
+  mkdirSync(SCREENS, { recursive: true });
+  writeFileSync(`${SCREENS}/report-profile.png`, png);
   expect(png.subarray(1, 4).toString('latin1')).toBe('PNG');
   const width = png.readUInt32BE(16);
   const height = png.readUInt32BE(20);

@@ -23,6 +23,7 @@ describe('CLI report of each demo survey (issue 17 checks)', () => {
         expect(html).toContain(`data-figure="${id}"`);
       expect(html).toMatch(CAUTION);
       expect(externalReferences(html)).toEqual([]);
+      expect(html).not.toMatch(/NaN|Infinity|undefined/);
       expect(html).toContain('@page { size: A4 portrait');
       expect(html).toMatch(/figure \{[^}]*break-inside: avoid/);
       expect(html.includes('<p class="big">Vs30 =')).toBe(true);
@@ -117,6 +118,46 @@ describe('report from a forward-model survey', () => {
     const inline = html.slice(html.indexOf('<svg '), html.indexOf('</svg>') + 6);
     expect(inline).not.toContain('xmlns');
     expect(standaloneSvg(inline)).toMatch(/^<\?xml[^>]*>\n<svg xmlns="http:\/\/www.w3.org\/2000\/svg" /);
+  });
+});
+
+describe('a survey with nothing computed yet still gives a whole document', () => {
+  it('four figures, the cautions, no NaN', () => {
+    const html = reportHtml({
+      title: {
+        project: 'Empty',
+        site: null,
+        holes: [],
+        testKind: 'Downhole',
+        testDate: null,
+        units: 'US',
+        softwareVersion: 'x',
+        madeAt: '2026-12-02T10:00:00.000Z',
+      },
+      settings: [],
+      traces: [],
+      travel: [],
+      layerFits: [],
+      intervals: [],
+      profile: [],
+      waterTableM: null,
+      site: {
+        setupProblems: [],
+        vs30Mps: null,
+        toDepthM: null,
+        profileDepthM: null,
+        extended: false,
+        flags: [],
+        spread: null,
+        classes: [],
+      },
+      notes: [],
+      cautions: ['Review by a qualified professional; local codes govern.'],
+    });
+    expect((html.match(/<svg /g) ?? []).length).toBe(4);
+    expect(html).not.toMatch(/NaN|Infinity|undefined/);
+    expect(html).toContain('No time-averaged velocity');
+    expect(html).toMatch(CAUTION);
   });
 });
 
