@@ -25,8 +25,8 @@ function pdfPages(pdf: Buffer): number {
 
 /** Text of the report without the line that differs between two runs (when it was made). */
 async function reportText(p: Page): Promise<string> {
-  const text = await p.evaluate(() => document.body.innerText);
-  return text.replace(/Report made[^\n]*\n/, '');
+  const text = await p.evaluate(() => document.body.textContent ?? '');
+  return text.replace(/Report made\d{4}-\d\d-\d\d \d\d:\d\d:\d\d UTC/, 'Report made');
 }
 
 async function pdfOf(p: Page): Promise<Buffer> {
