@@ -316,7 +316,7 @@ export function ExportSheet() {
         </tbody>
       </table>
       <h3>Plots as on screen</h3>
-      <table className="plain">
+      <table className="plain screen-plots">
         <tbody>
           {Object.entries(PLOT_NAMES).map(([k, title]) => (
             <tr key={k}>
