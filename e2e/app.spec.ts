@@ -192,7 +192,10 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   expect([...readFileSync((await png.path())!).subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
   const [svg] = await Promise.all([
     page.waitForEvent('download'),
-    page.locator('.sheet table.screen-plots tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click(),
+    page
+      .locator('.sheet table.screen-plots tr', { hasText: 'Trace board' })
+      .getByRole('button', { name: 'SVG' })
+      .click(),
   ]);
   expect(readFileSync((await svg.path())!, 'utf8')).toContain('<svg');
   // The project archive holds the 60 files unchanged and the current edits (read back with the core).
