@@ -13,7 +13,7 @@ import { loadProject } from '../core/io/project';
 import { runPipeline } from '../core/pipeline';
 import { reportDataFrom } from '../core/report/adapter';
 import { reportHtml, type Paper } from '../core/report/html';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/settings';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
 import type { UnitSystem } from '../core/units';
 import type { CliIo } from './inspect';
 import { openFolder } from './profile';

@@ -2,32 +2,32 @@
  * Builds the report's plain data (./data) from the pipeline's result. The only file of the report that
  * knows the pipeline's shapes: when they move, this adapts and the figures and document stay as they are.
  */
+import { isOnsetPick, methodInfo, isIntervalMethod } from '../catalogue/methods';
+import { hasDirectVelocities, kindInfo, receiverCountOf, receiverLabel } from '../catalogue/testKinds';
+import { isReceiverSlot, stationWaveKey } from '../keys';
 import type { Survey } from '../model';
 import type { Derived, Prepared } from '../pipeline';
-import { stationWaveKey, type Settings, type UserEdits } from '../settings';
+import type { Settings, UserEdits } from '../settings';
 import { STANDARD_NAMES } from '../stiffness/site';
 import { toDisplay, unitSpec, type UnitSystem } from '../units';
 import type { ReportData, ReportInterval, ReportPickOrigin, ReportSetting, ReportWave } from './data';
 import { EXPORT_CAUTIONS } from './tables';
 
-export const TEST_KIND_WORDS: Record<string, string> = {
-  downhole: 'Downhole, one receiver (ASTM D7400)',
-  'downhole-pair': 'Downhole, two receivers (true interval, ASTM D7400)',
-  crosshole: 'Crosshole (ASTM D4428/D4428M)',
-  'seismic-cone': 'Seismic cone downhole (ASTM D7400)',
-};
+/** Test kind in words with the standard it follows (the catalogue's name). */
+export function testKindWords(survey: Survey): string {
+  const info = kindInfo(survey.kind);
+  return `${info.label} (${info.sourceInHole ? 'ASTM D4428/D4428M' : 'ASTM D7400'})`;
+}
 
-export const METHOD_WORDS: Record<string, string> = {
-  onset: 'onset',
-  peak: 'first peak',
-  trough: 'first trough',
-  'zero-crossing': 'zero crossing',
-  xcorr: 'cross-correlation',
-  phase: 'phase slope',
-  'ray-fit': 'refracted-ray fit',
-};
+/** A method in words, from the method catalogue. */
+export function methodWords(id: string): string {
+  return isIntervalMethod(id) ? methodInfo(id).label : id;
+}
 
-const ONSET_PICKS = new Set(['aic', 'stalta', 'manual']);
+/** A receiver slot as the user names it ("upper", "near B2"); other text as it is. */
+function receiverWords(survey: Survey, receiver: string): string {
+  return isReceiverSlot(receiver) ? receiverLabel(survey, receiver) : receiver;
+}
 
 export interface ReportInputs {
   survey: Survey;
@@ -69,7 +69,7 @@ function optionalText(o: object, key: string): string | null {
 }
 
 function holesOf(survey: Survey): string[] {
-  return survey.kind === 'crosshole'
+  return hasDirectVelocities(survey.kind)
     ? [survey.mainHoleId, ...survey.receiverHoleIds].filter(Boolean)
     : [survey.mainHoleId].filter(Boolean);
 }
@@ -81,7 +81,7 @@ function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSet
   const vel = (v: number) => `${plain(toDisplay('velocity', units, v))} ${unitSpec('velocity', units).label}`;
   const band = (b: Settings['bandpassS']) => (b ? `${b.lowHz}–${b.highHz} Hz, order ${b.order}` : 'none');
   const rows: ReportSetting[] = [
-    { label: 'Profile method', value: METHOD_WORDS[s.profileMethod] ?? s.profileMethod },
+    { label: 'Profile method', value: methodWords(s.profileMethod) },
     { label: 'Onset picker', value: s.onsetMethod === 'aic' ? 'AIC (Maeda 1985)' : 'STA/LTA (Allen 1978)' },
     { label: 'Reversed hits', value: s.useReversedHits ? 'S from their difference, P from their sum' : 'not used' },
     { label: 'Band-pass S / P', value: `${band(s.bandpassS)} / ${band(s.bandpassP)}` },
@@ -93,14 +93,16 @@ function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSet
     },
     { label: 'Position uncertainty (each end)', value: dist(s.positionSdM) },
   ];
-  if (survey.kind === 'crosshole')
+  if (hasDirectVelocities(survey.kind))
     rows.push({ label: 'Trigger delay t0', value: `${plain(s.triggerDelayS * 1000)} ms` });
   else {
     rows.push({
       label: 'Source offset / depth',
       value: `${dist(survey.sourceOffsetM)} / ${dist(survey.sourceDepthM)}`,
     });
-    if (survey.kind === 'downhole-pair') rows.push({ label: 'Receiver spacing', value: dist(survey.receiverSpacingM) });
+    if (receiverCountOf(survey) === 2) rows.push({ label: 'Receiver spacing', value: dist(survey.receiverSpacingM) });
+    if (kindInfo(survey.kind).tipLogged)
+      rows.push({ label: 'Receiver above the cone tip', value: dist(survey.coneOffsetM) });
     rows.push({ label: 'Refracted-ray layer fit', value: s.rayFit ? 'on' : 'off' });
   }
   rows.push({
@@ -141,7 +143,7 @@ function intervalRows(derived: Derived, settings: Settings): ReportInterval[] {
       wave: used.wave,
       topM: used.topM,
       bottomM: used.bottomM,
-      method: METHOD_WORDS[used.method] ?? used.method,
+      method: methodWords(used.method),
       dtS: used.dtS,
       velocityMps: used.velocityMps,
       velocitySdMps: used.velocitySdMps,
@@ -159,14 +161,14 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
   const excluded = new Set(edits.excludedStations);
   const onset = new Map<string, { timeS: number; origin: ReportPickOrigin }>();
   for (const p of derived.picks)
-    if (ONSET_PICKS.has(p.method) && Number.isFinite(p.timeS))
+    if (isOnsetPick(p) && Number.isFinite(p.timeS))
       onset.set(stationWaveKey(p.stationKey, p.wave), { timeS: p.timeS, origin: p.origin });
   const traces = prepared.stations.map((s) => {
     const k = stationWaveKey(s.key, s.wave);
     return {
       depthM: s.depthM,
       wave: s.wave as ReportWave,
-      receiver: s.receiver,
+      receiver: receiverWords(survey, s.receiver),
       samples: s.working.samples,
       sampleIntervalS: s.working.sampleIntervalS,
       delayS: s.working.delayS,
@@ -180,7 +182,7 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
       depthM: r.depthM,
       pathM: r.pathM,
       wave: r.wave as ReportWave,
-      receiver: r.receiver,
+      receiver: receiverWords(survey, r.receiver),
       timeS: r.times.onset!.timeS,
       origin: r.times.onset!.origin,
     }));
@@ -188,7 +190,7 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
     wave: f.wave,
     topM: f.topM,
     bottomM: f.bottomM,
-    method: `straight-line fit (${METHOD_WORDS[f.method] ?? f.method})`,
+    method: `straight-line fit (${methodWords(f.method)})`,
     velocityMps: f.velocityMps,
     velocitySdMps: f.velocitySdMps,
     interceptS: f.interceptS,
@@ -223,7 +225,7 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
       project: survey.name,
       site: optionalText(survey, 'siteName'),
       holes: holesOf(survey),
-      testKind: TEST_KIND_WORDS[survey.kind] ?? survey.kind,
+      testKind: testKindWords(survey),
       testDate: optionalText(survey, 'testDate'),
       units,
       softwareVersion: inp.softwareVersion,
@@ -247,7 +249,7 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
       sigmaVEffKpa: r.sigmaVEffKpa,
       densityMgM3: r.densityMgM3,
       poissonRatio: r.poissonRatio,
-      method: METHOD_WORDS[r.method] ?? r.method,
+      method: methodWords(r.method),
       flags: [...r.flags],
     })),
     waterTableM: survey.soil.waterTableM,
