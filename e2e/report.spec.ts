@@ -5,7 +5,7 @@
  * references; an exported profile PNG is at least 2,000 px wide.
  */
 import { expect, test, type Page } from '@playwright/test';
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { makeReport } from '../src/cli/report';
 import type { WaveRecord } from '../src/core/model';
 import { readWaveFile } from '../src/core/io/readers';
@@ -17,6 +17,9 @@ import { externalReferences } from '../test/helpers/external';
 import { appState, SCREENS, waitProcessed } from './helpers';
 
 const version = String(JSON.parse(readFileSync('package.json', 'utf8')).version);
+
+/** Every demo survey in sample-data (one folder per test kind, each with its project.zip). */
+const DEMO_SURVEYS = readdirSync('sample-data').filter((d) => existsSync(`sample-data/${d}/project.zip`));
 
 /** Pages in a PDF made by Chromium (one /Type /Page object per page). */
 function pdfPages(pdf: Buffer): number {
@@ -101,7 +104,7 @@ test('"Report…" opens the core report; its PDF has the same pages; the profile
 });
 
 test('each demo survey: the command-line report prints to at least 2 pages (A4 and Letter)', async ({ page }) => {
-  for (const kind of ['downhole', 'downhole-pair', 'crosshole']) {
+  for (const kind of DEMO_SURVEYS) {
     for (const paper of ['A4', 'Letter'] as const) {
       const { html } = makeReport(`sample-data/${kind}/project.zip`, { paper });
       expect(externalReferences(html)).toEqual([]);

@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -12,10 +12,16 @@ import { externalReferences } from '../helpers/external';
 import { defaultSettings, emptyEdits } from '../../src/core/settings';
 import { demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
 
+/** Every demo survey in sample-data (one folder per test kind, each with its project.zip). */
+const DEMO_SURVEYS = readdirSync('sample-data').filter((d) => existsSync(`sample-data/${d}/project.zip`));
+
 const CAUTION = /qualified professional[^<]*local codes/;
 
 describe('CLI report of each demo survey (issue 17 checks)', () => {
-  for (const kind of ['downhole', 'downhole-pair', 'crosshole']) {
+  it('finds the demo surveys', () => {
+    expect(DEMO_SURVEYS.length).toBeGreaterThanOrEqual(3);
+  });
+  for (const kind of DEMO_SURVEYS) {
     it(`${kind}: at least 3 SVG figures, the caution, no external references`, () => {
       const { html } = makeReport(`sample-data/${kind}/project.zip`, { madeAt: '2026-12-02T10:00:00.000Z' });
       expect((html.match(/<svg /g) ?? []).length).toBeGreaterThanOrEqual(3);
