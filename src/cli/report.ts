@@ -57,7 +57,9 @@ export function makeReport(
     ? openFolder(input)
     : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
   const project = loadProject(opened, basename(input));
-  const settings = o.method ? { ...project.settings, profileMethod: o.method } : project.settings;
+  const settings = o.method
+    ? { ...project.settings, intervals: { ...project.settings.intervals, profileMethod: o.method } }
+    : project.settings;
   const result = runPipeline({
     survey: project.survey,
     records: project.records,

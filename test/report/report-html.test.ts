@@ -37,6 +37,11 @@ describe('CLI report of each demo survey (issue 17 checks)', () => {
       expect(html.length).toBeLessThan(2_500_000);
     });
   }
+  it('--method sets the profile method the report states and uses', () => {
+    const { html } = makeReport('sample-data/downhole/project.zip', { method: 'onset' });
+    expect(html).toContain('<tr><th>Profile method</th><td>onset</td></tr>');
+    expect(html).toMatch(/<td>S<\/td><td>onset<\/td>/);
+  });
   it('the scanner itself finds each kind of external reference', () => {
     expect(externalReferences('<a href="https://x.org">')).toHaveLength(2);
     expect(externalReferences('<img src="a.png">')).toHaveLength(2);

@@ -8,7 +8,7 @@ import { isReceiverSlot, stationWaveKey } from '../keys';
 import type { Survey } from '../model';
 import type { Derived, Prepared } from '../pipeline';
 import type { Settings, UserEdits } from '../settings';
-import { STANDARD_NAMES } from '../stiffness/site';
+import { STANDARD_NAMES } from '../site/classes';
 import { toDisplay, unitSpec, type UnitSystem } from '../units';
 import type { ReportData, ReportInterval, ReportPickOrigin, ReportSetting, ReportWave } from './data';
 import { EXPORT_CAUTIONS } from './tables';
@@ -79,22 +79,26 @@ function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSet
   const plain = (x: number) => String(Number(x.toPrecision(6)));
   const dist = (m: number) => `${plain(toDisplay('depth', units, m))} ${unitSpec('depth', units).label}`;
   const vel = (v: number) => `${plain(toDisplay('velocity', units, v))} ${unitSpec('velocity', units).label}`;
-  const band = (b: Settings['bandpassS']) => (b ? `${b.lowHz}–${b.highHz} Hz, order ${b.order}` : 'none');
+  const band = (b: Settings['conditioning']['bandpassS']) =>
+    b ? `${b.lowHz}–${b.highHz} Hz, order ${b.order}` : 'none';
   const rows: ReportSetting[] = [
-    { label: 'Profile method', value: methodWords(s.profileMethod) },
-    { label: 'Onset picker', value: s.onsetMethod === 'aic' ? 'AIC (Maeda 1985)' : 'STA/LTA (Allen 1978)' },
-    { label: 'Reversed hits', value: s.useReversedHits ? 'S from their difference, P from their sum' : 'not used' },
-    { label: 'Band-pass S / P', value: `${band(s.bandpassS)} / ${band(s.bandpassP)}` },
-    { label: 'Plausible Vs range', value: `${vel(s.vsRangeMps[0])} – ${vel(s.vsRangeMps[1])}` },
-    { label: 'Plausible Vp range', value: `${vel(s.vpRangeMps[0])} – ${vel(s.vpRangeMps[1])}` },
+    { label: 'Profile method', value: methodWords(s.intervals.profileMethod) },
+    { label: 'Onset picker', value: s.picking.onsetMethod === 'aic' ? 'AIC (Maeda 1985)' : 'STA/LTA (Allen 1978)' },
+    {
+      label: 'Reversed hits',
+      value: s.conditioning.useReversedHits ? 'S from their difference, P from their sum' : 'not used',
+    },
+    { label: 'Band-pass S / P', value: `${band(s.conditioning.bandpassS)} / ${band(s.conditioning.bandpassP)}` },
+    { label: 'Plausible Vs range', value: `${vel(s.picking.vsRangeMps[0])} – ${vel(s.picking.vsRangeMps[1])}` },
+    { label: 'Plausible Vp range', value: `${vel(s.picking.vpRangeMps[0])} – ${vel(s.picking.vpRangeMps[1])}` },
     {
       label: '“Methods differ” when other methods differ by more than',
-      value: `${plain(s.methodDisagreementShare * 100)} %`,
+      value: `${plain(s.intervals.methodDisagreementShare * 100)} %`,
     },
-    { label: 'Position uncertainty (each end)', value: dist(s.positionSdM) },
+    { label: 'Position uncertainty (each end)', value: dist(s.intervals.positionSdM) },
   ];
   if (hasDirectVelocities(survey.kind))
-    rows.push({ label: 'Trigger delay t0', value: `${plain(s.triggerDelayS * 1000)} ms` });
+    rows.push({ label: 'Trigger delay t0', value: `${plain(s.intervals.triggerDelayS * 1000)} ms` });
   else {
     rows.push({
       label: 'Source offset / depth',
@@ -103,11 +107,14 @@ function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSet
     if (receiverCountOf(survey) === 2) rows.push({ label: 'Receiver spacing', value: dist(survey.receiverSpacingM) });
     if (kindInfo(survey.kind).tipLogged)
       rows.push({ label: 'Receiver above the cone tip', value: dist(survey.coneOffsetM) });
-    rows.push({ label: 'Refracted-ray layer fit', value: s.rayFit ? 'on' : 'off' });
+    rows.push({ label: 'Refracted-ray layer fit', value: s.intervals.rayFit ? 'on' : 'off' });
   }
   rows.push({
     label: 'Layer boundaries',
-    value: s.layerBoundariesM.length ? s.layerBoundariesM.map(dist).join(', ') : 'from the soil column',
+    value:
+      s.layering.mode === 'user' && s.layering.boundariesM.length
+        ? s.layering.boundariesM.map(dist).join(', ')
+        : 'from the soil column',
   });
   rows.push({
     label: 'Water table',
@@ -115,10 +122,11 @@ function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSet
   });
   rows.push({
     label: 'Vs30 when the profile is shorter than 30 m',
-    value: s.vs30Rule === 'extend-deepest' ? 'deepest velocity extended to 30 m' : 'averaged over the measured depth',
+    value:
+      s.site.vs30Rule === 'extend-deepest' ? 'deepest velocity extended to 30 m' : 'averaged over the measured depth',
   });
-  rows.push({ label: 'Monte Carlo draws / seed', value: `${s.monteCarloDraws} / ${s.monteCarloSeed}` });
-  const yes = Object.entries(s.siteAnswers)
+  rows.push({ label: 'Monte Carlo draws / seed', value: `${s.site.monteCarloDraws} / ${s.site.monteCarloSeed}` });
+  const yes = Object.entries(s.site.siteAnswers)
     .filter(([, v]) => v)
     .map(([k]) => k);
   rows.push({ label: 'Site questions answered yes', value: yes.length ? yes.join(', ') : 'none' });
@@ -135,7 +143,7 @@ function intervalRows(derived: Derived, settings: Settings): ReportInterval[] {
   const out: ReportInterval[] = [];
   for (const rows of byKey.values()) {
     const chosen = rows.find((r) => r.chosen);
-    const used = chosen ?? rows.find((r) => r.method === settings.profileMethod) ?? rows[0];
+    const used = chosen ?? rows.find((r) => r.method === settings.intervals.profileMethod) ?? rows[0];
     const others = rows
       .filter((r) => r !== used && r.velocityMps !== null && Number.isFinite(r.velocityMps))
       .map((r) => r.velocityMps as number);
@@ -262,7 +270,7 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
       flags: v?.flags ?? [],
       spread:
         u && !setupProblems.length
-          ? { p05Mps: u.vs30P05Mps, p50Mps: u.vs30P50Mps, p95Mps: u.vs30P95Mps, draws: settings.monteCarloDraws }
+          ? { p05Mps: u.vs30P05Mps, p50Mps: u.vs30P50Mps, p95Mps: u.vs30P95Mps, draws: settings.site.monteCarloDraws }
           : null,
       classes: setupProblems.length
         ? []
