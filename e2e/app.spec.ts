@@ -15,6 +15,7 @@ import { readProjectArchive } from '../src/core/io/archive';
 import { runPipeline } from '../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, toCsv } from '../src/core/report/tables';
 import { intervalKey, pickEditKey, stationKey } from '../src/core/keys';
+import { reported } from '../src/core/report/digits';
 import type { WaveRecord } from '../src/core/model';
 import { appState, boardPixel, derivedState, SCREENS, waitProcessed } from './helpers';
 
@@ -178,10 +179,11 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   expect(intervalsCsv.split('\n')[0]).toContain('depth_top_m');
   expect(intervalsCsv).toContain('# CAUTION');
   const site = JSON.parse(siteJsonText) as { vs30Mps: number; cautions: string[] };
-  expect(site.vs30Mps).toBeCloseTo(ref.derived.site.vs30!.vsMps, 2);
+  // Rounded by the reporting rule (3 significant digits; docs/significant-digits.md).
+  expect(site.vs30Mps).toBe(reported('velocity', ref.derived.site.vs30!.vsMps));
   expect(site.cautions.length).toBeGreaterThan(0);
   // Plots as images (Plotly.downloadImage): PNG signature bytes 89 50 4E 47 (PNG specification), SVG text.
-  const profilePlotRow = page.locator('.sheet tr', { hasText: 'Profile' });
+  const profilePlotRow = page.locator('.sheet table.screen-plots tr', { hasText: 'Profile' });
   const [png] = await Promise.all([
     page.waitForEvent('download'),
     profilePlotRow.getByRole('button', { name: 'PNG' }).click(),
@@ -190,7 +192,10 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   expect([...readFileSync((await png.path())!).subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
   const [svg] = await Promise.all([
     page.waitForEvent('download'),
-    page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click(),
+    page
+      .locator('.sheet table.screen-plots tr', { hasText: 'Trace board' })
+      .getByRole('button', { name: 'SVG' })
+      .click(),
   ]);
   expect(readFileSync((await svg.path())!, 'utf8')).toContain('<svg');
   // The project archive holds the 60 files unchanged and the current edits (read back with the core).

@@ -88,7 +88,10 @@ test('every pane, one screenshot each', async ({ page }) => {
   // marker as an SVG path whose class list starts with "point", one per station of the 30-depth board.
   const [svg] = await Promise.all([
     page.waitForEvent('download'),
-    page.locator('.sheet tr', { hasText: 'Trace board' }).getByRole('button', { name: 'SVG' }).click(),
+    page
+      .locator('.sheet table.screen-plots tr', { hasText: 'Trace board' })
+      .getByRole('button', { name: 'SVG' })
+      .click(),
   ]);
   const text = readFileSync((await svg.path())!, 'utf8');
   expect(text.match(/class="point[" ]/g)?.length ?? 0).toBeGreaterThanOrEqual(30);

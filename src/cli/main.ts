@@ -3,12 +3,14 @@
  */
 import { runInspect, type CliIo } from './inspect';
 import { runProfile } from './profile';
+import { runReport } from './report';
 
 type Command = (args: string[], io: CliIo) => Promise<number>;
 
 const COMMANDS: Record<string, Command> = {
   inspect: runInspect,
   profile: runProfile,
+  report: runReport,
 };
 
 async function main(argv: string[]): Promise<number> {

@@ -26,7 +26,7 @@ import { type CliIo, cliPath } from './inspect';
 import { openFieldFolder, type FolderFlags } from './folder';
 import type { UnitSystem } from '../core/units';
 
-function openFolder(dir: string): OpenedProject {
+export function openFolder(dir: string): OpenedProject {
   const path = join(dir, 'project.json');
   if (!existsSync(path)) throw new Error(`${dir} has no project.json`);
   let raw: unknown;

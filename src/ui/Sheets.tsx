@@ -22,6 +22,9 @@ import { updateSettings } from '../state/edits';
 import { projectArchiveBytes } from '../state/files';
 import { setView, useApp, useResults } from '../state/store';
 import { downloadPlot, PLOT_NAMES, plotRegistry } from './plot';
+import { currentFigure, figurePng, figureSvgFile, FIGURE_PNG_WIDTH_PX, openReport } from './report';
+import type { Figure } from '../core/report/figures';
+import type { Paper } from '../core/report/html';
 import { fmt, label, useUnits } from './units';
 import { useState } from 'react';
 
@@ -175,8 +178,16 @@ export function SiteSheet() {
   );
 }
 
-function download(name: string, content: string | Uint8Array, type: string): void {
-  const blob = new Blob([content as BlobPart], { type });
+/** Report figures that export on their own (title, legend and units inside each). */
+const REPORT_FIGURES: [Figure['id'], string][] = [
+  ['trace-board', 'Trace board with picks'],
+  ['travel-time', 'Travel time with layer fits'],
+  ['profile', 'Vs and Vp profile'],
+  ['stiffness', 'Gmax and Vs1'],
+];
+
+function download(name: string, content: string | Uint8Array | Blob, type: string): void {
+  const blob = content instanceof Blob ? content : new Blob([content as BlobPart], { type });
   const url = URL.createObjectURL(blob);
   const a = document.createElement('a');
   a.href = url;
@@ -222,6 +233,16 @@ export function ExportSheet() {
               : profileTable(full, units);
     download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
   };
+  const [paper, setPaper] = useState<Paper>('A4');
+  const figure = (id: Figure['id'], f: 'png' | 'svg') => {
+    setError(null);
+    const fig = currentFigure(id);
+    if (!fig) return setError('No result yet: the figures follow the first auto-pick.');
+    if (f === 'svg') return download(`${base}-${fig.name}.svg`, figureSvgFile(fig), 'image/svg+xml');
+    figurePng(fig)
+      .then((png) => download(`${base}-${fig.name}.png`, png, 'image/png'))
+      .catch((e: Error) => setError(e.message));
+  };
   const plot = (p: string, f: 'png' | 'svg') => {
     setError(null);
     downloadPlot(p, f, `${base}-${p}`).catch((e: Error) => setError(e.message));
@@ -258,8 +279,50 @@ export function ExportSheet() {
           Site summary (JSON)
         </button>
       </div>
-      <h3>Plots</h3>
+      <h3>Report</h3>
+      <p className="small muted">
+        One document with the title block, settings, figures, tables, Vs30, method notes and cautions; print it to PDF
+        from the new tab.
+      </p>
+      <div className="btn-row">
+        <label>
+          Paper{' '}
+          <select value={paper} onChange={(e) => setPaper(e.target.value as Paper)} aria-label="Paper">
+            <option value="A4">A4</option>
+            <option value="Letter">US Letter</option>
+          </select>
+        </label>{' '}
+        <button
+          disabled={!ready}
+          data-testid="open-report"
+          onClick={() => {
+            setError(null);
+            if (!openReport(paper)) setError('The report did not open: allow pop-ups for this page.');
+          }}
+        >
+          Report…
+        </button>
+      </div>
+      <h3>Report figures</h3>
       <table className="plain">
+        <tbody>
+          {REPORT_FIGURES.map(([id, title]) => (
+            <tr key={id}>
+              <td>{title}</td>
+              <td>
+                <button disabled={!ready} data-testid={`figure-png-${id}`} onClick={() => figure(id, 'png')}>
+                  PNG ({FIGURE_PNG_WIDTH_PX} px)
+                </button>{' '}
+                <button disabled={!ready} data-testid={`figure-svg-${id}`} onClick={() => figure(id, 'svg')}>
+                  SVG
+                </button>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <h3>Plots as on screen</h3>
+      <table className="plain screen-plots">
         <tbody>
           {Object.entries(PLOT_NAMES).map(([k, title]) => (
             <tr key={k}>
@@ -290,7 +353,6 @@ export function ExportSheet() {
         >
           Project archive (.zip: settings, picks, edits and the original files)
         </button>
-        <button onClick={() => window.print()}>Printable summary…</button>
       </div>
       <h3>Cautions carried by every export</h3>
       <ul className="cautions small">

@@ -36,10 +36,22 @@ describe('profile CSV in US customary units (exact factors: 0.3048 m/ft, 1 ksi =
       expect.arrayContaining(['depth_top_m', 'vs_mps', 'density_mg_m3', 'sigma_v_eff_kpa', 'gmax_mpa', 'vs1_mps']),
     );
   });
-  it('values convert with the exact factors', () => {
-    col(si, 'vs_mps').forEach((v, i) => expect(col(us, 'vs_ftps')[i]).toBeCloseTo(v / 0.3048, 1));
-    col(si, 'depth_top_m').forEach((v, i) => expect(col(us, 'depth_top_ft')[i]).toBeCloseTo(v / 0.3048, 2));
-    col(si, 'gmax_mpa').forEach((v, i) => expect(col(us, 'gmax_ksi')[i]).toBeCloseTo(v / 6.894757, 2));
-    col(si, 'sigma_v_eff_kpa').forEach((v, i) => expect(col(us, 'sigma_v_eff_psf')[i]).toBeCloseTo(v / 0.04788026, 0));
+  it('values convert with the exact factors, then round by the reporting rule (docs/significant-digits.md)', () => {
+    const rows = out.derived.profile;
+    // Each US cell is the SI value / factor, rounded to 3 significant digits (velocities, moduli, stresses)
+    // or 0.1 ft (depths): within half a unit of the last kept digit.
+    const halfUnit3 = (x: number) => 0.5 * 10 ** (Math.floor(Math.log10(Math.abs(x))) - 2) + 1e-9;
+    rows.forEach((r, i) => {
+      const vsFt = r.vsMps / 0.3048;
+      expect(Math.abs(col(us, 'vs_ftps')[i] - vsFt)).toBeLessThanOrEqual(halfUnit3(vsFt));
+      expect(Math.abs(col(us, 'depth_top_ft')[i] - r.topM / 0.3048)).toBeLessThanOrEqual(0.05 + 1e-9);
+      const gKsi = r.gmaxKpa / 1000 / 6.894757;
+      expect(Math.abs(col(us, 'gmax_ksi')[i] - gKsi)).toBeLessThanOrEqual(halfUnit3(gKsi) * 1.0001);
+      const sPsf = r.sigmaVEffKpa / 0.04788026;
+      expect(Math.abs(col(us, 'sigma_v_eff_psf')[i] - sPsf)).toBeLessThanOrEqual(halfUnit3(sPsf) * 1.0001);
+      // SI cells: 3 significant digits of the full-precision value, depths to 0.01 m.
+      expect(Math.abs(col(si, 'vs_mps')[i] - r.vsMps)).toBeLessThanOrEqual(halfUnit3(r.vsMps));
+      expect(Math.abs(col(si, 'depth_top_m')[i] - r.topM)).toBeLessThanOrEqual(0.005 + 1e-9);
+    });
   });
 });

@@ -10,7 +10,8 @@ import type { Station } from '../survey/stations';
 import type { Derived, ProfileRow } from '../pipeline';
 import type { Settings } from '../settings';
 import { SITE_CAUTIONS } from '../site/classes';
-import { csvColumn, toDisplay, type QuantityKind, type UnitSystem } from '../units';
+import { csvColumn, type QuantityKind, type UnitSystem } from '../units';
+import { reported, type ReportedQuantity } from './digits';
 
 export type Cell = string | number | null;
 
@@ -78,7 +79,8 @@ export function toCsv(t: Table, cautions: string[] = EXPORT_CAUTIONS): string {
   return `${body}\n${notes}\n`;
 }
 
-const ms = (s: number | null | undefined) => (s === null || s === undefined ? null : num(s * 1000, 4));
+/** Times in ms, rounded by the reporting rule (docs/significant-digits.md). */
+const ms = (s: number | null | undefined) => reported('time', s);
 
 /** SI column suffixes as the trade writes them (e.g. density_mg_m3); US ones from units.ts (vs_ftps, gmax_ksi). */
 const SI_SUFFIX: Partial<Record<QuantityKind, string>> = { density: 'mg_m3', unitWeight: 'kn_m3' };
@@ -90,8 +92,8 @@ function unitColumn(system: UnitSystem) {
       system === 'SI'
         ? `${base}_${SI_SUFFIX[kind] ?? csvColumn('', kind, 'SI').slice(1)}`
         : csvColumn(base, kind, 'US'),
-    value: (kind: QuantityKind, si: number | null | undefined, digits: number) =>
-      si === null || si === undefined ? null : num(toDisplay(kind, system, si), digits),
+    /** SI value converted to the system and rounded by the quantity's reporting rule (docs/significant-digits.md). */
+    value: (q: ReportedQuantity, si: number | null | undefined) => reported(q, si, system),
   };
 }
 
@@ -119,14 +121,14 @@ export function picksTable(stations: readonly Station[], d: Derived, system: Uni
     return [
       p.stationKey,
       s?.receiver ?? '',
-      u.value('depth', s?.depthM, 3),
+      u.value('distance', s?.depthM),
       s?.component ?? '',
       p.wave,
       p.method,
       p.origin,
       ms(p.timeS),
       ms(p.uncertaintyS),
-      num(p.snr, 2),
+      reported('ratio', p.snr),
       p.polarity ?? null,
       flags.join('; '),
     ];
@@ -155,21 +157,21 @@ export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
     'flags',
   ];
   const rows: Cell[][] = d.intervals.map((r) => {
-    const v = u.value('velocity', r.velocityMps, 2);
-    const sd = u.value('velocity', r.velocitySdMps, 2);
+    const v = u.value('velocity', r.velocityMps);
+    const sd = u.value('velocitySd', r.velocitySdMps);
     const flags: Flag[] = [...r.flags];
     if (v === null && !flags.length) flags.push('no value');
     return [
-      u.value('depth', r.topM, 3),
-      u.value('depth', r.bottomM, 3),
+      u.value('distance', r.topM),
+      u.value('distance', r.bottomM),
       r.wave,
       r.kind,
       r.method,
       r.chosen ? 1 : 0,
       r.stationA,
       r.stationB,
-      u.value('depth', r.pathAM, 4),
-      u.value('depth', r.pathBM, 4),
+      u.value('distance', r.pathAM),
+      u.value('distance', r.pathBM),
       ms(r.dtS),
       r.wave === 'S' ? v : null,
       r.wave === 'S' ? sd : null,
@@ -210,28 +212,28 @@ export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
   ];
   // Moduli are kPa inside; the 'modulus' unit shows MPa (SI) or ksi (US).
   const rows: Cell[][] = d.profile.map((r: ProfileRow) => [
-    u.value('depth', r.topM, 3),
-    u.value('depth', r.bottomM, 3),
-    u.value('depth', r.midM, 3),
+    u.value('distance', r.topM),
+    u.value('distance', r.bottomM),
+    u.value('distance', r.midM),
     r.method,
-    u.value('velocity', r.vsMps, 2),
-    u.value('velocity', r.vsSdMps, 2),
-    u.value('velocity', r.vpMps, 2),
-    u.value('velocity', r.vpSdMps, 2),
+    u.value('velocity', r.vsMps),
+    u.value('velocitySd', r.vsSdMps),
+    u.value('velocity', r.vpMps),
+    u.value('velocitySd', r.vpSdMps),
     r.vpMethod ?? '',
-    u.value('density', r.densityMgM3, 4),
-    u.value('stress', r.sigmaVKpa, 2),
-    u.value('stress', r.porePressureKpa, 2),
-    u.value('stress', r.sigmaVEffKpa, 2),
-    u.value('modulus', r.gmaxKpa, 3),
-    u.value('modulus', r.gmaxSdKpa, 3),
-    num(r.poissonRatio, 4),
+    u.value('density', r.densityMgM3),
+    u.value('stress', r.sigmaVKpa),
+    u.value('stress', r.porePressureKpa),
+    u.value('stress', r.sigmaVEffKpa),
+    u.value('modulus', r.gmaxKpa),
+    u.value('modulusSd', r.gmaxSdKpa),
+    reported('poissonRatio', r.poissonRatio),
     r.poissonSource,
-    u.value('modulus', r.youngKpa, 3),
-    u.value('modulus', r.constrainedKpa, 3),
-    u.value('modulus', r.bulkKpa, 3),
-    u.value('velocity', r.vs1Mps, 2),
-    num(r.stressExponent, 3),
+    u.value('modulus', r.youngKpa),
+    u.value('modulus', r.constrainedKpa),
+    u.value('modulus', r.bulkKpa),
+    u.value('velocity', r.vs1Mps),
+    reported('exponent', r.stressExponent),
     r.flags.join('; '),
   ]);
   return { columns, rows };
@@ -253,11 +255,11 @@ export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
   ];
   const rows: Cell[][] = d.layerFits.map((f) => [
     f.wave,
-    u.value('depth', f.topM, 3),
-    u.value('depth', f.bottomM, 3),
+    u.value('distance', f.topM),
+    u.value('distance', f.bottomM),
     `straight-line fit (${f.method})`,
-    u.value('velocity', f.velocityMps, 2),
-    u.value('velocity', f.velocitySdMps, 2),
+    u.value('velocity', f.velocityMps),
+    u.value('velocitySd', f.velocitySdMps),
     f.stations,
     ms(f.rmsResidualS),
     f.velocitySdMps === null ? 'two stations: no sd' : '',
@@ -267,11 +269,11 @@ export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
     for (const l of m.layers) {
       rows.push([
         'S',
-        u.value('depth', l.topM, 3),
-        u.value('depth', l.bottomM, 3),
+        u.value('distance', l.topM),
+        u.value('distance', l.bottomM),
         'refracted-ray fit (onset)',
-        u.value('velocity', l.velocityMps, 2),
-        u.value('velocity', l.velocitySdMps, 2),
+        u.value('velocity', l.velocityMps),
+        u.value('velocitySd', l.velocitySdMps),
         l.receivers,
         ms(m.rmsMisfitS),
         m.converged ? '' : 'not converged',
@@ -299,11 +301,11 @@ export function directTable(d: Derived, system: UnitSystem = 'SI'): Table {
     r.stationKey,
     r.receiver,
     r.wave,
-    u.value('depth', r.depthM, 3),
-    u.value('depth', r.pathM, 4),
+    u.value('distance', r.depthM),
+    u.value('distance', r.pathM),
     ms(r.timeS),
-    u.value('velocity', r.velocityMps, 2),
-    u.value('velocity', r.velocitySdMps, 2),
+    u.value('velocity', r.velocityMps),
+    u.value('velocitySd', r.velocitySdMps),
     r.flags.join('; '),
   ]);
   return { columns, rows };
@@ -316,17 +318,17 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
   for (const c of d.site.classes) classes[c.standard] = c.siteClass;
   const u = d.site.uncertainty;
   return {
-    vs30Mps: num(v?.vsMps, 2),
-    averagedToDepthM: num(v?.toDepthM, 3),
-    profileDepthM: num(v?.profileDepthM, 3),
+    vs30Mps: reported('velocity', v?.vsMps),
+    averagedToDepthM: reported('distance', v?.toDepthM),
+    profileDepthM: reported('distance', v?.profileDepthM),
     extended: v?.extended ?? false,
     rule: settings.site.vs30Rule,
     flags: v?.flags ?? [],
     classes,
     classNotes: Object.fromEntries(d.site.classes.map((c) => [c.standard, { basis: c.basis, notes: c.notes }])),
-    vs30P05Mps: num(u?.vs30P05Mps, 2),
-    vs30P50Mps: num(u?.vs30P50Mps, 2),
-    vs30P95Mps: num(u?.vs30P95Mps, 2),
+    vs30P05Mps: reported('velocity', u?.vs30P05Mps),
+    vs30P50Mps: reported('velocity', u?.vs30P50Mps),
+    vs30P95Mps: reported('velocity', u?.vs30P95Mps),
     classProbabilities: u?.classProbabilities ?? {},
     monteCarlo: { draws: settings.site.monteCarloDraws, seed: settings.site.monteCarloSeed },
     answers: settings.site.siteAnswers,
@@ -347,12 +349,12 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
       ? {
           name: d.comparison.name,
           source: d.comparison.source,
-          vs30Mps: num(d.comparison.vs30?.vsMps, 2),
+          vs30Mps: reported('velocity', d.comparison.vs30?.vsMps),
           differences: d.comparison.differences.map((x) => ({
-            depthM: num(x.depthM, 3),
-            vsMps: num(x.vsMps, 2),
-            comparisonVsMps: num(x.comparisonVsMps, 2),
-            differencePct: num(x.differencePct, 2),
+            depthM: reported('distance', x.depthM),
+            vsMps: reported('velocity', x.vsMps),
+            comparisonVsMps: reported('velocity', x.comparisonVsMps),
+            differencePct: reported('ratio', x.differencePct),
           })),
         }
       : null,

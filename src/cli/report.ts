@@ -1,0 +1,138 @@
+/**
+ * `cli report <project.zip|folder> --out report.html [--units SI|US] [--paper A4|Letter] [--method <m>]`:
+ * runs the pipeline on a project and writes the report as one self-contained HTML file (styles and SVG
+ * figures inline, system fonts, no links), printable to PDF by any browser. Exit 2 on a bad project or
+ * bad options, with a one-line reason.
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { basename, dirname, resolve } from 'node:path';
+import { toErrorInfo } from '../core/errors';
+import { readProjectArchive, type OpenedProject } from '../core/io/archive';
+import { loadProject } from '../core/io/project';
+import { runPipeline } from '../core/pipeline';
+import { reportDataFrom } from '../core/report/adapter';
+import { reportHtml, type Paper } from '../core/report/html';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
+import type { UnitSystem } from '../core/units';
+import type { CliIo } from './inspect';
+import { openFolder } from './profile';
+
+/** Package version and, where the checkout has one, the build commit. */
+export function softwareVersion(): string {
+  const root = resolve(dirname(new URL(import.meta.url).pathname), '../..');
+  let version = 'unknown';
+  try {
+    version = String(JSON.parse(readFileSync(resolve(root, 'package.json'), 'utf8')).version);
+  } catch {
+    // keep 'unknown'
+  }
+  try {
+    const commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], {
+      cwd: root,
+      stdio: ['ignore', 'pipe', 'ignore'],
+    })
+      .toString()
+      .trim();
+    if (/^[0-9a-f]{4,40}$/.test(commit)) return `${version} (${commit})`;
+  } catch {
+    // no git here
+  }
+  return version;
+}
+
+export interface ReportRun {
+  html: string;
+  warnings: string[];
+  name: string;
+}
+
+/** The report for a project archive or folder (used by the command and the tests). */
+export function makeReport(
+  input: string,
+  o: { units?: UnitSystem; paper?: Paper; method?: IntervalMethod; madeAt?: string } = {},
+): ReportRun {
+  if (!existsSync(input)) throw new Error(`${input} does not exist`);
+  const opened: OpenedProject = statSync(input).isDirectory()
+    ? openFolder(input)
+    : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+  const project = loadProject(opened, basename(input));
+  const settings = o.method
+    ? { ...project.settings, intervals: { ...project.settings.intervals, profileMethod: o.method } }
+    : project.settings;
+  const result = runPipeline({
+    survey: project.survey,
+    records: project.records,
+    settings,
+    edits: project.edits,
+    comparison: project.comparison,
+  });
+  const data = reportDataFrom({
+    survey: project.survey,
+    settings,
+    edits: project.edits,
+    prepared: result.prepared,
+    derived: result.derived,
+    units: o.units ?? 'SI',
+    softwareVersion: softwareVersion(),
+    madeAt: o.madeAt ?? new Date().toISOString(),
+  });
+  const warnings = project.issues.map((p) => `${p.file ? `${p.file}: ` : ''}${p.message} [${p.code}]`);
+  return { html: reportHtml(data, { paper: o.paper ?? 'A4' }), warnings, name: project.survey.name };
+}
+
+export async function runReport(args: string[], io: CliIo): Promise<number> {
+  let input: string | undefined;
+  let out: string | undefined;
+  let units: UnitSystem = 'SI';
+  let paper: Paper = 'A4';
+  let method: IntervalMethod | undefined;
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    if (a === '--out') out = args[++i];
+    else if (a === '--units') {
+      const u = args[++i];
+      if (u !== 'SI' && u !== 'US') {
+        io.stderr.write(`report: --units ${u ?? ''} is not SI or US\n`);
+        return 2;
+      }
+      units = u;
+    } else if (a === '--paper') {
+      const p = args[++i];
+      if (p !== 'A4' && p !== 'Letter') {
+        io.stderr.write(`report: --paper ${p ?? ''} is not A4 or Letter\n`);
+        return 2;
+      }
+      paper = p;
+    } else if (a === '--method') {
+      const m = args[++i];
+      if (!INTERVAL_METHODS.includes(m as IntervalMethod)) {
+        io.stderr.write(`report: --method ${m ?? ''} is not one of ${INTERVAL_METHODS.join(', ')}\n`);
+        return 2;
+      }
+      method = m as IntervalMethod;
+    } else if (a.startsWith('--')) {
+      io.stderr.write(`report: unknown option ${a}\n`);
+      return 2;
+    } else input = a;
+  }
+  if (!input || !out) {
+    io.stderr.write(
+      `usage: cli report <project.zip|folder> --out report.html [--units SI|US] [--paper A4|Letter] [--method ${INTERVAL_METHODS.join('|')}]\n`,
+    );
+    return 2;
+  }
+  let run: ReportRun;
+  try {
+    run = makeReport(input, { units, paper, method });
+  } catch (e) {
+    io.stderr.write(`report: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
+    return 2;
+  }
+  for (const w of run.warnings) io.stderr.write(`warning: ${w}\n`);
+  const dir = dirname(out);
+  if (dir && dir !== '.') mkdirSync(dir, { recursive: true });
+  writeFileSync(out, run.html);
+  io.stdout.write(`${run.name}: wrote the report (${paper}, ${units}) to ${out}\n`);
+  return 0;
+}
