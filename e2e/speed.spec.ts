@@ -17,7 +17,6 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { synthesizeSurvey, toSeg2Input } from '../src/core/synth/synthesize';
 import { demoDownholeOptions, demoEarthModel } from '../src/core/synth/demo';
 import { writeSeg2 } from '../src/core/io/seg2';
-import { newProjectDocument, writeProjectArchive } from '../src/core/io/archive';
 
 const figures: Record<string, unknown> = {};
 

@@ -1,9 +1,27 @@
 /**
  * Plotly in React: one div per plot, Plotly.react on every change (data arrays are memoised by the
  * callers so unchanged traces are not recomputed), and a registry of plot divs for image export.
+ *
+ * Plotly (several MB of script) is loaded on demand (loadPlotly: a dynamic import, started by main.tsx
+ * once the page has painted), so the first paint does not wait for it; a plot drawn before it arrives
+ * draws when it does.
  */
 import { useEffect, useRef } from 'react';
-import Plotly from 'plotly.js-strict-dist-min';
+
+// The strict bundle has the same API as plotly.js-dist-min (src/ui/plotly-strict.d.ts); only its types are used here.
+type PlotlyModule = typeof import('plotly.js-dist-min').default;
+
+let plotly: PlotlyModule | null = null;
+let plotlyLoading: Promise<PlotlyModule> | null = null;
+
+/** Plotly, loaded once (the same promise for every caller). */
+export function loadPlotly(): Promise<PlotlyModule> {
+  plotlyLoading ??= import('plotly.js-strict-dist-min').then((m) => {
+    plotly = (m as unknown as { default: PlotlyModule }).default;
+    return plotly;
+  });
+  return plotlyLoading;
+}
 
 export type PlotData = Record<string, unknown>;
 export type PlotLayout = Record<string, unknown>;
@@ -80,13 +98,20 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
     plotRegistry.set(name, div);
     return () => {
       plotRegistry.delete(name);
-      Plotly.purge(div);
+      plotly?.purge(div);
     };
   }, [name]);
   useEffect(() => {
     const div = ref.current!;
     let alive = true;
     const draw = () => {
+      if (!plotly) {
+        void loadPlotly().then(() => {
+          if (alive) draw();
+        });
+        return;
+      }
+      const Plotly = plotly;
       const t0 = performance.now();
       const drawing = Plotly.react(div, data as never, layout as never, { ...PLOT_CONFIG, ...(config ?? {}) } as never);
       div.dataset.startedAt = t0.toFixed(1);
@@ -178,7 +203,8 @@ interface Axis {
   l2p: (v: number) => number;
 }
 
-export function downloadPlot(name: string, format: 'png' | 'svg', fileName: string): Promise<unknown> {
+export async function downloadPlot(name: string, format: 'png' | 'svg', fileName: string): Promise<unknown> {
+  const Plotly = await loadPlotly();
   const div = plotRegistry.get(name);
   if (!div) return Promise.reject(new Error(`${PLOT_NAMES[name] ?? name} is not on screen.`));
   const size = { format, filename: fileName, width: div.clientWidth || 900, height: div.clientHeight || 600 };
