@@ -53,6 +53,20 @@ async function rendererRssMb(browser: Browser): Promise<number | null> {
   }
 }
 
+/** CPU time (ms) the renderer processes (page and workers) have used so far, from CDP; null where unknown. */
+async function rendererCpuMs(browser: Browser): Promise<number | null> {
+  try {
+    const cdp = await browser.newBrowserCDPSession();
+    const info = (await cdp.send('SystemInfo.getProcessInfo' as never)) as unknown as {
+      processInfo: { type: string; cpuTime: number }[];
+    };
+    await cdp.detach();
+    return info.processInfo.filter((p) => p.type === 'renderer').reduce((a, p) => a + p.cpuTime * 1000, 0);
+  } catch {
+    return null;
+  }
+}
+
 /** Samples memory until stopped; returns the peaks (renderer RSS, main-thread JS heap), MB. */
 function memorySampler(browser: Browser, page: Page) {
   let peakRss = 0;
@@ -132,6 +146,7 @@ test('first paint, demo click to profile', async ({ page, browser }) => {
   });
   // Idle page, as a user who reads the page first: the click alone, not the page load, is timed.
   await page.waitForTimeout(500);
+  const cpu0 = await rendererCpuMs(browser);
   const marks = (await page.evaluate(`(async () => {
     const start = performance.now();
     const done = ${waitProfileScript};
@@ -144,8 +159,10 @@ test('first paint, demo click to profile', async ({ page, browser }) => {
     un();
     return { ...m, filesMs: filesAt, start };
   })()`)) as Record<string, number>;
+  const cpu1 = await rendererCpuMs(browser);
   const mem = await stop();
   const rel = (k: string) => Math.round(marks[k] - marks.start);
+  figures.demoToProfileCpuMs = cpu0 !== null && cpu1 !== null ? Math.round(cpu1 - cpu0) : null;
   figures.firstPaintMs = Math.round(paint.fcp);
   figures.appShownMs = Math.round(paint.appShown);
   figures.demoToProfileMs = rel('profileMs');
@@ -157,7 +174,7 @@ test('first paint, demo click to profile', async ({ page, browser }) => {
   };
   figures.demoMemory = mem;
   console.log(
-    `MEASURE first contentful paint ${paint.fcp.toFixed(0)} ms, app controls ${paint.appShown.toFixed(0)} ms; demo click -> profile ${rel('profileMs')} ms (${JSON.stringify(figures.demoParts)}); memory ${JSON.stringify(mem)}`,
+    `MEASURE first contentful paint ${paint.fcp.toFixed(0)} ms, app controls ${paint.appShown.toFixed(0)} ms; demo click -> profile ${rel('profileMs')} ms, renderer CPU ${figures.demoToProfileCpuMs} ms (${JSON.stringify(figures.demoParts)}); memory ${JSON.stringify(mem)}`,
   );
   await expect(page.locator('[data-plot="profile"]')).toBeVisible();
 });
@@ -193,11 +210,14 @@ test('60 unseen files dropped to profile', async ({ page, browser }) => {
       if (s.filesRevision !== p.filesRevision) { w.__filesAt = performance.now(); un(); }
     });
   })()`);
+  const cpu0 = await rendererCpuMs(browser);
   await page.getByTestId('file-input').setInputFiles(files);
   const marks = (await page.evaluate(
     `window.__dropMarks.then((m) => ({ ...m, start: window.__dropStart, filesMs: window.__filesAt }))`,
   )) as Record<string, number>;
+  const cpu1 = await rendererCpuMs(browser);
   const mem = await stop();
+  figures.dropToProfileCpuMs = cpu0 !== null && cpu1 !== null ? Math.round(cpu1 - cpu0) : null;
   const rel = (k: string) => Math.round(marks[k] - marks.start);
   figures.dropToProfileMs = rel('profileMs');
   figures.dropParts = {
@@ -208,7 +228,7 @@ test('60 unseen files dropped to profile', async ({ page, browser }) => {
   };
   figures.dropMemory = mem;
   console.log(
-    `MEASURE 60 files x 3 channels x 4096 samples dropped -> profile ${rel('profileMs')} ms (${JSON.stringify(figures.dropParts)}); memory ${JSON.stringify(mem)}`,
+    `MEASURE 60 files x 3 channels x 4096 samples dropped -> profile ${rel('profileMs')} ms, renderer CPU ${figures.dropToProfileCpuMs} ms (${JSON.stringify(figures.dropParts)}); memory ${JSON.stringify(mem)}`,
   );
   await expect(page.locator('li.file[data-status="ok"]')).toHaveCount(60);
 });
