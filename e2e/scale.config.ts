@@ -11,4 +11,7 @@ export default defineConfig({
   testMatch: 'scale.measure.ts',
   timeout: 900_000,
   reporter: [['list']],
+  // Built and served from the repository root, like the main config.
+  webServer: { ...(base.webServer as object), cwd: '..' } as typeof base.webServer,
+  outputDir: '../test-results/scale',
 });
