@@ -20,6 +20,8 @@ void checkForSavedSession();
   derived: currentDerived,
   deriveMs: () => lastDeriveMs,
   spreadMs: () => lastSpreadMs,
+  /** Resolves once Plotly is loaded (it loads after the first paint). */
+  plotlyLoaded: () => loadPlotly().then(() => true),
 };
 
 createRoot(document.getElementById('root')!).render(

@@ -83,7 +83,9 @@ interface PlotProps {
    * Draw on the next frame instead of at once, keeping only the latest data (the bottom strip, so the
    * Profile shows a pick edit first and a drag does not queue redraws). 'data': only when the data
    * changed and the layout did not (the Trace board's pick markers: they follow an edit one frame after
-   * the Profile, but follow a zoom or pan of the board in the same frame).
+   * the Profile, but follow a zoom or pan of the board in the same frame). Every plot's first draw
+   * (a pane that appears with new results, such as the Trace board) is deferred too, so the plots
+   * already on screen (the Profile) show the new results first.
    */
   defer?: boolean | 'data';
 }
@@ -139,7 +141,8 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
         onReady?.(div);
       });
     };
-    const later = defer === 'data' ? drawnLayout.current === layout : !!defer;
+    const first = drawnLayout.current === null;
+    const later = first || (defer === 'data' ? drawnLayout.current === layout : !!defer);
     drawnLayout.current = layout;
     if (!later) {
       draw();
