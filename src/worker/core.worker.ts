@@ -6,7 +6,7 @@
 import { toErrorInfo } from '../core/errors';
 import type { WaveRecord } from '../core/model';
 import { readWaveFile } from '../core/io/readers';
-import { readProjectArchive } from '../core/io/archive';
+import { readProjectArchive, validateProjectDocument } from '../core/io/archive';
 import { makeDemoProject } from '../core/synth/demo';
 import { autoPick, prepare } from '../core/pipeline';
 import type { OpenedArchive, ParsedFile, WorkerRequest, WorkerResponse } from './protocol';
@@ -54,7 +54,8 @@ function handle(req: WorkerRequest): void {
     } else if (req.type === 'make-demo') {
       // Opened as an archive would be, without zipping and unzipping it.
       const demo = makeDemoProject(req.kind);
-      const archive = readOpened({ doc: demo.doc, files: demo.files, missing: [] }, progress);
+      const doc = validateProjectDocument(demo.doc, `demo-${req.kind}.zip`);
+      const archive = readOpened({ doc, files: demo.files, missing: [] }, progress);
       handOver({ type: 'archive', jobId, archive });
     } else if (req.type === 'process') {
       const records = new Map<string, WaveRecord>(req.records.map((r) => [r.id, r]));
