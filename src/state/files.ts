@@ -9,7 +9,7 @@ import { placeForSurvey } from '../core/setup/legacy';
 import type { Survey } from '../core/model';
 import { decodeUtf8 } from '../core/io/bytes';
 import { toErrorInfo } from '../core/errors';
-import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
+import { PROJECT_VERSION, writeProjectArchive, type ProjectDocument } from '../core/io/archive';
 import { uniqueRecordIds } from '../core/io/record-ids';
 import { textLayout } from '../core/io/text';
 import { readDeviationTable } from '../core/io/deviation';
@@ -395,7 +395,7 @@ export function currentProject(): { doc: ProjectDocument; files: NamedBytes[] } 
   }
   const doc: ProjectDocument = {
     format: 'borewave-project',
-    version: 1,
+    version: PROJECT_VERSION,
     savedAt: new Date().toISOString(),
     survey: s.survey,
     settings: s.settings,
