@@ -8,8 +8,8 @@
  */
 import { useEffect, useRef } from 'react';
 
-// The strict bundle has the same API as plotly.js-dist-min (src/ui/plotly-strict.d.ts); only its types are used here.
-type PlotlyModule = typeof import('plotly.js-dist-min').default;
+// The strict bundle's types: src/ui/plotly-strict.d.ts (its module object is Plotly itself).
+type PlotlyModule = typeof import('plotly.js-strict-dist-min');
 
 let plotly: PlotlyModule | null = null;
 let plotlyLoading: Promise<PlotlyModule> | null = null;
