@@ -8,11 +8,15 @@
  * and a 60-depth downhole survey for the per-edit timings (derive, Monte Carlo).
  * Then the bank of random layered earths (bench/bank.ts): accuracy and calibration per test kind and
  * method on training and held-out seeds (JSON keys `bank` and `calibration`).
+ * Then the command line against a numpy/scipy pipeline (bench/anchor.ts: cliVsScipyRatio) and the
+ * browser figures from a Playwright run (bench/browser.ts; `--no-browser` skips them).
  */
 import { bankReport, printBank } from './bank';
 import { intervalKey, pickEditKey } from '../src/core/keys';
 import { performance } from 'node:perf_hooks';
 import Papa from 'papaparse';
+import { cliVsScipy, type SurveyName } from './anchor';
+import { browserFigures } from './browser';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
 import { allowsDecimalComma, parseCell, readDelimitedText, splitTextRows } from '../src/core/io/text';
 import type { WaveRecord } from '../src/core/model';
@@ -419,6 +423,25 @@ if (classCal)
     `Class calibration: ${classCal.surveys} surveys, ${classCal.statedAtLeast90} statements at >= 90%, right in ${(classCal.rightWhenStatedAtLeast90 * 100).toFixed(1)}% (goal >= 90%)`,
   );
 
+// The command line against the numpy/scipy anchor and the browser figures (full runs only).
+const anchor = speed ? cliVsScipy() : null;
+if (anchor?.cliVsScipyRatio) {
+  log('\nCommand line vs a numpy/scipy pipeline (CPU time, median of alternating runs; target <= 1.0):');
+  for (const [k, v] of Object.entries(anchor.cliVsScipyRatio)) {
+    const c = anchor.cpuMs![k as SurveyName];
+    const a = anchor.agreement![k as SurveyName];
+    log(
+      `  ${k.padEnd(13)} ratio ${v.toFixed(2)}  (cli ${c.cli} ms, scipy ${c.scipy} ms; intervals within 1%: ${a.within1Percent}/${a.intervals}, max difference ${(a.maxRelDiff * 100).toFixed(3)}%)`,
+    );
+  }
+} else if (anchor) log(`\n${anchor.note}`);
+const browser = !speed || process.argv.includes('--no-browser') ? null : browserFigures();
+if (browser) {
+  log(
+    `\nBrowser: first paint ${browser.firstPaintMs} ms; demo click to profile ${browser.demoToProfileMs} ms; 60 files dropped to profile ${browser.dropToProfileMs} ms (target < 1,000 ms); peak memory ${browser.peakMemoryMb} MB${browser.note ? ` (${browser.note})` : ''}`,
+  );
+}
+
 if (json && !speed) {
   process.stdout.write(
     JSON.stringify(
@@ -462,6 +485,20 @@ if (json && !speed) {
     calibration: bank.calibration,
     defaultMethod: bank.defaultMethod,
     classCalibration: classCal,
+    cliVsScipyRatio: anchor?.cliVsScipyRatio ?? null,
+    cliVsScipy: anchor
+      ? { cpuMs: anchor.cpuMs, agreement: anchor.agreement, rounds: anchor.rounds, note: anchor.note }
+      : null,
+    browser: browser
+      ? {
+          firstPaintMs: browser.firstPaintMs,
+          demoToProfileMs: browser.demoToProfileMs,
+          dropToProfileMs: browser.dropToProfileMs,
+          peakMemoryMb: browser.peakMemoryMb,
+          ...(browser.note ? { note: browser.note } : {}),
+          detail: browser.detail,
+        }
+      : { note: 'skipped (--no-browser)' },
   };
   process.stdout.write(JSON.stringify(doc, null, 1) + '\n');
 }

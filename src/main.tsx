@@ -6,6 +6,8 @@ import { watchProcessing } from './state/processing';
 import { checkForSavedSession, useAutosave } from './state/autosave';
 import { useApp, useResults } from './state/store';
 import { currentDerived, lastDeriveMs, lastSpreadMs } from './state/derived';
+import { ioLane, processLane } from './worker/client';
+import { loadPlotly } from './ui/plot';
 
 watchProcessing();
 void checkForSavedSession();
@@ -18,10 +20,21 @@ void checkForSavedSession();
   derived: currentDerived,
   deriveMs: () => lastDeriveMs,
   spreadMs: () => lastSpreadMs,
+  /** Resolves once Plotly is loaded (it loads after the first paint). */
+  plotlyLoaded: () => loadPlotly().then(() => true),
 };
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>
     <App />
   </StrictMode>,
+);
+
+// After the first paint: start both workers and load Plotly, so a drop or a demo click does not wait for them.
+requestAnimationFrame(() =>
+  setTimeout(() => {
+    ioLane.warm();
+    processLane.warm();
+    void loadPlotly();
+  }, 0),
 );

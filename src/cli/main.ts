@@ -1,5 +1,6 @@
 /**
- * Command-line dispatcher: `npm run cli -- <command> ...`.
+ * Command-line dispatcher: `npm run cli -- <command> ...` or `npx --no-install borewave <command> ...`
+ * (bin/borewave.mjs runs this file bundled by scripts/build-cli.mjs).
  */
 import { runInspect, type CliIo } from './inspect';
 import { runProfile } from './profile';
@@ -15,9 +16,14 @@ const COMMANDS: Record<string, Command> = {
 
 async function main(argv: string[]): Promise<number> {
   const [name, ...rest] = argv;
+  const usage = `usage: borewave <${Object.keys(COMMANDS).join('|')}> ...\n`;
+  if (name === 'help' || name === '--help' || name === '-h') {
+    process.stdout.write(usage);
+    return 0;
+  }
   const command = name ? COMMANDS[name] : undefined;
   if (!command) {
-    process.stderr.write(`usage: cli <${Object.keys(COMMANDS).join('|')}> ...\n`);
+    process.stderr.write(usage);
     return 2;
   }
   // `npm run cli` runs in the repository; npm sets INIT_CWD to the folder the user typed the command in,

@@ -9,7 +9,7 @@ import { placeForSurvey } from '../core/setup/legacy';
 import type { Survey } from '../core/model';
 import { decodeUtf8 } from '../core/io/bytes';
 import { toErrorInfo } from '../core/errors';
-import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
+import { PROJECT_VERSION, writeProjectArchive, type ProjectDocument } from '../core/io/archive';
 import { uniqueRecordIds } from '../core/io/record-ids';
 import { textLayout } from '../core/io/text';
 import { readDeviationTable } from '../core/io/deviation';
@@ -185,15 +185,14 @@ async function parseFiles(waves: (NamedBytes & { originalName?: string })[]): Pr
   const fresh: WaveRecord[] = [];
   const needInterval: string[] = [];
   try {
+    // The page keeps the bytes (archive, autosave); the worker reads a copy moved to it.
+    const copies = waves.map((f) => ({
+      name: f.name,
+      bytes: f.bytes.slice(),
+      ...(f.sampleIntervalS !== undefined ? { sampleIntervalS: f.sampleIntervalS } : {}),
+    }));
     await ioLane.run(
-      {
-        type: 'parse',
-        files: waves.map((f) => ({
-          name: f.name,
-          bytes: f.bytes.slice(),
-          ...(f.sampleIntervalS !== undefined ? { sampleIntervalS: f.sampleIntervalS } : {}),
-        })),
-      },
+      { type: 'parse', files: copies },
       (m) => {
         if (m.type === 'parsed-file') {
           const f = byName.get(m.file.name)!;
@@ -208,6 +207,7 @@ async function parseFiles(waves: (NamedBytes & { originalName?: string })[]): Pr
         if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
         return m.type === 'parsed';
       },
+      copies.map((f) => f.bytes.buffer as ArrayBuffer),
     );
   } catch (e) {
     failStillReading(e as ErrorInfo);
@@ -219,6 +219,8 @@ async function parseFiles(waves: (NamedBytes & { originalName?: string })[]): Pr
     intervalRequest: [...s.intervalRequest.filter((n) => !byName.has(n)), ...needInterval],
   }));
   placeNew(fresh);
+  // New records: process now rather than after the pause that batches edits.
+  if (fresh.length) void runProcessing();
 }
 
 /**
@@ -335,14 +337,19 @@ export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise
   useApp.setState({ loadProgress: { done: 0, total: 1 } });
   let opened: OpenedArchive | null = null;
   try {
-    await ioLane.run({ type: 'open-archive', name, bytes: bytes.slice() }, (m) => {
-      if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
-      if (m.type === 'archive') {
-        opened = m.archive;
-        return true;
-      }
-      return false;
-    });
+    const copy = bytes.slice();
+    await ioLane.run(
+      { type: 'open-archive', name, bytes: copy },
+      (m) => {
+        if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
+        if (m.type === 'archive') {
+          opened = m.archive;
+          return true;
+        }
+        return false;
+      },
+      [copy.buffer],
+    );
   } catch (e) {
     useApp.setState({ loadProgress: null });
     pushMessage({ ...(e as ErrorInfo), file: (e as ErrorInfo).file ?? name });
@@ -352,14 +359,15 @@ export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise
   if (o) applyProject(o.doc, o, name);
 }
 
-/** Makes the demo survey in the worker, then opens it exactly like a project archive. */
+/** Makes the demo survey in the worker and opens it exactly like a project archive (without zipping it). */
 export async function openDemo(kind: TestKind): Promise<void> {
   useApp.setState({ loadProgress: { done: 0, total: 1 } });
-  let archive: { name: string; bytes: Uint8Array } | null = null;
+  let opened: OpenedArchive | null = null;
   try {
     await ioLane.run({ type: 'make-demo', kind }, (m) => {
-      if (m.type === 'demo') {
-        archive = { name: m.name, bytes: m.bytes };
+      if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
+      if (m.type === 'archive') {
+        opened = m.archive;
         return true;
       }
       return false;
@@ -369,8 +377,8 @@ export async function openDemo(kind: TestKind): Promise<void> {
     pushMessage(e as ErrorInfo);
     return;
   }
-  const a = archive as { name: string; bytes: Uint8Array } | null;
-  if (a) await openArchiveBytes(a.name, a.bytes);
+  const o = opened as OpenedArchive | null;
+  if (o) applyProject(o.doc, o, `demo-${kind}.zip`);
 }
 
 /** The current session as a project document plus its files (archive and autosave). */
@@ -387,7 +395,7 @@ export function currentProject(): { doc: ProjectDocument; files: NamedBytes[] } 
   }
   const doc: ProjectDocument = {
     format: 'borewave-project',
-    version: 1,
+    version: PROJECT_VERSION,
     savedAt: new Date().toISOString(),
     survey: s.survey,
     settings: s.settings,

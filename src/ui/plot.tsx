@@ -1,9 +1,27 @@
 /**
  * Plotly in React: one div per plot, Plotly.react on every change (data arrays are memoised by the
  * callers so unchanged traces are not recomputed), and a registry of plot divs for image export.
+ *
+ * Plotly (several MB of script) is loaded on demand (loadPlotly: a dynamic import, started by main.tsx
+ * once the page has painted), so the first paint does not wait for it; a plot drawn before it arrives
+ * draws when it does.
  */
 import { useEffect, useRef } from 'react';
-import Plotly from 'plotly.js-strict-dist-min';
+
+// The strict bundle's types: src/ui/plotly-strict.d.ts (its module object is Plotly itself).
+type PlotlyModule = typeof import('plotly.js-strict-dist-min');
+
+let plotly: PlotlyModule | null = null;
+let plotlyLoading: Promise<PlotlyModule> | null = null;
+
+/** Plotly, loaded once (the same promise for every caller). */
+export function loadPlotly(): Promise<PlotlyModule> {
+  plotlyLoading ??= import('plotly.js-strict-dist-min').then((m) => {
+    plotly = (m as unknown as { default: PlotlyModule }).default;
+    return plotly;
+  });
+  return plotlyLoading;
+}
 
 export type PlotData = Record<string, unknown>;
 export type PlotLayout = Record<string, unknown>;
@@ -65,7 +83,9 @@ interface PlotProps {
    * Draw on the next frame instead of at once, keeping only the latest data (the bottom strip, so the
    * Profile shows a pick edit first and a drag does not queue redraws). 'data': only when the data
    * changed and the layout did not (the Trace board's pick markers: they follow an edit one frame after
-   * the Profile, but follow a zoom or pan of the board in the same frame).
+   * the Profile, but follow a zoom or pan of the board in the same frame). Every plot's first draw
+   * (a pane that appears with new results, such as the Trace board) is deferred too, so the plots
+   * already on screen (the Profile) show the new results first.
    */
   defer?: boolean | 'data';
 }
@@ -80,13 +100,20 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
     plotRegistry.set(name, div);
     return () => {
       plotRegistry.delete(name);
-      Plotly.purge(div);
+      plotly?.purge(div);
     };
   }, [name]);
   useEffect(() => {
     const div = ref.current!;
     let alive = true;
     const draw = () => {
+      if (!plotly) {
+        void loadPlotly().then(() => {
+          if (alive) draw();
+        });
+        return;
+      }
+      const Plotly = plotly;
       const t0 = performance.now();
       const drawing = Plotly.react(div, data as never, layout as never, { ...PLOT_CONFIG, ...(config ?? {}) } as never);
       div.dataset.startedAt = t0.toFixed(1);
@@ -114,7 +141,8 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
         onReady?.(div);
       });
     };
-    const later = defer === 'data' ? drawnLayout.current === layout : !!defer;
+    const first = drawnLayout.current === null;
+    const later = first || (defer === 'data' ? drawnLayout.current === layout : !!defer);
     drawnLayout.current = layout;
     if (!later) {
       draw();
@@ -178,7 +206,8 @@ interface Axis {
   l2p: (v: number) => number;
 }
 
-export function downloadPlot(name: string, format: 'png' | 'svg', fileName: string): Promise<unknown> {
+export async function downloadPlot(name: string, format: 'png' | 'svg', fileName: string): Promise<unknown> {
+  const Plotly = await loadPlotly();
   const div = plotRegistry.get(name);
   if (!div) return Promise.reject(new Error(`${PLOT_NAMES[name] ?? name} is not on screen.`));
   const size = { format, filename: fileName, width: div.clientWidth || 900, height: div.clientHeight || 600 };

@@ -85,12 +85,21 @@ export class WorkerLane {
     });
   }
 
+  /** Starts the worker ahead of its first job (its script is compiled while the page is idle). */
+  warm(): void {
+    this.ensure();
+  }
+
   get busy(): boolean {
     return this.pending.size > 0;
   }
 
-  /** Stops every job of this lane at once; their promises reject with CANCELLED. */
+  /**
+   * Stops every job of this lane at once; their promises reject with CANCELLED. An idle worker is kept
+   * (it holds nothing between jobs), so the next job does not pay for starting a new one.
+   */
   cancel(): void {
+    if (this.pending.size === 0) return;
     const err: ErrorInfo = { code: 'CANCELLED', message: 'Stopped by the user.' };
     for (const p of this.pending.values()) p.reject(err);
     this.pending.clear();

@@ -6,10 +6,11 @@
 import { toErrorInfo } from '../core/errors';
 import type { WaveRecord } from '../core/model';
 import { readWaveFile } from '../core/io/readers';
-import { readProjectArchive, writeProjectArchive } from '../core/io/archive';
+import { readProjectArchive, validateProjectDocument } from '../core/io/archive';
 import { makeDemoProject } from '../core/synth/demo';
 import { autoPick, prepare } from '../core/pipeline';
-import type { ParsedFile, WorkerRequest, WorkerResponse } from './protocol';
+import type { OpenedArchive, ParsedFile, WorkerRequest, WorkerResponse } from './protocol';
+import { buffersOf } from './transfer';
 
 const ctx = self as unknown as DedicatedWorkerGlobalScope;
 
@@ -17,29 +18,45 @@ function post(msg: WorkerResponse, transfer: Transferable[] = []): void {
   ctx.postMessage(msg, transfer);
 }
 
+/** Posts a result the worker does not keep: its sample arrays and bytes move to the page. */
+function handOver(msg: WorkerResponse): void {
+  post(msg, buffersOf(msg));
+}
+
+/** Reads the waveform files of an opened project (deviation tables are not waveforms). */
+function readOpened(
+  opened: Omit<OpenedArchive, 'parsed'>,
+  progress: (done: number, total: number) => void,
+): OpenedArchive {
+  const deviationNames = new Set(Object.values(opened.doc.deviationFiles ?? {}));
+  const parsed: ParsedFile[] = [];
+  opened.files.forEach((f, i) => {
+    if (!deviationNames.has(f.name)) parsed.push({ name: f.name, outcome: readWaveFile(f.bytes, f.name) });
+    progress(i + 1, opened.files.length);
+  });
+  return { ...opened, parsed };
+}
+
 function handle(req: WorkerRequest): void {
   const { jobId } = req;
   try {
+    const progress = (done: number, total: number) => post({ type: 'progress', jobId, stage: 'read', done, total });
     if (req.type === 'parse') {
       req.files.forEach((f, i) => {
         const opts = f.sampleIntervalS !== undefined ? { sampleIntervalS: f.sampleIntervalS } : {};
-        post({ type: 'parsed-file', jobId, file: { name: f.name, outcome: readWaveFile(f.bytes, f.name, opts) } });
-        post({ type: 'progress', jobId, stage: 'read', done: i + 1, total: req.files.length });
+        // The bytes came as a copy (the page keeps its own for the archive and autosave): only the record moves back.
+        handOver({ type: 'parsed-file', jobId, file: { name: f.name, outcome: readWaveFile(f.bytes, f.name, opts) } });
+        progress(i + 1, req.files.length);
       });
       post({ type: 'parsed', jobId });
     } else if (req.type === 'open-archive') {
-      const opened = readProjectArchive(req.bytes, req.name);
-      const deviationNames = new Set(Object.values(opened.doc.deviationFiles ?? {}));
-      const parsed: ParsedFile[] = [];
-      opened.files.forEach((f, i) => {
-        if (!deviationNames.has(f.name)) parsed.push({ name: f.name, outcome: readWaveFile(f.bytes, f.name) });
-        post({ type: 'progress', jobId, stage: 'read', done: i + 1, total: opened.files.length });
-      });
-      post({ type: 'archive', jobId, archive: { ...opened, parsed } });
+      handOver({ type: 'archive', jobId, archive: readOpened(readProjectArchive(req.bytes, req.name), progress) });
     } else if (req.type === 'make-demo') {
+      // Opened as an archive would be, without zipping and unzipping it.
       const demo = makeDemoProject(req.kind);
-      const bytes = writeProjectArchive(demo.doc, demo.files);
-      post({ type: 'demo', jobId, name: `demo-${req.kind}.zip`, bytes }, [bytes.buffer as ArrayBuffer]);
+      const doc = validateProjectDocument(demo.doc, `demo-${req.kind}.zip`);
+      const archive = readOpened({ doc, files: demo.files, missing: [] }, progress);
+      handOver({ type: 'archive', jobId, archive });
     } else if (req.type === 'process') {
       const records = new Map<string, WaveRecord>(req.records.map((r) => [r.id, r]));
       post({ type: 'progress', jobId, stage: 'prepare', done: 0, total: 1 });
@@ -53,7 +70,7 @@ function handle(req: WorkerRequest): void {
           post({ type: 'progress', jobId, stage: 'auto-pick', done, total });
         }
       });
-      post({ type: 'processed', jobId, prepared, auto });
+      handOver({ type: 'processed', jobId, prepared, auto });
     }
   } catch (e) {
     post({ type: 'failed', jobId, error: toErrorInfo(e, req.type === 'open-archive' ? req.name : undefined) });

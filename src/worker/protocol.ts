@@ -1,6 +1,7 @@
 /**
- * Messages between the page and the core worker. Everything is structured-clone friendly: typed arrays
- * travel as copies, errors as ErrorInfo.
+ * Messages between the page and the core worker. Everything is structured-clone friendly; errors travel
+ * as ErrorInfo. Typed arrays the page sends are copies (the page keeps its records and bytes); results
+ * the worker sends back are transferred (worker/transfer.ts). 'make-demo' answers with 'archive'.
  */
 import type { ErrorInfo } from '../core/errors';
 import type { TestKind, Survey, WaveRecord } from '../core/model';
@@ -53,6 +54,5 @@ export type WorkerResponse =
   | { type: 'parsed-file'; jobId: number; file: ParsedFile }
   | { type: 'parsed'; jobId: number }
   | { type: 'archive'; jobId: number; archive: OpenedArchive }
-  | { type: 'demo'; jobId: number; name: string; bytes: Uint8Array }
   | { type: 'processed'; jobId: number; prepared: Prepared; auto: AutoPickResult }
   | { type: 'failed'; jobId: number; error: ErrorInfo };

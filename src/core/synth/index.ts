@@ -4,3 +4,4 @@ export * from '../random';
 export * from './pulse';
 export * from './synthesize';
 export * from './demo';
+export * from './text';

@@ -55,9 +55,16 @@ function rawPeak(frequencyHz: number): number {
   return g(0.5 * (lo + hi));
 }
 
-/** Normalising constant A of the wavelet (max |w| = 1). */
+const scales = new Map<number, number>();
+
+/** Normalising constant A of the wavelet (max |w| = 1); computed once per frequency. */
 export function pulseScale(frequencyHz: number): number {
-  return 1 / rawPeak(frequencyHz);
+  let a = scales.get(frequencyHz);
+  if (a === undefined) {
+    a = 1 / rawPeak(frequencyHz);
+    scales.set(frequencyHz, a);
+  }
+  return a;
 }
 
 /** The causal pulse at time t after its onset (0 for t < 0), peak magnitude 1. */
@@ -122,6 +129,18 @@ function nextPow2(n: number): number {
   return p;
 }
 
+/** fft.js objects (with their twiddle tables) by size: a survey renders hundreds of arrivals of one size. */
+const ffts = new Map<number, FFT>();
+
+function fftOf(nfft: number): FFT {
+  let f = ffts.get(nfft);
+  if (!f) {
+    f = new FFT(nfft);
+    ffts.set(nfft, f);
+  }
+  return f;
+}
+
 /**
  * The pulse (peak 1 before attenuation) sampled at t_i = firstSampleS + i dtS.
  * Without attenuation it is evaluated in the time domain (exact onset). With attenuation it is built
@@ -136,8 +155,8 @@ export function renderArrival(nSamples: number, dtS: number, firstSampleS: numbe
     return out;
   }
   const nfft = nextPow2(2 * nSamples);
-  const fft = new FFT(nfft);
-  const spec = fft.createComplexArray() as number[];
+  const fft = fftOf(nfft);
+  const spec = new Float64Array(2 * nfft);
   const delayS = r.arrivalS - firstSampleS;
   for (let k = 0; k <= nfft / 2; k++) {
     const f = k / (nfft * dtS);
@@ -157,7 +176,7 @@ export function renderArrival(nSamples: number, dtS: number, firstSampleS: numbe
       spec[2 * (nfft - k) + 1] = -im;
     }
   }
-  const time = fft.createComplexArray() as number[];
+  const time = new Float64Array(2 * nfft);
   fft.inverseTransform(time, spec);
   for (let i = 0; i < nSamples; i++) out[i] = time[2 * i];
   return out;
