@@ -116,7 +116,10 @@ function placeNew(newRecords: WaveRecord[]): void {
     const keptRecs = kept.map((r) => rawRecords.get(r.recordId)).filter((r): r is WaveRecord => !!r);
     const placed = place(s.survey, [...keptRecs, ...newRecords]);
     const byId = new Map(placed.map((a) => [a.recordId, a]));
-    const order = [...kept.map((r) => byId.get(r.recordId) ?? r), ...newRecords.map((r) => byId.get(r.id)!)];
+    const order = [
+      ...kept.map((r) => byId.get(r.recordId) ?? r),
+      ...newRecords.map((r) => byId.get(r.id)).filter((a): a is RecordAssignment => a !== undefined),
+    ];
     return { survey: { ...s.survey, records: order } };
   });
 }

@@ -76,6 +76,23 @@ describe('depths: record log, header plausibility, spreads', () => {
     expect(scorePlacement(v, r)).toEqual({ depth: 1, hit: 1, channels: 1 });
     expect(r.records.every((p) => p.depthM?.source === 'log' && p.hit?.source === 'log')).toBe(true);
   });
+  it('two files of the same name (instrument numbering restarted) are two records, keyed by their ids', () => {
+    const v = makeVariantSurvey({ ...base, naming: 'instrument', locations: 'none', depthCount: 2 });
+    const [a, b] = readVariant(v);
+    // Same original name, different session ids (folder or order suffix), as the app and the CLI give them.
+    const twins = [
+      { ...a, id: 'day1/1.sg2', fileName: '1.sg2' },
+      { ...b, id: 'day2/1.sg2', fileName: '1.sg2' },
+    ];
+    const r = inferSetup({
+      records: twins,
+      geometry: variantGeometry(v),
+      settings: defaultPlacementSettings(),
+      log: null,
+    });
+    expect(r.records.map((p) => p.file)).toEqual(['day1/1.sg2', 'day2/1.sg2']);
+    expect(new Set(r.records.map((p) => p.recordId)).size).toBe(2);
+  });
   it('spread positions 0..n-1 in RECEIVER_LOCATION are rejected as a spread, not read as depth', () => {
     const v = makeVariantSurvey({ ...base, naming: 'instrument', locations: 'spread-index' });
     const r = inferVariant(v);

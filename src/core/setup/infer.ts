@@ -251,7 +251,7 @@ export function inferSetup(input: SetupInput): SetupResult {
   if (input.log) {
     const m = matchRecordLog(
       input.log,
-      input.records.map((r) => r.fileName),
+      input.records.map((r) => r.id),
     );
     logRows = m.byFile;
     for (const row of m.unknown) {
@@ -272,8 +272,9 @@ export function inferSetup(input: SetupInput): SetupResult {
     }
   }
   const records: PlacedRecord[] = input.records.map((rec) => {
-    const prev = prevByFile.get(rec.fileName);
-    const row = logRows.get(rec.fileName);
+    // Records are keyed by their id (the unique session path: two files may share a name).
+    const prev = prevByFile.get(rec.id);
+    const row = logRows.get(rec.id);
     if (input.log && !row) {
       problems.push({
         code: 'LOG_FILE_NOT_LISTED',
@@ -335,7 +336,7 @@ export function inferSetup(input: SetupInput): SetupResult {
     tally.add('hit', hit?.source ?? 'default', hitRule, rec.fileName);
     return {
       recordId: prev?.recordId ?? newRecordId(used),
-      file: rec.fileName,
+      file: rec.id,
       depthM,
       hit,
       channels,
