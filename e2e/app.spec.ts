@@ -11,7 +11,7 @@ import { test, expect, type Page } from '@playwright/test';
 import { readFileSync, mkdirSync } from 'node:fs';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { readWaveFile } from '../src/core/io/readers';
-import { readProjectArchive } from '../src/core/io/archive';
+import { readProjectArchive } from '../src/core/io/project';
 import { runPipeline } from '../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, toCsv } from '../src/core/report/tables';
 import { intervalKey, pickEditKey, stationKey } from '../src/core/keys';

@@ -11,7 +11,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { synthesizeSurvey, toSeg2Input } from '../src/core/synth/synthesize';
 import { demoDownholeOptions, demoEarthModel } from '../src/core/synth/demo';
 import { writeSeg2 } from '../src/core/io/seg2';
-import { newProjectDocument, writeProjectArchive } from '../src/core/io/archive';
+import { newProjectDocument, writeProjectArchive } from '../src/core/io/project';
 import { SCREENS, waitProcessed } from './helpers';
 
 mkdirSync(SCREENS, { recursive: true });

@@ -1,6 +1,9 @@
 /**
  * Command-line dispatcher: `npm run cli -- <command> ...`.
  */
+import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { formatSoftwareVersion, setSoftwareVersion } from '../core/version';
 import { runInspect, type CliIo } from './inspect';
 import { runProfile } from './profile';
 
@@ -11,7 +14,22 @@ const COMMANDS: Record<string, Command> = {
   profile: runProfile,
 };
 
+/** softwareVersion for saved projects: package.json's version and the git commit when there is one. */
+function detectVersion(): string {
+  const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
+  let commit: string | null = null;
+  try {
+    commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { stdio: ['ignore', 'pipe', 'ignore'] })
+      .toString()
+      .trim();
+  } catch {
+    commit = null;
+  }
+  return formatSoftwareVersion(pkg.version, commit || null);
+}
+
 async function main(argv: string[]): Promise<number> {
+  setSoftwareVersion(detectVersion());
   const [name, ...rest] = argv;
   const command = name ? COMMANDS[name] : undefined;
   if (!command) {

@@ -8,8 +8,8 @@
 import { existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { toErrorInfo } from '../core/errors';
-import { readProjectArchive, validateProjectDocument, type OpenedProject } from '../core/io/archive';
-import { loadProject } from '../core/io/project';
+import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core/io/project';
+import { patchSettings } from '../core/settings';
 import { runPipeline } from '../core/pipeline';
 import {
   directTable,
@@ -25,21 +25,27 @@ import { hasDirectVelocities } from '../core/catalogue/testKinds';
 import { type CliIo, cliPath } from './inspect';
 import type { UnitSystem } from '../core/units';
 
-function openFolder(dir: string): OpenedProject {
-  const path = join(dir, 'project.json');
-  if (!existsSync(path)) throw new Error(`${dir} has no project.json`);
-  let raw: unknown;
-  try {
-    raw = JSON.parse(readFileSync(path, 'utf8'));
-  } catch (e) {
-    throw new Error(`${path} is not valid JSON: ${(e as Error).message}`);
-  }
-  const doc = validateProjectDocument(raw, dir);
-  const present = new Set(readdirSync(dir));
-  const files = doc.files
-    .filter((n) => present.has(n))
-    .map((n) => ({ name: n, bytes: new Uint8Array(readFileSync(join(dir, n))) }));
-  return { doc, files, missing: doc.files.filter((n) => !present.has(n)) };
+/** A folder as a project source: project.json and the listed files beside it (sub-folders allowed). */
+export function folderSource(dir: string): ProjectSource {
+  const inside = (p: string) => join(dir, ...p.split('/'));
+  const walk = (rel: string): string[] =>
+    readdirSync(join(dir, rel), { withFileTypes: true }).flatMap((e) => {
+      const p = rel ? `${rel}/${e.name}` : e.name;
+      return e.isDirectory() ? walk(p) : [p];
+    });
+  return {
+    name: basename(dir),
+    projectJson: () =>
+      existsSync(inside('project.json')) ? new Uint8Array(readFileSync(inside('project.json'))) : null,
+    readListed(paths) {
+      const files = new Map<string, Uint8Array>();
+      for (const p of paths) {
+        const full = inside(p);
+        if (existsSync(full) && statSync(full).isFile()) files.set(p, new Uint8Array(readFileSync(full)));
+      }
+      return { files, present: walk('') };
+    },
+  };
 }
 
 export async function runProfile(args: string[], io: CliIo): Promise<number> {
@@ -84,22 +90,24 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   try {
     if (!existsSync(input)) throw new Error(`${input} does not exist`);
     opened = statSync(input).isDirectory()
-      ? openFolder(input)
+      ? openProject(folderSource(input))
       : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
   } catch (e) {
     io.stderr.write(`profile: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
     return 2;
   }
-  const project = loadProject(opened, basename(input));
-  const settings = method ? { ...project.settings, profileMethod: method as IntervalMethod } : project.settings;
+  const project = opened.doc;
+  const settings = method
+    ? patchSettings(project.settings, { intervals: { profileMethod: method as IntervalMethod } })
+    : project.settings;
   const result = runPipeline({
     survey: project.survey,
-    records: project.records,
+    records: opened.records,
     settings,
     edits: project.edits,
-    comparison: project.comparison,
+    comparison: project.comparison ?? null,
   });
-  const issues = [...project.issues, ...result.derived.issues];
+  const issues = [...opened.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   mkdirSync(out, { recursive: true });
   writeFileSync(join(out, 'picks.csv'), toCsv(picksTable(result.prepared.stations, result.derived, units)));

@@ -109,6 +109,8 @@ export interface ChannelAssignment {
   component: Component;
   /** Receiver slot in the test kind's layout (src/core/catalogue/testKinds.ts): r0, r1 ... never a hole name. */
   receiver: ReceiverSlot;
+  /** Where the meaning came from (absent = the kind's default). */
+  source?: ValueSource;
 }
 
 /** How one record (file) is placed in the survey. */
@@ -139,7 +141,16 @@ export interface SoilLayer {
   stressExponent: number;
   /** Poisson's ratio used for E where Vp cannot give the skeleton's value. */
   poissonRatio: number;
+  /** Inputs for strain-dependent stiffness (absent = not given). */
+  soilType?: SoilType;
+  plasticityIndexPct?: number | null;
+  ocr?: number | null;
+  finesContentPct?: number | null;
+  k0?: number | null;
+  workingStrainPct?: number | null;
 }
+
+export type SoilType = 'clay' | 'silt' | 'sand' | 'silty-sand' | 'gravel' | 'rock' | 'other';
 
 export interface SoilColumn {
   layers: SoilLayer[];
@@ -150,6 +161,13 @@ export interface SoilColumn {
 
 export interface Survey {
   name: string;
+  /** Site name and test date (YYYY-MM-DD) for reports; absent = not given. */
+  siteName?: string;
+  testDate?: string | null;
+  /** One global left/right swap of hits inferred from the data. */
+  hitSwap?: boolean;
+  /** One channel map for all records (records may override); absent = none. */
+  channelMap?: ChannelAssignment[];
   kind: TestKind;
   /** Receivers in use (seismic cone: 1 or 2; other kinds fixed by the kind catalogue). */
   receiverCount: number;

@@ -5,7 +5,7 @@
 import type { ErrorInfo } from '../core/errors';
 import type { RecordAssignment, TestKind, WaveRecord } from '../core/model';
 import { assignRecords } from '../core/survey/assign';
-import { writeProjectArchive, type ProjectDocument } from '../core/io/archive';
+import { writeProjectArchive, type ProjectDocument } from '../core/io/project';
 import { uniqueRecordIds } from '../core/io/record-ids';
 import { textLayout } from '../core/io/text';
 import { readDeviationTable } from '../core/io/deviation';
@@ -229,7 +229,7 @@ export function removeFile(fileName: string): void {
 /** Replaces the whole session with a project document and its files (archive, demo, restore). */
 export function applyProject(
   doc: ProjectDocument,
-  opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing'>,
+  opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing' | 'issues'>,
   archiveName: string,
   extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {},
 ): void {
@@ -248,12 +248,13 @@ export function applyProject(
       sizeBytes: 0,
       status: 'error',
       error: {
-        code: 'ARCHIVE_FILE_MISSING',
+        code: 'PROJECT_FILE_MISSING',
         message: `${name} is listed in project.json but is not in ${archiveName}.`,
         file: name,
       },
     });
   }
+  for (const issue of opened.issues ?? []) if (issue.code === 'ARCHIVE_FILE_UNLISTED') pushMessage(issue);
   // Records in the survey keep their ids; any record the archive added with a new name is placed too.
   const placed = new Set(doc.survey.records.map((r) => r.recordId));
   const unplaced = [...rawRecords.values()].filter((r) => !placed.has(r.id));
@@ -290,7 +291,11 @@ export function applyProject(
   void runProcessing();
 }
 
-export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise<void> {
+export async function openArchiveBytes(
+  name: string,
+  bytes: Uint8Array,
+  extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {},
+): Promise<ErrorInfo | null> {
   useApp.setState({ loadProgress: { done: 0, total: 1 } });
   let opened: OpenedArchive | null = null;
   try {
@@ -304,11 +309,13 @@ export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise
     });
   } catch (e) {
     useApp.setState({ loadProgress: null });
-    pushMessage({ ...(e as ErrorInfo), file: (e as ErrorInfo).file ?? name });
-    return;
+    const info = { ...(e as ErrorInfo), file: (e as ErrorInfo).file ?? name };
+    pushMessage(info);
+    return info;
   }
   const o = opened as OpenedArchive | null;
-  if (o) applyProject(o.doc, o, name);
+  if (o) applyProject(o.doc, o, name, extra);
+  return null;
 }
 
 /** Makes the demo survey in the worker, then opens it exactly like a project archive. */

@@ -5,7 +5,7 @@
 import type { ErrorInfo } from '../core/errors';
 import type { TestKind, Survey, WaveRecord } from '../core/model';
 import type { Settings } from '../core/settings';
-import type { ProjectDocument, ProjectFile } from '../core/io/archive';
+import type { ProjectDocument, ProjectFile } from '../core/io/project';
 import type { ReadOutcome } from '../core/io/readers';
 import type { Prepared } from '../core/pipeline';
 import type { AutoPickResult } from '../core/picking/autopick';
@@ -38,6 +38,8 @@ export interface OpenedArchive {
   missing: string[];
   /** Read outcome of each waveform file (deviation-table files are not read as waveforms). */
   parsed: ParsedFile[];
+  /** Problems the opener reported (missing, unreadable or unlisted files). */
+  issues?: ErrorInfo[];
 }
 
 export type WorkerResponse =

@@ -5,7 +5,7 @@
  */
 import { TEST_KINDS } from '../catalogue/testKinds';
 import { BorewaveError } from '../errors';
-import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/archive';
+import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/project';
 import { writeSeg2 } from '../io/seg2';
 import { encodeUtf8 } from '../io/bytes';
 import type { Borehole, ByteOrder, DeviationStation, TestKind } from '../model';
