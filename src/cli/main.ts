@@ -3,7 +3,7 @@
  */
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import { formatSoftwareVersion, setSoftwareVersion } from '../core/version';
+import { formatSoftwareVersion, setSoftwareVersion } from '../core';
 import { runInspect, type CliIo } from './inspect';
 import { runProfile } from './profile';
 

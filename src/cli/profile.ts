@@ -7,23 +7,15 @@
  */
 import { existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { toErrorInfo } from '../core/errors';
-import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core/io/project';
-import { patchSettings } from '../core/settings';
-import { runPipeline } from '../core/pipeline';
-import {
-  directTable,
-  intervalsTable,
-  layersTable,
-  picksTable,
-  profileTable,
-  siteJson,
-  toCsv,
-} from '../core/report/tables';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
-import { hasDirectVelocities } from '../core/catalogue/testKinds';
+import { toErrorInfo } from '../core';
+import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core';
+import { patchSettings } from '../core';
+import { runPipeline } from '../core';
+import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core';
+import { hasDirectVelocities } from '../core';
 import { type CliIo, cliPath } from './inspect';
-import type { UnitSystem } from '../core/units';
+import type { UnitSystem } from '../core';
 
 /** A folder as a project source: project.json and the listed files beside it (sub-folders allowed). */
 export function folderSource(dir: string): ProjectSource {

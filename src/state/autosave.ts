@@ -10,9 +10,9 @@
  */
 import { create } from 'zustand';
 import { createStore, del, delMany, get, getMany, keys, set, type UseStore } from 'idb-keyval';
-import type { ErrorInfo } from '../core/errors';
-import { toProjectJson, writeZip, type ProjectJson } from '../core/io/project';
-import type { UnitSystem } from '../core/units';
+import type { ErrorInfo } from '../core';
+import { toProjectJson, writeZip, type ProjectJson } from '../core';
+import type { UnitSystem } from '../core';
 import type { NamedBytes } from '../worker/protocol';
 import { currentProject, openArchiveBytes } from './files';
 import { useApp } from './store';

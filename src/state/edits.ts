@@ -3,12 +3,12 @@
  * method also makes that method the chosen one for the station's intervals, in the same step, so the
  * profile follows the edit at once.
  */
-import type { Wave } from '../core/model';
-import { toErrorInfo, type ErrorInfo } from '../core/errors';
-import { parseComparisonCsv, type ComparisonProfile } from '../core/site/comparison';
-import { patchSettings, type SettingsPatch, type UserEdits } from '../core/settings';
-import type { EditablePickMethod, IntervalMethod } from '../core/catalogue/methods';
-import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core/keys';
+import type { Wave } from '../core';
+import { toErrorInfo, type ErrorInfo } from '../core';
+import { parseComparisonCsv, type ComparisonProfile } from '../core';
+import { patchSettings, type SettingsPatch, type UserEdits } from '../core';
+import type { EditablePickMethod, IntervalMethod } from '../core';
+import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core';
 import { amend, commit, useApp, useResults, type Snapshot } from './store';
 
 /** Interval keys that use the station (as either end). */

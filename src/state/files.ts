@@ -2,16 +2,16 @@
  * Loading and removing files, opening and saving project archives, the demo survey. Parsing happens in
  * the worker; a file that fails shows its error while every good file stays loaded.
  */
-import type { ErrorInfo } from '../core/errors';
-import type { RecordAssignment, TestKind, WaveRecord } from '../core/model';
-import { assignRecords } from '../core/survey/assign';
-import { writeProjectArchive, type ProjectDocument } from '../core/io/project';
-import { uniqueRecordIds } from '../core/io/record-ids';
-import { textLayout } from '../core/io/text';
-import { readDeviationTable } from '../core/io/deviation';
-import { defaultSettings, emptyEdits } from '../core/settings';
+import type { ErrorInfo } from '../core';
+import type { RecordAssignment, TestKind, WaveRecord } from '../core';
+import { assignRecords } from '../core';
+import { writeProjectArchive, type ProjectDocument } from '../core';
+import { uniqueRecordIds } from '../core';
+import { textLayout } from '../core';
+import { readDeviationTable } from '../core';
+import { defaultSettings, emptyEdits } from '../core';
 import { ioLane } from '../worker/client';
-import { blankSurvey } from '../core/catalogue/testKinds';
+import { blankSurvey } from '../core';
 import type { NamedBytes, OpenedArchive, ParsedFile } from '../worker/protocol';
 import { clearRaw, rawFiles, rawRecords } from './raw';
 import {

@@ -3,20 +3,20 @@
  * visible) with the Site and Export sheets over it, and the bottom strip with Pair check and Travel time.
  */
 import { memo, useDeferredValue, useEffect, useRef } from 'react';
-import type { Derived } from '../core/pipeline';
-import type { UnitSystem } from '../core/units';
-import type { Survey, Wave } from '../core/model';
-import type { Settings } from '../core/settings';
-import { STANDARD_NAMES } from '../core/site/classes';
-import { EXPORT_CAUTIONS } from '../core/report/tables';
+import type { Derived } from '../core';
+import type { UnitSystem } from '../core';
+import type { Survey, Wave } from '../core';
+import type { Settings } from '../core';
+import { STANDARD_NAMES } from '../core';
+import { EXPORT_CAUTIONS } from '../core';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
 import { currentDerived, settleSpread, useDerived } from '../state/derived';
 import { clearPick, setPick, toggleStationExcluded } from '../state/edits';
 import { loadFiles, startFresh } from '../state/files';
 import { cancelProcessing, runProcessing } from '../state/processing';
 import { dismissMessage, redo, setUnitSystem, setView, undo, useApp, useResults } from '../state/store';
-import { EDITABLE_METHODS, methodInfo } from '../core/catalogue/methods';
-import { kindInfo } from '../core/catalogue/testKinds';
+import { EDITABLE_METHODS, methodInfo } from '../core';
+import { kindInfo } from '../core';
 import { GeometryPane } from './Geometry';
 import { PairCheck } from './PairCheck';
 import { boardStations, effectiveReceiver, pickFor } from './picks';

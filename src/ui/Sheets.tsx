@@ -3,8 +3,8 @@
  * questions each standard asks beyond Vs30, cautions) and Export (tables from core/report, plots as
  * images, the project archive, a printable summary).
  */
-import { hasDirectVelocities } from '../core/catalogue/testKinds';
-import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/site/classes';
+import { hasDirectVelocities } from '../core';
+import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core';
 import {
   directTable,
   intervalsTable,
@@ -14,8 +14,8 @@ import {
   siteJson,
   toCsv,
   EXPORT_CAUTIONS,
-} from '../core/report/tables';
-import type { Vs30RuleSetting } from '../core/settings';
+} from '../core';
+import type { Vs30RuleSetting } from '../core';
 import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
 import { projectArchiveBytes } from '../state/files';

@@ -3,12 +3,12 @@
  * Heavy core work off the main thread: reading waveform files, opening project archives, making the
  * demo survey, and prepare + auto-pick with progress. Only calls the core; computes nothing itself.
  */
-import { toErrorInfo } from '../core/errors';
-import type { WaveRecord } from '../core/model';
-import { readWaveFile } from '../core/io/readers';
-import { readProjectArchive, writeProjectArchive } from '../core/io/project';
-import { makeDemoProject } from '../core/synth/demo';
-import { autoPick, prepare } from '../core/pipeline';
+import { toErrorInfo } from '../core';
+import type { WaveRecord } from '../core';
+import { readWaveFile } from '../core';
+import { readProjectArchive, writeProjectArchive } from '../core';
+import { makeDemoProject } from '../core';
+import { autoPick, prepare } from '../core';
 import type { WorkerRequest, WorkerResponse } from './protocol';
 
 const ctx = self as unknown as DedicatedWorkerGlobalScope;

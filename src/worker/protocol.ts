@@ -2,13 +2,13 @@
  * Messages between the page and the core worker. Everything is structured-clone friendly: typed arrays
  * travel as copies, errors as ErrorInfo.
  */
-import type { ErrorInfo } from '../core/errors';
-import type { TestKind, Survey, WaveRecord } from '../core/model';
-import type { Settings } from '../core/settings';
-import type { ProjectDocument, ProjectFile } from '../core/io/project';
-import type { ReadOutcome } from '../core/io/readers';
-import type { Prepared } from '../core/pipeline';
-import type { AutoPickResult } from '../core/picking/autopick';
+import type { ErrorInfo } from '../core';
+import type { TestKind, Survey, WaveRecord } from '../core';
+import type { Settings } from '../core';
+import type { ProjectDocument, ProjectFile } from '../core';
+import type { ReadOutcome } from '../core';
+import type { Prepared } from '../core';
+import type { AutoPickResult } from '../core';
 
 export interface NamedBytes {
   /** Name in the session and in a saved project: unique, may hold folders ("day2/1.sg2"). */

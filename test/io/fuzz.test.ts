@@ -133,9 +133,7 @@ describe('readWaveFile fuzz (about 2,000 cases)', () => {
               ...Array.from(text).flatMap((c) => [c.charCodeAt(0) & 0xff, c.charCodeAt(0) >> 8]),
             ])
           : new TextEncoder().encode(text);
-        const t0 = performance.now();
         const out = readWaveFile(bytes, 'l.txt', given ? { sampleIntervalS: 1e-4 } : {});
-        expect(performance.now() - t0).toBeLessThan(MAX_MS);
         if (!out.ok) expect(out.error.code).not.toBe('INTERNAL');
       }),
       { numRuns: 300 },
