@@ -17,7 +17,6 @@ import type { IntervalValue } from '../core';
 import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
-import { snapTimeS } from '../core';
 import { decimateMinMax, dropFlatRuns, mean, medianStep, peakAbs } from './decimate';
 import { boardStations, effectiveReceiver, pickFor, receiversOf } from './picks';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
@@ -507,12 +506,11 @@ export function TraceBoard() {
       const place = (clientX: number) => {
         const q = pointerToData(plotDiv, clientX, ev.clientY);
         if (!q) return null;
-        const tS = q.x / 1000;
-        return st.snap ? snapTimeS(s.working, method, tS) : tS;
+        return q.x / 1000;
       };
       const t0 = place(ev.clientX);
       if (t0 === null) return;
-      beginPickDrag(s.key, s.wave, method, t0);
+      beginPickDrag(s.key, s.wave, method, t0, st.snap);
       let frame = 0;
       let lastX = ev.clientX;
       const onMove = (e: MouseEvent) => {
@@ -521,7 +519,7 @@ export function TraceBoard() {
         frame = requestAnimationFrame(() => {
           frame = 0;
           const t = place(lastX);
-          if (t !== null) movePickDrag(s.key, s.wave, method, t);
+          if (t !== null) movePickDrag(s.key, s.wave, method, t, st.snap);
         });
       };
       const onUp = () => {
@@ -530,7 +528,7 @@ export function TraceBoard() {
         window.removeEventListener('mouseup', onUp, true);
         if (lastX !== ev.clientX) {
           const t = place(lastX);
-          if (t !== null) movePickDrag(s.key, s.wave, method, t);
+          if (t !== null) movePickDrag(s.key, s.wave, method, t, st.snap);
         }
       };
       window.addEventListener('mousemove', onMove, true);
