@@ -30,7 +30,7 @@ const survey: Survey = {
   soil: { layers: [], waterTableM: 2, waterUnitWeightKnM3: 9.81 },
 };
 
-describe('project archive (design.md contract: project.json + original files in one zip, via fflate)', () => {
+describe('project archive (docs/conventions.md contract: project.json + original files in one zip, via fflate)', () => {
   it('round trip keeps the document and the file bytes exactly', () => {
     const doc = newProjectDocument(survey);
     doc.edits.picks[pickEditKey(stationKey('r0', 1, 'H1'), 'S', 'onset')] = 0.0123;

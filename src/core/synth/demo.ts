@@ -1,7 +1,7 @@
 /**
  * The demo scenario: an invented site, "Tillwater Bend", a river terrace with made ground over soft
  * clay, sands and gravels on weathered mudstone. Numbers are ours, chosen inside the typical ranges
- * of shared/domain.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
+ * of docs/methods.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
  */
 import { TEST_KINDS } from '../catalogue/testKinds';
 import { BorewaveError } from '../errors';
