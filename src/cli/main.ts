@@ -4,6 +4,7 @@
 import { runInspect, type CliIo } from './inspect';
 import { runProfile } from './profile';
 import { runReport } from './report';
+import { cliSoftwareVersion } from './version';
 
 type Command = (args: string[], io: CliIo) => Promise<number>;
 
@@ -14,6 +15,7 @@ const COMMANDS: Record<string, Command> = {
 };
 
 async function main(argv: string[]): Promise<number> {
+  cliSoftwareVersion();
   const [name, ...rest] = argv;
   const command = name ? COMMANDS[name] : undefined;
   if (!command) {

@@ -7,40 +7,38 @@
  */
 import { existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { toErrorInfo } from '../core/errors';
-import { readProjectArchive, validateProjectDocument, type OpenedProject } from '../core/io/archive';
-import { loadProject } from '../core/io/project';
-import { runPipeline } from '../core/pipeline';
-import {
-  directTable,
-  intervalsTable,
-  layersTable,
-  picksTable,
-  profileTable,
-  siteJson,
-  toCsv,
-} from '../core/report/tables';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
-import { hasDirectVelocities } from '../core/catalogue/testKinds';
+import { toErrorInfo } from '../core';
+import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core';
+import { patchSettings } from '../core';
+import { runPipeline } from '../core';
+import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core';
+import { hasDirectVelocities } from '../core';
 import { type CliIo, cliPath } from './inspect';
 import { openFieldFolder, type FolderFlags } from './folder';
-import type { UnitSystem } from '../core/units';
+import type { UnitSystem } from '../core';
 
-export function openFolder(dir: string): OpenedProject {
-  const path = join(dir, 'project.json');
-  if (!existsSync(path)) throw new Error(`${dir} has no project.json`);
-  let raw: unknown;
-  try {
-    raw = JSON.parse(readFileSync(path, 'utf8'));
-  } catch (e) {
-    throw new Error(`${path} is not valid JSON: ${(e as Error).message}`);
-  }
-  const doc = validateProjectDocument(raw, dir);
-  const present = new Set(readdirSync(dir));
-  const files = doc.files
-    .filter((n) => present.has(n))
-    .map((n) => ({ name: n, bytes: new Uint8Array(readFileSync(join(dir, n))) }));
-  return { doc, files, missing: doc.files.filter((n) => !present.has(n)) };
+/** A folder as a project source: project.json and the listed files beside it (sub-folders allowed). */
+export function folderSource(dir: string): ProjectSource {
+  const inside = (p: string) => join(dir, ...p.split('/'));
+  const walk = (rel: string): string[] =>
+    readdirSync(join(dir, rel), { withFileTypes: true }).flatMap((e) => {
+      const p = rel ? `${rel}/${e.name}` : e.name;
+      return e.isDirectory() ? walk(p) : [p];
+    });
+  return {
+    name: basename(dir),
+    projectJson: () =>
+      existsSync(inside('project.json')) ? new Uint8Array(readFileSync(inside('project.json'))) : null,
+    readListed(paths) {
+      const files = new Map<string, Uint8Array>();
+      for (const p of paths) {
+        const full = inside(p);
+        if (existsSync(full) && statSync(full).isFile()) files.set(p, new Uint8Array(readFileSync(full)));
+      }
+      return { files, present: walk('') };
+    },
+  };
 }
 
 /** A folder is set up from its files when it has no project.json, or one whose survey has no records. */
@@ -142,22 +140,26 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     } else {
       if (setupFlagGiven)
         throw new Error(`${input} holds a complete project; set-up flags apply only to a folder of field files`);
-      opened = isDir ? openFolder(input) : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+      opened = isDir
+        ? openProject(folderSource(input))
+        : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
     }
   } catch (e) {
     io.stderr.write(`profile: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
     return 2;
   }
-  const project = loadProject(opened, basename(input));
-  const settings = method ? { ...project.settings, profileMethod: method as IntervalMethod } : project.settings;
+  const project = opened.doc;
+  const settings = method
+    ? patchSettings(project.settings, { intervals: { profileMethod: method as IntervalMethod } })
+    : project.settings;
   const result = runPipeline({
     survey: project.survey,
-    records: project.records,
+    records: opened.records,
     settings,
     edits: project.edits,
-    comparison: project.comparison,
+    comparison: project.comparison ?? null,
   });
-  const issues = [...setupIssues, ...project.issues, ...result.derived.issues];
+  const issues = [...setupIssues, ...opened.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   const setup = result.derived.setupProblems;
   for (const p of setup)

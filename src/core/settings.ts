@@ -4,7 +4,7 @@
  */
 
 import type { IntervalMethod, OnsetPicker } from './catalogue/methods';
-import type { IntervalKey, PickEditKey, StationWaveKey } from './keys';
+import type { IntervalKey, PickEditKey, ReceiverDepthKey, StationWaveKey } from './keys';
 
 export type { EditablePickMethod, IntervalMethod } from './catalogue/methods';
 
@@ -183,8 +183,8 @@ export interface UserEdits {
   chosenMethod: Record<IntervalKey, IntervalMethod>;
   /** Interval keys left out of the profile. */
   excludedIntervals: IntervalKey[];
-  /** User-fixed azimuth of the first hit direction, degrees, keyed `<receiver>@<depth mm>` (orientation.ts). */
-  azimuthDeg?: Record<string, number>;
+  /** User-fixed horizontal rotation per receiver and logged depth, degrees. */
+  azimuthDeg?: Record<ReceiverDepthKey, number>;
 }
 
 export function emptyEdits(): UserEdits {

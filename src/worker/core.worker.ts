@@ -3,13 +3,13 @@
  * Heavy core work off the main thread: reading waveform files, opening project archives, making the
  * demo survey, and prepare + auto-pick with progress. Only calls the core; computes nothing itself.
  */
-import { toErrorInfo } from '../core/errors';
-import type { WaveRecord } from '../core/model';
-import { readWaveFile } from '../core/io/readers';
-import { readProjectArchive, writeProjectArchive } from '../core/io/archive';
-import { makeDemoProject } from '../core/synth/demo';
-import { autoPick, prepare } from '../core/pipeline';
-import type { ParsedFile, WorkerRequest, WorkerResponse } from './protocol';
+import { toErrorInfo } from '../core';
+import type { WaveRecord } from '../core';
+import { readWaveFile } from '../core';
+import { readProjectArchive, writeProjectArchive } from '../core';
+import { makeDemoProject } from '../core';
+import { autoPick, prepare } from '../core';
+import type { WorkerRequest, WorkerResponse } from './protocol';
 
 const ctx = self as unknown as DedicatedWorkerGlobalScope;
 
@@ -29,13 +29,9 @@ function handle(req: WorkerRequest): void {
       post({ type: 'parsed', jobId });
     } else if (req.type === 'open-archive') {
       const opened = readProjectArchive(req.bytes, req.name);
-      const deviationNames = new Set(Object.values(opened.doc.deviationFiles ?? {}));
-      const parsed: ParsedFile[] = [];
-      opened.files.forEach((f, i) => {
-        if (!deviationNames.has(f.name)) parsed.push({ name: f.name, outcome: readWaveFile(f.bytes, f.name) });
-        post({ type: 'progress', jobId, stage: 'read', done: i + 1, total: opened.files.length });
-      });
-      post({ type: 'archive', jobId, archive: { ...opened, parsed } });
+      post({ type: 'progress', jobId, stage: 'read', done: 1, total: 1 });
+      const { doc, files, missing, parsed, issues } = opened;
+      post({ type: 'archive', jobId, archive: { doc, files, missing, parsed, issues } });
     } else if (req.type === 'make-demo') {
       const demo = makeDemoProject(req.kind);
       const bytes = writeProjectArchive(demo.doc, demo.files);

@@ -2,13 +2,13 @@
  * Messages between the page and the core worker. Everything is structured-clone friendly: typed arrays
  * travel as copies, errors as ErrorInfo.
  */
-import type { ErrorInfo } from '../core/errors';
-import type { TestKind, Survey, WaveRecord } from '../core/model';
-import type { Settings } from '../core/settings';
-import type { ProjectDocument, ProjectFile } from '../core/io/archive';
-import type { ReadOutcome } from '../core/io/readers';
-import type { Prepared } from '../core/pipeline';
-import type { AutoPickResult } from '../core/picking/autopick';
+import type { ErrorInfo } from '../core';
+import type { TestKind, Survey, WaveRecord } from '../core';
+import type { Settings } from '../core';
+import type { ProjectDocument, ProjectFile } from '../core';
+import type { ReadOutcome } from '../core';
+import type { Prepared } from '../core';
+import type { AutoPickResult } from '../core';
 
 export interface NamedBytes {
   /** Name in the session and in a saved project: unique, may hold folders ("day2/1.sg2"). */
@@ -46,6 +46,8 @@ export interface OpenedArchive {
   missing: string[];
   /** Read outcome of each waveform file (deviation-table files are not read as waveforms). */
   parsed: ParsedFile[];
+  /** Problems the opener reported (missing, unreadable or unlisted files). */
+  issues?: ErrorInfo[];
 }
 
 export type WorkerResponse =

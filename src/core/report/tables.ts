@@ -20,7 +20,7 @@ export interface Table {
   rows: Cell[][];
 }
 
-/** Plain words carried by every export (design.md "Cautions"). */
+/** Plain words carried by every export (docs/conventions.md "Cautions"). */
 export const EXPORT_CAUTIONS: string[] = [
   'Results need review by a qualified professional before use in design; local codes and standards govern.',
   ...SITE_CAUTIONS,

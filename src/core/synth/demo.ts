@@ -1,11 +1,11 @@
 /**
  * The demo scenario: an invented site, "Tillwater Bend", a river terrace with made ground over soft
  * clay, sands and gravels on weathered mudstone. Numbers are ours, chosen inside the typical ranges
- * of shared/domain.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
+ * of docs/methods.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
  */
 import { TEST_KINDS } from '../catalogue/testKinds';
 import { BorewaveError } from '../errors';
-import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/archive';
+import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/project';
 import { writeSeg2 } from '../io/seg2';
 import { encodeUtf8 } from '../io/bytes';
 import type { Borehole, ByteOrder, DeviationStation, TestKind } from '../model';
