@@ -9,8 +9,8 @@
  *   derive()       user edits applied, intervals, profile, stiffness, Vs30, site classes (light; every edit)
  */
 import { toErrorInfo, type ErrorInfo } from './errors';
-import type { PairDelay, Pick, Survey, Wave, WaveRecord } from './model';
-import type { Settings, UserEdits } from './settings';
+import type { PairDelay, Pick, SoilColumn, Survey, Wave, WaveRecord } from './model';
+import { defaultDesignSettings, type Settings, type UserEdits } from './settings';
 import {
   intervalKey,
   pickEditKey,
@@ -44,6 +44,8 @@ import {
 import { correctedTimeS, fitLine, intervalVelocitySdMps } from './velocity/formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './velocity/rayfit';
 import { stiffnessProfile, type StiffnessRow, type VelocityInterval } from './stiffness/profile';
+import type { FieldQ } from './stiffness/curves';
+import { designResults, type DesignResults } from './stiffness/design';
 import { defaultSoilColumn, validateSoilColumn } from './stiffness/stress';
 import {
   siteClass,
@@ -248,6 +250,8 @@ export interface Derived {
   drift: MethodDrift | null;
   site: SiteSummary;
   comparison: ComparisonResult | null;
+  /** Modulus reduction and damping curves per soil layer; the liquefaction screen when shaking is given. */
+  design: DesignResults;
   issues: ErrorInfo[];
 }
 
@@ -483,7 +487,7 @@ function profileRows(
   survey: Survey,
   intervals: readonly IntervalValue[],
   issues: ErrorInfo[],
-): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
+): { rows: ProfileRow[]; velocity: VelocityInterval[]; soil: SoilColumn } {
   const chosenS = intervals.filter((r) => r.wave === 'S' && r.chosen).sort((a, b) => a.topM - b.topM);
   const chosenP = intervals.filter((r) => r.wave === 'P' && r.chosen);
   const velocity: VelocityInterval[] = chosenS.map((s) => {
@@ -512,11 +516,13 @@ function profileRows(
   // An unusable soil column must not stop the profile: moduli then use the stated defaults, flagged.
   const soil = survey.soil.layers.length && !soilProblems.length ? survey.soil : fallbackSoil;
   let stiff: StiffnessRow[];
+  let usedSoil = soil;
   try {
     stiff = stiffnessProfile(velocity, soil);
   } catch (e) {
     issues.push(toErrorInfo(e, 'soil column'));
     stiff = stiffnessProfile(velocity, fallbackSoil);
+    usedSoil = fallbackSoil;
   }
   if (soil === fallbackSoil) for (const r of stiff) r.flags.push('default soil column');
   const rows: ProfileRow[] = stiff.map((r, i) => {
@@ -531,7 +537,7 @@ function profileRows(
       vpSdMps: velocity[i].vpSdMps,
     };
   });
-  return { rows, velocity };
+  return { rows, velocity, soil: usedSoil };
 }
 
 type SiteInterval = { topM: number; bottomM: number; vsMps: number; vsSdMps: number };
@@ -621,6 +627,8 @@ export interface DeriveOptions {
   monteCarlo?: boolean;
   /** A profile from another test (e.g. surface waves) to compare with. */
   comparison?: ComparisonProfile | null;
+  /** Field attenuation (Q) per depth range, when estimated from the waveforms; else the field damping is empty. */
+  fieldQ?: readonly FieldQ[];
 }
 
 export interface ComparisonResult {
@@ -701,7 +709,9 @@ export function derive(
   const ray = rayFitFor(survey, { ...prepared, stations: kept, pairs }, picks, allDelays, settings);
   const intervals = intervalValues({ pairs, picksByStation, delaysByPair, rayFit: ray.byPair, settings, edits });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
-  const { rows: profile, velocity } = profileRows(survey, intervals, issues);
+  const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
+  const design = designResults(profile, soil, settings.design ?? defaultDesignSettings(), options.fieldQ ?? []);
+  issues.push(...design.issues);
   const site = siteSummary(velocity, settings, options.monteCarlo ?? true);
   const drift = methodDrift(intervals);
   if (drift?.significant) {
@@ -724,6 +734,7 @@ export function derive(
     drift,
     site,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,
+    design,
     issues,
   };
 }

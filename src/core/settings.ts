@@ -16,6 +16,23 @@ export interface BandpassSetting {
   order: number;
 }
 
+/** Shaking and curve settings for the design outputs (project format v2 settings.design). */
+export interface DesignSettings {
+  /** Peak ground acceleration at the surface, g; null = no liquefaction screen. */
+  pgaG: number | null;
+  /** Moment magnitude; null = no liquefaction screen. */
+  magnitude: number | null;
+  curveModel: 'darendeli' | 'ishibashi-zhang';
+  /** Loading frequency and number of cycles of the Darendeli (2001) curves. */
+  loadingFrequencyHz: number;
+  loadingCycles: number;
+}
+
+export function defaultDesignSettings(): DesignSettings {
+  // 1 Hz and 10 cycles: Darendeli's (2001) reference loading for earthquake-type curves (common practice).
+  return { pgaG: null, magnitude: null, curveModel: 'darendeli', loadingFrequencyHz: 1, loadingCycles: 10 };
+}
+
 export interface Settings {
   /** Conditioning applied to every trace before picking. */
   detrend: boolean;
@@ -51,6 +68,7 @@ export interface Settings {
   siteAnswers: Record<string, boolean>;
   monteCarloDraws: number;
   monteCarloSeed: number;
+  design: DesignSettings;
 }
 
 export function defaultSettings(): Settings {
@@ -81,6 +99,7 @@ export function defaultSettings(): Settings {
     siteAnswers: {},
     monteCarloDraws: 10000,
     monteCarloSeed: 20261201,
+    design: defaultDesignSettings(),
   };
 }
 

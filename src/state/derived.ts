@@ -117,6 +117,15 @@ function emptyDerived(issues: Derived['issues']): Derived {
     drift: null,
     comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [] },
+    design: {
+      layers: [],
+      liquefaction: null,
+      fieldQGiven: false,
+      curveModel: 'darendeli',
+      loadingFrequencyHz: 1,
+      loadingCycles: 10,
+      issues: [],
+    },
     issues,
   };
 }

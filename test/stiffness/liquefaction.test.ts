@@ -142,6 +142,13 @@ describe('screen per row', () => {
     expect(r.factorOfSafety).toBeNull();
     expect(r.flags.join(' ')).toMatch(/Vs1\*/);
   });
+  it('Vs1 just below Vs1* gets a number and a sensitivity flag (CRR(205) = 0.35943 vs CRR(195) = 0.21063, hand calculation)', () => {
+    expect(cyclicResistanceRatio75(205, 215)).toBeCloseTo(0.022 * 2.05 ** 2 + 2.8 * (1 / 10 - 1 / 215), 12);
+    expect(cyclicResistanceRatio75(205, 215)).toBeCloseTo(0.35943, 4);
+    expect(cyclicResistanceRatio75(195, 215)).toBeCloseTo(0.21063, 4);
+    const [r] = liquefactionScreen([row({ vsMps: 207 / (100 / 74.76) ** 0.25 })], { pgaG: 0.3, magnitude: 7.5 });
+    expect(r.flags.join(' ')).toMatch(/very sensitive/);
+  });
   it('unknown fines content, deep and high-stress rows are flagged', () => {
     const [r] = liquefactionScreen(
       [row({ finesContentPct: null, midM: 22, sigmaVKpa: 420, sigmaVEffKpa: 220, vsMps: 230 })],

@@ -7,7 +7,7 @@ import { unzipSync, zipSync, strFromU8, strToU8 } from 'fflate';
 import { BorewaveError } from '../errors';
 import type { Survey } from '../model';
 import type { ComparisonProfile } from '../stiffness/comparison';
-import { defaultSettings, emptyEdits, type Settings, type UserEdits } from '../settings';
+import { defaultDesignSettings, defaultSettings, emptyEdits, type Settings, type UserEdits } from '../settings';
 import { isTestKind, TEST_KINDS } from '../catalogue/testKinds';
 import { migrateV1SurveyAndEdits } from './project/migrate';
 
@@ -105,6 +105,7 @@ export function validateProjectDocument(raw: unknown, archiveName: string): Proj
     migrateV1SurveyAndEdits(d);
   }
   const settings = { ...defaultSettings(), ...((d.settings as object) ?? {}) } as Settings;
+  settings.design = { ...defaultDesignSettings(), ...((settings.design as object | undefined) ?? {}) };
   const edits = { ...emptyEdits(), ...((d.edits as object) ?? {}) } as UserEdits;
   return { ...(d as unknown as ProjectDocument), settings, edits };
 }

@@ -9,11 +9,11 @@
  * shear moduli and damping ratios of sand and clay", Soils and Foundations 33(1), closed form.
  */
 import { BorewaveError } from '../errors';
+import type { SoilType } from '../model';
 
 // ------------------------------------------------------------------ inputs
 
-/** Soil types of the project format (docs/project-format.md, survey.soil.layers[].soilType). */
-export type SoilType = 'clay' | 'silt' | 'sand' | 'silty-sand' | 'gravel' | 'rock' | 'other';
+export type { SoilType };
 export const SOIL_TYPES: SoilType[] = ['clay', 'silt', 'sand', 'silty-sand', 'gravel', 'rock', 'other'];
 
 export type CurveModel = 'darendeli' | 'ishibashi-zhang';

@@ -110,6 +110,8 @@ export interface LiquefactionRow {
   soilType: SoilType | null;
   status: LiquefactionStatus;
   vsMps: number;
+  sigmaVKpa: number;
+  sigmaVEffKpa: number;
   vs1Mps: number | null;
   finesContentPct: number | null;
   vs1StarMps: number | null;
@@ -128,6 +130,7 @@ export const LIQ_FLAGS = {
   vs1High: 'Vs1 >= Vs1*: outside the CRR relation (no triggering by it)',
   fcDefault: 'fines content not given: clean-sand Vs1* used',
   outsideMagnitude: 'magnitude outside 5.5-8.5',
+  nearLimit: 'Vs1 within 10 m/s of Vs1*: CRR very sensitive to Vs',
 } as const;
 
 export function liquefactionScreen(rows: readonly LiquefactionInput[], shaking: Shaking): LiquefactionRow[] {
@@ -146,6 +149,8 @@ export function liquefactionScreen(rows: readonly LiquefactionInput[], shaking: 
       midM: r.midM,
       soilType: r.soilType,
       vsMps: r.vsMps,
+      sigmaVKpa: r.sigmaVKpa,
+      sigmaVEffKpa: r.sigmaVEffKpa,
       finesContentPct: r.finesContentPct,
       msf,
     };
@@ -165,6 +170,8 @@ export function liquefactionScreen(rows: readonly LiquefactionInput[], shaking: 
     const csr = cyclicStressRatio(shaking.pgaG, r.sigmaVKpa, r.sigmaVEffKpa, rd);
     const crr = cyclicResistanceRatio75(vs1, vs1Star);
     if (crr === null) flags.push(LIQ_FLAGS.vs1High);
+    // Near the asymptote a few m/s of Vs change CRR several-fold: say so (our guard, common practice).
+    else if (vs1Star - vs1 < 10) flags.push(LIQ_FLAGS.nearLimit);
     return {
       ...base,
       status: crr === null ? ('vs1-above-limit' as const) : ('screened' as const),
