@@ -21,6 +21,7 @@ import { GeometryPane } from './Geometry';
 import { PairCheck } from './PairCheck';
 import { boardStations, effectiveReceiver, pickFor } from './picks';
 import { ProfilePane } from './Profile';
+import { DesignPane } from './Design';
 import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
@@ -425,8 +426,16 @@ export function App() {
             >
               Geometry
             </button>
+            <button
+              role="tab"
+              aria-selected={view.centre === 'design'}
+              className={view.centre === 'design' ? 'on' : ''}
+              onClick={() => setView({ centre: 'design' })}
+            >
+              Curves &amp; liquefaction
+            </button>
           </nav>
-          {view.centre === 'traces' ? <TraceBoard /> : <GeometryPane />}
+          {view.centre === 'traces' ? <TraceBoard /> : view.centre === 'geometry' ? <GeometryPane /> : <DesignPane />}
         </div>
         <div className="right">
           <ProfilePane />
