@@ -139,9 +139,7 @@ function CurvesPlot({ layers, showAlt }: { layers: LayerDesign[]; showAlt: boole
   const layout = useMemo(
     () => ({
       ...BASE_LAYOUT,
-      showlegend: true,
-      legend: { orientation: 'h', x: 0, y: -0.2, font: { size: 10 } },
-      margin: { l: 52, r: 12, t: 26, b: 70 },
+      margin: { l: 52, r: 12, t: 16, b: 44 },
       grid: { rows: 1, columns: 2, pattern: 'independent', xgap: 0.12 },
       xaxis: {
         type: 'log',
@@ -205,7 +203,10 @@ function LayerTable({
         <tbody>
           {layers.map((l, i) => (
             <tr key={i}>
-              <td className="text">{l.name || `Layer ${i + 1}`}</td>
+              <td className="text">
+                <span className="swatch" style={{ background: LAYER_COLOURS[i % LAYER_COLOURS.length] }} />{' '}
+                {l.name || `Layer ${i + 1}`}
+              </td>
               <td className="text">{l.soil.soilType}</td>
               <td className={l.soil.piSource === 'default' ? 'muted' : ''}>{pct(l.soil.plasticityIndexPct, 0)}</td>
               <td className={l.soil.ocrSource === 'default' ? 'muted' : ''}>{pct(l.soil.ocr, 2)}</td>
@@ -242,11 +243,15 @@ function LayerTable({
 }
 
 function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) {
-  const rows = q.byInterval.filter((r) => r.csr !== null);
+  const rows = useMemo(() => q.byInterval.filter((r) => r.csr !== null), [q]);
+  // Ratio axis to 0.6 (or 1.2 x the largest CSR): CRR rises steeply near Vs1*, and a resistance beyond
+  // the axis is drawn at its edge as a right-pointing triangle.
+  const xMax = Math.max(0.6, 1.2 * Math.max(0, ...rows.map((r) => r.csr ?? 0)));
   const data = useMemo(() => {
     const y = rows.map((r) => disp('depth', units, r.midM));
     const screened = rows.filter((r) => r.factorOfSafety !== null);
     const ys = screened.map((r) => disp('depth', units, r.midM));
+    const resist = screened.map((r) => (r.crr75 as number) * r.msf);
     return [
       {
         type: 'scatter',
@@ -262,10 +267,14 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
       {
         type: 'scatter',
         mode: 'markers',
-        x: screened.map((r) => (r.crr75 as number) * r.msf),
+        x: resist.map((v) => Math.min(v, xMax)),
         y: ys,
         name: 'CRR × MSF (resistance)',
-        marker: { color: SCREEN_COLOURS.crr, size: 8, symbol: 'square' },
+        marker: {
+          color: SCREEN_COLOURS.crr,
+          size: 8,
+          symbol: resist.map((v) => (v > xMax ? 'triangle-right' : 'square')),
+        },
         xaxis: 'x',
         yaxis: 'y',
       },
@@ -284,7 +293,7 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
         yaxis: 'y2',
       },
     ] as PlotData[];
-  }, [rows, units]);
+  }, [rows, units, xMax]);
   const dep = label('depth', units);
   const maxFs = Math.max(2, ...rows.map((r) => Math.min(r.factorOfSafety ?? 0, 4)));
   const layout = useMemo(
@@ -294,7 +303,7 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
       legend: { orientation: 'h', x: 0, y: -0.18, font: { size: 10 } },
       margin: { l: 52, r: 12, t: 26, b: 66 },
       grid: { rows: 1, columns: 2, pattern: 'independent', xgap: 0.12 },
-      xaxis: { title: { text: 'Cyclic stress or resistance ratio' }, rangemode: 'tozero', gridcolor: COLOURS.grid },
+      xaxis: { title: { text: 'Cyclic stress or resistance ratio' }, range: [0, xMax], gridcolor: COLOURS.grid },
       yaxis: { title: { text: `Depth (${dep})` }, autorange: 'reversed', gridcolor: COLOURS.grid },
       xaxis2: { title: { text: 'Factor of safety (screen)' }, range: [0, maxFs], gridcolor: COLOURS.grid },
       yaxis2: { autorange: 'reversed', matches: 'y', gridcolor: COLOURS.grid },
@@ -311,7 +320,7 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
         },
       ],
     }),
-    [dep, maxFs],
+    [dep, maxFs, xMax],
   );
   return <Plot name="liquefaction-screen" data={data} layout={layout} className="design-plot" />;
 }
@@ -408,7 +417,9 @@ export function DesignPane() {
           <input type="checkbox" checked={showAlt} onChange={(e) => setShowAlt(e.target.checked)} /> Compare with{' '}
           {other} (dashed)
         </label>
-        <span className="small muted">◆ working strain · ○ field damping (at the smallest strain)</span>
+        <span className="small muted">
+          lines: layers (colours in the table) · ◆ working strain · ○ field damping (at the smallest strain)
+        </span>
       </div>
       <CurvesPlot layers={design.layers} showAlt={showAlt} />
       <LayerTable layers={design.layers} units={units} fieldQGiven={design.fieldQGiven} />
