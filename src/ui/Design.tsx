@@ -28,6 +28,9 @@ export const SCREEN_COLOURS = {
   limit: '#52606d',
 };
 
+/** Factors of safety above this are drawn at the axis edge (right-pointing triangle). */
+const FS_AXIS_MAX = 3;
+
 /** FS below 1: triggering indicated; 1-1.25: marginal; above: not indicated (by this screen). */
 export function fsColour(fs: number): string {
   return fs < 1 ? SCREEN_COLOURS.fsLow : fs < 1.25 ? SCREEN_COLOURS.fsNear : SCREEN_COLOURS.fsOk;
@@ -270,6 +273,7 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
         x: resist.map((v) => Math.min(v, xMax)),
         y: ys,
         name: 'CRR × MSF (resistance)',
+        cliponaxis: false,
         marker: {
           color: SCREEN_COLOURS.crr,
           size: 8,
@@ -281,10 +285,12 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
       {
         type: 'scatter',
         mode: 'markers',
-        x: screened.map((r) => r.factorOfSafety),
+        x: screened.map((r) => Math.min(r.factorOfSafety as number, FS_AXIS_MAX)),
         y: ys,
         name: 'Factor of safety',
+        cliponaxis: false,
         marker: {
+          symbol: screened.map((r) => ((r.factorOfSafety as number) > FS_AXIS_MAX ? 'triangle-right' : 'circle')),
           color: screened.map((r) => fsColour(r.factorOfSafety as number)),
           size: 10,
           line: { color: COLOURS.rim, width: 1 },
@@ -295,7 +301,7 @@ function ScreenPlot({ q, units }: { q: LiquefactionResult; units: UnitSystem }) 
     ] as PlotData[];
   }, [rows, units, xMax]);
   const dep = label('depth', units);
-  const maxFs = Math.max(2, ...rows.map((r) => Math.min(r.factorOfSafety ?? 0, 4)));
+  const maxFs = Math.max(2, ...rows.map((r) => Math.min(r.factorOfSafety ?? 0, FS_AXIS_MAX)));
   const layout = useMemo(
     () => ({
       ...BASE_LAYOUT,
