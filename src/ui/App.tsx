@@ -21,7 +21,7 @@ import { GeometryPane } from './Geometry';
 import { PairCheck } from './PairCheck';
 import { boardStations, effectiveReceiver, pickFor } from './picks';
 import { ProfilePane } from './Profile';
-import { DesignPane } from './Design';
+import { DesignPane, DesignPrintSection } from './Design';
 import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
@@ -373,6 +373,7 @@ const PrintBody = memo(function PrintBody({
           </li>
         ))}
       </ul>
+      <DesignPrintSection design={d?.design} units={units} />
       <h2>Cautions</h2>
       <ul>
         {EXPORT_CAUTIONS.map((c) => (

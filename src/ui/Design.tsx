@@ -9,6 +9,7 @@ import type { LayerDesign, LiquefactionResult } from '../core/stiffness/design';
 import { CURVE_CAUTIONS } from '../core/stiffness/curves';
 import { LIQUEFACTION_CAUTIONS } from '../core/stiffness/liquefaction';
 import { CURVE_MODEL_SOURCES } from '../core/report/design';
+import type { Derived } from '../core/pipeline';
 import { useDerived } from '../state/derived';
 import { setView } from '../state/store';
 import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
@@ -463,5 +464,94 @@ export function DesignPane() {
         ))}
       </ul>
     </section>
+  );
+}
+
+/** Section of the printable summary: per-layer curve parameters and working G; the screen by layer. */
+export function DesignPrintSection({ design, units }: { design: Derived['design'] | undefined; units: UnitSystem }) {
+  if (!design?.layers.length) return null;
+  const mod = label('modulus', units);
+  const dep = label('depth', units);
+  const q = design.liquefaction;
+  return (
+    <>
+      <h2>Stiffness with strain ({CURVE_MODEL_SOURCES[design.curveModel].label})</h2>
+      <table className="num">
+        <thead>
+          <tr>
+            <th className="text">Layer</th>
+            <th className="text">Type</th>
+            <th>PI (%)</th>
+            <th>Gmax ({mod})</th>
+            <th>γr (%)</th>
+            <th>Dmin (%)</th>
+            <th>Working γ (%)</th>
+            <th>G ({mod})</th>
+            <th>D (%)</th>
+          </tr>
+        </thead>
+        <tbody>
+          {design.layers.map((l, i) => (
+            <tr key={i}>
+              <td className="text">{l.name}</td>
+              <td className="text">{l.soil.soilType}</td>
+              <td>
+                {pct(l.soil.plasticityIndexPct, 0)}
+                {l.soil.piSource === 'default' ? ' (default)' : ''}
+              </td>
+              <td>{fmt('modulus', units, l.gmaxKpa)}</td>
+              <td>{pct(l.darendeli.referenceStrainPct, 4)}</td>
+              <td>{pct(l.darendeli.dminPct, 2)}</td>
+              <td>{pct(l.working?.strainPct, 4)}</td>
+              <td>{fmt('modulus', units, l.working?.gKpa)}</td>
+              <td>{pct(l.working?.dampingPct, 2)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <ul>
+        {CURVE_CAUTIONS.map((c) => (
+          <li key={c}>{c}</li>
+        ))}
+      </ul>
+      {q && (
+        <>
+          <h2>
+            Liquefaction triggering screen from Vs (pga {q.pgaG} g, Mw {q.magnitude})
+          </h2>
+          <table className="num">
+            <thead>
+              <tr>
+                <th>Top ({dep})</th>
+                <th>Bottom ({dep})</th>
+                <th className="text">Type</th>
+                <th className="text">Status</th>
+                <th>CSR</th>
+                <th>CRR M7.5</th>
+                <th>FS</th>
+              </tr>
+            </thead>
+            <tbody>
+              {q.byLayer.map((r, i) => (
+                <tr key={i}>
+                  <td>{fmt('depth', units, r.topM)}</td>
+                  <td>{fmt('depth', units, r.bottomM)}</td>
+                  <td className="text">{r.soilType ?? '–'}</td>
+                  <td className="text">{STATUS_WORDS[r.status]}</td>
+                  <td>{pct(r.csr, 3)}</td>
+                  <td>{pct(r.crr75, 3)}</td>
+                  <td>{pct(r.factorOfSafety, 2)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          <ul>
+            {LIQUEFACTION_CAUTIONS.map((c) => (
+              <li key={c}>{c}</li>
+            ))}
+          </ul>
+        </>
+      )}
+    </>
   );
 }
