@@ -139,4 +139,26 @@ describe('design results from a profile', () => {
     expect(d.layers[1].field?.dampingPct).toBeCloseTo(2.5, 12);
     expect(d.layers[1].field?.labDminPct).toBeLessThan(d.layers[1].field!.dampingPct);
   });
+  it('a hand-edited project: text shaking, unknown soil type, negative working strain -> issues and defaults, no NaN', () => {
+    const odd = {
+      ...soil,
+      layers: soil.layers.map((l) => ({ ...l, soilType: 'loam' as never, workingStrainPct: -1 })),
+    };
+    const d = designResults(profile, odd, {
+      ...defaultDesignSettings(),
+      pgaG: '0.3' as unknown as number,
+      magnitude: 7.5,
+      loadingCycles: 'ten' as unknown as number,
+    });
+    expect(d.liquefaction).toBeNull();
+    expect(d.issues.map((i) => i.code)).toEqual(['DESIGN_SHAKING', 'DESIGN_CYCLES']);
+    for (const l of d.layers) {
+      expect(l.soil.soilType).toBe('other');
+      expect(l.working).toBeNull();
+      for (const p of l.curve) {
+        expect(Number.isFinite(p.modulusRatio)).toBe(true);
+        expect(Number.isFinite(p.dampingPct)).toBe(true);
+      }
+    }
+  });
 });

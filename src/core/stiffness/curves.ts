@@ -70,11 +70,12 @@ export function defaultK0(ocr: number): number {
 }
 
 export function resolveSoilFields(f: LayerSoilFields): ResolvedSoilFields {
-  const soilType = f.soilType ?? 'other';
-  const piGiven = f.plasticityIndexPct !== null && Number.isFinite(f.plasticityIndexPct);
-  const ocrGiven = f.ocr !== null && Number.isFinite(f.ocr) && f.ocr >= 1;
+  // An unknown type (a hand-edited project) is treated as 'other' rather than producing NaN defaults.
+  const soilType: SoilType = f.soilType && SOIL_TYPES.includes(f.soilType) ? f.soilType : 'other';
+  const piGiven = typeof f.plasticityIndexPct === 'number' && Number.isFinite(f.plasticityIndexPct);
+  const ocrGiven = typeof f.ocr === 'number' && Number.isFinite(f.ocr) && f.ocr >= 1;
   const ocr = ocrGiven ? (f.ocr as number) : 1;
-  const k0Given = f.k0 !== null && Number.isFinite(f.k0) && (f.k0 as number) > 0;
+  const k0Given = typeof f.k0 === 'number' && Number.isFinite(f.k0) && f.k0 > 0;
   const w = f.workingStrainPct;
   return {
     soilType,
@@ -84,7 +85,7 @@ export function resolveSoilFields(f: LayerSoilFields): ResolvedSoilFields {
     ocrSource: ocrGiven ? 'user' : 'default',
     k0: k0Given ? (f.k0 as number) : defaultK0(ocr),
     k0Source: k0Given ? 'user' : 'default',
-    workingStrainPct: w !== null && Number.isFinite(w) && w > 0 ? w : null,
+    workingStrainPct: typeof w === 'number' && Number.isFinite(w) && w > 0 ? w : null,
   };
 }
 

@@ -87,10 +87,23 @@ function layerAtDepth(soil: SoilColumn, z: number): SoilLayer | null {
   return sorted.length && z >= sorted[sorted.length - 1].bottomM ? sorted[sorted.length - 1] : null;
 }
 
+const isNum = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
+
 function validDesign(d: DesignSettings, issues: ErrorInfo[]): DesignSettings {
   const out = { ...d };
+  // A hand-edited project may carry text or other non-numbers: never let them reach the formulas.
+  for (const k of ['pgaG', 'magnitude'] as const) {
+    if (out[k] !== null && !isNum(out[k])) {
+      issues.push({
+        code: 'DESIGN_SHAKING',
+        message: `design.${k} ${JSON.stringify(out[k])} is not a number: no liquefaction screen.`,
+        field: `design.${k}`,
+      });
+      out[k] = null;
+    }
+  }
   if (!CURVE_MODELS.includes(out.curveModel)) out.curveModel = 'darendeli';
-  if (!(out.loadingFrequencyHz > 0 && out.loadingFrequencyHz <= 1000)) {
+  if (!(isNum(out.loadingFrequencyHz) && out.loadingFrequencyHz > 0 && out.loadingFrequencyHz <= 1000)) {
     issues.push({
       code: 'DESIGN_FREQUENCY',
       message: `Loading frequency ${d.loadingFrequencyHz} Hz must be above 0 and at most 1000 Hz; 1 Hz used.`,
@@ -98,7 +111,7 @@ function validDesign(d: DesignSettings, issues: ErrorInfo[]): DesignSettings {
     });
     out.loadingFrequencyHz = 1;
   }
-  if (!(out.loadingCycles >= 1 && out.loadingCycles <= 1000)) {
+  if (!(isNum(out.loadingCycles) && out.loadingCycles >= 1 && out.loadingCycles <= 1000)) {
     issues.push({
       code: 'DESIGN_CYCLES',
       message: `Loading cycles ${d.loadingCycles} must be between 1 and 1000; 10 used.`,
