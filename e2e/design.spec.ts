@@ -57,6 +57,8 @@ test('curves per layer, then the liquefaction screen from typed shaking and soil
   await page.getByRole('combobox', { name: 'Soil type, layer 2' }).selectOption('silty-sand');
   await typeInto(page, 'Fines content, layer 2', '20');
   await typeInto(page, 'Working strain, layer 3', '0.01');
+  await page.locator('table.soil-design').scrollIntoViewIfNeeded();
+  await page.screenshot({ path: `${SCREENS}/62-geometry-soil-design-1366.png` });
   const st = await appState(page);
   expect(st.settings.design.pgaG).toBe(0.3);
   expect(st.survey.soil.layers[1].soilType).toBe('silty-sand');

@@ -61,7 +61,7 @@ function OptNum({
   return (
     <input
       className={`field${bad ? ' bad' : ''}`}
-      size={6}
+      size={5}
       value={text}
       placeholder={placeholder}
       aria-label={ariaLabel}
@@ -88,98 +88,102 @@ export function SoilDesignTable() {
   return (
     <>
       <h4>Soil for modulus reduction, damping and the liquefaction screen</h4>
-      <table className="num soil-design">
-        <thead>
-          <tr>
-            <th>Layer</th>
-            <th>Soil type</th>
-            <th title="Plasticity index; empty = default for the soil type">PI (%)</th>
-            <th title="Overconsolidation ratio; empty = 1 (normally consolidated)">OCR</th>
-            <th title="Fines content, for Vs1* of the liquefaction screen; empty = clean sand (lowest resistance)">
-              Fines (%)
-            </th>
-            <th title="At-rest earth pressure coefficient; empty = (1 - sin 30°) OCR^sin 30° (Jaky; Mayne & Kulhawy)">
-              K0
-            </th>
-            <th title="Shear strain at which the working stiffness G is wanted; empty = none">Working strain (%)</th>
-          </tr>
-        </thead>
-        <tbody>
-          {layers.map((l, i) => {
-            const type = l.soilType ?? null;
-            const ocr = l.ocr ?? 1;
-            return (
-              <tr key={i}>
-                <td className="text">{l.name || `Layer ${i + 1}`}</td>
-                <td>
-                  <select
-                    aria-label={`Soil type, layer ${i + 1}`}
-                    value={type ?? ''}
-                    onChange={(e) => setLayer(i, { soilType: (e.target.value || null) as SoilType | null })}
-                  >
-                    <option value="">not given</option>
-                    {SOIL_TYPES.map((t) => (
-                      <option key={t} value={t}>
-                        {SOIL_WORDS[t]}
-                      </option>
-                    ))}
-                  </select>
-                </td>
-                <td>
-                  <OptNum
-                    value={l.plasticityIndexPct}
-                    min={0}
-                    max={200}
-                    placeholder={String(DEFAULT_PI_PCT[type ?? 'other'])}
-                    ariaLabel={`PI, layer ${i + 1}`}
-                    onCommit={(v) => setLayer(i, { plasticityIndexPct: v })}
-                  />
-                </td>
-                <td>
-                  <OptNum
-                    value={l.ocr}
-                    min={1}
-                    max={50}
-                    placeholder="1"
-                    ariaLabel={`OCR, layer ${i + 1}`}
-                    onCommit={(v) => setLayer(i, { ocr: v })}
-                  />
-                </td>
-                <td>
-                  <OptNum
-                    value={l.finesContentPct}
-                    min={0}
-                    max={100}
-                    placeholder="—"
-                    ariaLabel={`Fines content, layer ${i + 1}`}
-                    onCommit={(v) => setLayer(i, { finesContentPct: v })}
-                  />
-                </td>
-                <td>
-                  <OptNum
-                    value={l.k0}
-                    min={0.1}
-                    max={5}
-                    placeholder={defaultK0(ocr).toFixed(2)}
-                    ariaLabel={`K0, layer ${i + 1}`}
-                    onCommit={(v) => setLayer(i, { k0: v })}
-                  />
-                </td>
-                <td>
-                  <OptNum
-                    value={l.workingStrainPct}
-                    min={0.00001}
-                    max={10}
-                    placeholder="—"
-                    ariaLabel={`Working strain, layer ${i + 1}`}
-                    onCommit={(v) => setLayer(i, { workingStrainPct: v })}
-                  />
-                </td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
+      <div className="table-wrap">
+        <table className="num soil-design">
+          <thead>
+            <tr>
+              <th>Layer</th>
+              <th>Soil type</th>
+              <th title="Plasticity index; empty = default for the soil type">PI (%)</th>
+              <th title="Overconsolidation ratio; empty = 1 (normally consolidated)">OCR</th>
+              <th title="Fines content, for Vs1* of the liquefaction screen; empty = clean sand (lowest resistance)">
+                Fines (%)
+              </th>
+              <th title="At-rest earth pressure coefficient; empty = (1 - sin 30°) OCR^sin 30° (Jaky; Mayne & Kulhawy)">
+                K0
+              </th>
+              <th title="Shear strain at which the working stiffness G is wanted; empty = none">Work. γ (%)</th>
+            </tr>
+          </thead>
+          <tbody>
+            {layers.map((l, i) => {
+              const type = l.soilType ?? null;
+              const ocr = l.ocr ?? 1;
+              return (
+                <tr key={i}>
+                  <td className="text name" title={l.name}>
+                    {l.name || `Layer ${i + 1}`}
+                  </td>
+                  <td>
+                    <select
+                      aria-label={`Soil type, layer ${i + 1}`}
+                      value={type ?? ''}
+                      onChange={(e) => setLayer(i, { soilType: (e.target.value || null) as SoilType | null })}
+                    >
+                      <option value="">not given</option>
+                      {SOIL_TYPES.map((t) => (
+                        <option key={t} value={t}>
+                          {SOIL_WORDS[t]}
+                        </option>
+                      ))}
+                    </select>
+                  </td>
+                  <td>
+                    <OptNum
+                      value={l.plasticityIndexPct}
+                      min={0}
+                      max={200}
+                      placeholder={String(DEFAULT_PI_PCT[type ?? 'other'])}
+                      ariaLabel={`PI, layer ${i + 1}`}
+                      onCommit={(v) => setLayer(i, { plasticityIndexPct: v })}
+                    />
+                  </td>
+                  <td>
+                    <OptNum
+                      value={l.ocr}
+                      min={1}
+                      max={50}
+                      placeholder="1"
+                      ariaLabel={`OCR, layer ${i + 1}`}
+                      onCommit={(v) => setLayer(i, { ocr: v })}
+                    />
+                  </td>
+                  <td>
+                    <OptNum
+                      value={l.finesContentPct}
+                      min={0}
+                      max={100}
+                      placeholder="—"
+                      ariaLabel={`Fines content, layer ${i + 1}`}
+                      onCommit={(v) => setLayer(i, { finesContentPct: v })}
+                    />
+                  </td>
+                  <td>
+                    <OptNum
+                      value={l.k0}
+                      min={0.1}
+                      max={5}
+                      placeholder={defaultK0(ocr).toFixed(2)}
+                      ariaLabel={`K0, layer ${i + 1}`}
+                      onCommit={(v) => setLayer(i, { k0: v })}
+                    />
+                  </td>
+                  <td>
+                    <OptNum
+                      value={l.workingStrainPct}
+                      min={0.00001}
+                      max={10}
+                      placeholder="—"
+                      ariaLabel={`Working strain, layer ${i + 1}`}
+                      onCommit={(v) => setLayer(i, { workingStrainPct: v })}
+                    />
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
       <p className="small muted">
         Empty cells use the default shown in grey (placeholders to be replaced by site data). Strain in percent: 0.01
         means 0.01 %.
