@@ -54,3 +54,7 @@ export * from './report/data';
 export * from './report/figures';
 export * from './report/html';
 export { standaloneSvg } from './report/svg';
+export * from './stiffness/curves';
+export * from './stiffness/liquefaction';
+export * from './stiffness/design';
+export * from './report/design';

@@ -141,15 +141,17 @@ export interface SoilLayer {
   stressExponent: number;
   /** Poisson's ratio used for E where Vp cannot give the skeleton's value. */
   poissonRatio: number;
-  /** Inputs for strain-dependent stiffness (absent = not given). */
-  soilType?: SoilType;
+  /** Soil fields for curves and the liquefaction screen (project format v2); absent or null = default. */
+  soilType?: SoilType | null;
   plasticityIndexPct?: number | null;
   ocr?: number | null;
   finesContentPct?: number | null;
   k0?: number | null;
+  /** Shear strain at which the working stiffness G is wanted, % (0.01 = 0.01 %). */
   workingStrainPct?: number | null;
 }
 
+/** Soil types of the project format (docs/project-format.md). */
 export type SoilType = 'clay' | 'silt' | 'sand' | 'silty-sand' | 'gravel' | 'rock' | 'other';
 
 export interface SoilColumn {

@@ -119,6 +119,15 @@ function emptyDerived(issues: Derived['issues']): Derived {
     comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [], setupIncomplete: null, bridged: [] },
     setupProblems: [],
+    design: {
+      layers: [],
+      liquefaction: null,
+      fieldQGiven: false,
+      curveModel: 'darendeli',
+      loadingFrequencyHz: 1,
+      loadingCycles: 10,
+      issues: [],
+    },
     issues,
   };
 }

@@ -47,7 +47,7 @@ export interface RecordMeta {
 }
 
 export type Sheet = null | 'site' | 'export';
-export type CentreTab = 'traces' | 'geometry';
+export type CentreTab = 'traces' | 'geometry' | 'design';
 export type TraceTool = 'pick' | 'zoom' | 'pan';
 export type HitView = 'working' | 'both';
 

@@ -21,6 +21,7 @@ import { GeometryPane } from './Geometry';
 import { PairCheck } from './PairCheck';
 import { boardStations, effectiveReceiver, pickFor } from './picks';
 import { ProfilePane } from './Profile';
+import { DesignPane, DesignPrintSection } from './Design';
 import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
@@ -448,6 +449,7 @@ const PrintBody = memo(function PrintBody({
           </li>
         ))}
       </ul>
+      <DesignPrintSection design={d?.design} units={units} />
       <h2>Cautions</h2>
       <ul>
         {EXPORT_CAUTIONS.map((c) => (
@@ -501,8 +503,16 @@ export function App() {
             >
               Geometry
             </button>
+            <button
+              role="tab"
+              aria-selected={view.centre === 'design'}
+              className={view.centre === 'design' ? 'on' : ''}
+              onClick={() => setView({ centre: 'design' })}
+            >
+              Curves &amp; liquefaction
+            </button>
           </nav>
-          {view.centre === 'traces' ? <TraceBoard /> : <GeometryPane />}
+          {view.centre === 'traces' ? <TraceBoard /> : view.centre === 'geometry' ? <GeometryPane /> : <DesignPane />}
         </div>
         <div className="right">
           <ProfilePane />

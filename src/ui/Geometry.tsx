@@ -36,6 +36,7 @@ import { updateSettings, updateSurvey } from '../state/edits';
 import { loadDeviation, loadRecordLog, reassignAll } from '../state/files';
 import { setNamePattern, useApp } from '../state/store';
 import { fmt, label, parseDisplay, useUnits } from './units';
+import { DesignFields, SoilDesignTable } from './SoilDesign';
 import type { QuantityKind, UnitSystem } from '../core';
 
 const HITS: HitDirection[] = ['left', 'right', 'up', 'down', 'none'];
@@ -1128,6 +1129,9 @@ export function GeometryPane() {
       </button>
       <h3>Soil column</h3>
       <SoilTable units={units} />
+      <SoilDesignTable />
+      <h4>Shaking and curves</h4>
+      <DesignFields />
       <h3>Processing</h3>
       <ProcessingFields settings={settings} units={units} />
     </section>

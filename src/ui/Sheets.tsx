@@ -16,6 +16,7 @@ import {
   toCsv,
   EXPORT_CAUTIONS,
 } from '../core';
+import { curvesCautions, curvesTable, liquefactionCautions, liquefactionTable } from '../core';
 import type { Vs30RuleSetting } from '../core';
 import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
@@ -215,6 +216,7 @@ export function ExportSheet() {
   const [error, setError] = useState<string | null>(null);
   const base = safeBaseName(name);
   const ready = !!(d && prepared);
+  const liquefactionReady = !!d?.design.liquefaction;
   const units = useUnits();
   const surveyKind = useApp((s) => s.survey.kind);
   const csv = (kind: 'picks' | 'intervals' | 'profile' | 'layers' | 'direct') => {
@@ -268,6 +270,26 @@ export function ExportSheet() {
             Direct velocities, source to each receiver (CSV)
           </button>
         )}
+        <button
+          disabled={!ready}
+          onClick={() => {
+            const full = settledDerived();
+            if (full) download(`${base}-curves.csv`, toCsv(curvesTable(full, units), curvesCautions(full)), 'text/csv');
+          }}
+        >
+          Modulus reduction and damping curves per layer (CSV)
+        </button>
+        <button
+          disabled={!ready || !liquefactionReady}
+          title={liquefactionReady ? undefined : 'Enter peak ground acceleration and magnitude in Geometry first'}
+          onClick={() => {
+            const full = settledDerived();
+            const t = full ? liquefactionTable(full, units) : null;
+            if (t) download(`${base}-liquefaction.csv`, toCsv(t, liquefactionCautions()), 'text/csv');
+          }}
+        >
+          Liquefaction screen from Vs (CSV)
+        </button>
         <button
           disabled={!ready}
           onClick={() => {

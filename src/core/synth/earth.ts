@@ -23,6 +23,8 @@ export interface EarthLayer {
   qP: number;
   /** Sets the Vs1 stress exponent of the survey's soil column: 0.25 sand-like, 0.5 clay-like (docs/methods.md section 4). */
   behaviour: 'sand-like' | 'clay-like';
+  /** Soil fields copied to the survey's soil column (curves, liquefaction screen); absent = not given. */
+  soil?: Pick<SoilLayer, 'soilType' | 'plasticityIndexPct' | 'finesContentPct'>;
 }
 
 export interface EarthModel {
@@ -138,6 +140,7 @@ export function soilColumnFromModel(model: EarthModel, deepestM: number): SoilCo
       unitWeightKnM3: l.unitWeightKnM3,
       stressExponent: l.behaviour === 'sand-like' ? 0.25 : 0.5,
       poissonRatio: 0.3,
+      ...(l.soil ?? {}),
     }));
   return { layers, waterTableM: model.waterTableM, waterUnitWeightKnM3: 9.81 };
 }

@@ -187,7 +187,7 @@ const settings = v.strictObject({
   design: v.strictObject({
     pgaG: v.nullable(v.pipe(v.number(), v.finite(), v.minValue(0), v.maxValue(5))),
     magnitude: v.nullable(v.pipe(v.number(), v.finite(), v.minValue(0), v.maxValue(10))),
-    curveModel: v.picklist(['darendeli']),
+    curveModel: v.picklist(['darendeli', 'ishibashi-zhang']),
     loadingFrequencyHz: v.pipe(v.number(), v.finite(), v.gtValue(0), v.maxValue(1000)),
     loadingCycles: v.pipe(v.number(), v.finite(), v.gtValue(0), v.maxValue(1e6)),
   }),
