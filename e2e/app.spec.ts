@@ -5,13 +5,13 @@
  *
  * Reference for the exports: the core pipeline itself (src/core/pipeline.ts runPipeline and
  * src/core/report/tables.ts), run here in Node on the same files, survey, settings and edits; the app
- * must only pass the core's text through (design.md: "never format CSV in the UI").
+ * must only pass the core's text through (docs/conventions.md: "never format CSV in the UI").
  */
 import { test, expect, type Page } from '@playwright/test';
 import { readFileSync, mkdirSync } from 'node:fs';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { readWaveFile } from '../src/core/io/readers';
-import { readProjectArchive } from '../src/core/io/archive';
+import { readProjectArchive } from '../src/core/io/project';
 import { runPipeline } from '../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, toCsv } from '../src/core/report/tables';
 import { intervalKey, pickEditKey, stationKey } from '../src/core/keys';
@@ -142,7 +142,7 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
 
   // Snap: editing first peaks (key 2) with snap on (key s), a click 0.4 ms after the automatic peak of
   // the 12 m trace lands on that peak. Reference: the core's characteristicPoints (the auto-pick), to
-  // within 0.05 ms (a tenth of the 0.5 ms a pick may be off; domain.md s.2).
+  // within 0.05 ms (a tenth of the 0.5 ms a pick may be off; docs/methods.md s.2).
   const peak12 = before.picks.find(
     (p) => p.stationKey === stationKey('r0', 12, 'H1') && p.wave === 'S' && p.method === 'peak',
   )!;

@@ -1,5 +1,5 @@
 /**
- * Reliability (design.md "Quality": bad input of any kind loses nothing else): a page killed before or
+ * Reliability (docs/conventions.md "Quality": bad input of any kind loses nothing else): a page killed before or
  * during an autosave leaves the last completed save, never a half-written one. Common practice for
  * crash-safe saving: write the new data first, then switch one record that names it (one IndexedDB
  * transaction; IndexedDB 3.0, W3C, "transaction" durability and atomicity).

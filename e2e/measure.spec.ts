@@ -11,7 +11,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { synthesizeSurvey, toSeg2Input } from '../src/core/synth/synthesize';
 import { demoDownholeOptions, demoEarthModel } from '../src/core/synth/demo';
 import { writeSeg2 } from '../src/core/io/seg2';
-import { newProjectDocument, writeProjectArchive } from '../src/core/io/archive';
+import { newProjectDocument, writeProjectArchive } from '../src/core/io/project';
 import { SCREENS, waitProcessed } from './helpers';
 
 mkdirSync(SCREENS, { recursive: true });
@@ -88,7 +88,9 @@ test('pick edit to updated profile, 60-depth survey', async ({ page }) => {
   console.log(
     `MEASURE pick edit -> profile redrawn (60 depths): median ${median(times).toFixed(0)} ms (derive ${median(derive).toFixed(0)} ms)`,
   );
-  expect(times.length).toBe(9);
+  // Every edit redrew the profile and ran derive: a time that is not a positive finite number means a
+  // redraw or a derive that did not happen.
+  for (const t of [...times, ...derive]) expect(Number.isFinite(t) && t > 0).toBe(true);
 });
 
 test('first draw of 300 traces x 4096 samples', async ({ page }) => {

@@ -6,7 +6,7 @@
  */
 import { expect, test } from '@playwright/test';
 import { mkdirSync } from 'node:fs';
-import { newProjectDocument, writeProjectArchive } from '../src/core/io/archive';
+import { newProjectDocument, writeProjectArchive } from '../src/core/io/project';
 import { writeSeg2 } from '../src/core/io/seg2';
 import { toSeg2Input, type SynthResult } from '../src/core/synth/synthesize';
 import { carelessSetup, stripHitLabels, variantSurvey } from '../src/core/synth/orientationVariants';

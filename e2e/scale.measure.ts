@@ -10,7 +10,7 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { synthesizeSurvey, toSeg2Input } from '../src/core/synth/synthesize';
 import { demoEarthModel, demoPairOptions } from '../src/core/synth/demo';
 import { writeSeg2 } from '../src/core/io/seg2';
-import { newProjectDocument } from '../src/core/io/archive';
+import { newProjectDocument } from '../src/core';
 import { strToU8, zipSync } from 'fflate';
 
 async function rendererRssMb(browser: Browser): Promise<number | null> {

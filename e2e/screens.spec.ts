@@ -1,7 +1,7 @@
 /**
  * Screenshots of every pane after a typical session (demo downhole survey, one pick edited, a comparison
  * profile loaded), for a person to look at: readability, overlaps, units in headings, cautions. The
- * checks are what each pane must show (design.md "Screens" and "Look"): units in the headings, the
+ * checks are what each pane must show (docs/conventions.md "Screens" and "Look"): units in the headings, the
  * cautions in the Site sheet, the pick legend on the Trace board.
  */
 import { test, expect } from '@playwright/test';

@@ -12,7 +12,7 @@ import { readDeviationTable } from '../src/core/io/deviation';
 import { readSeg2, writeSeg2 } from '../src/core/io/seg2';
 import { readDelimitedText } from '../src/core/io/text';
 import { readWaveFile } from '../src/core/io/readers';
-import { newProjectDocument, readProjectArchive, writeProjectArchive } from '../src/core/io/archive';
+import { newProjectDocument, readProjectArchive, writeProjectArchive } from '../src/core/io/project';
 import type { Survey } from '../src/core/model';
 
 const total = Number(process.argv[2] ?? 200000);

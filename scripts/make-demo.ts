@@ -9,7 +9,7 @@ import { mkdirSync, readdirSync, rmSync, writeFileSync, statSync } from 'node:fs
 import { join, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { readSeg2 } from '../src/core/io/seg2';
-import { writeProjectArchive, type ProjectFile } from '../src/core/io/archive';
+import { writeProjectArchive, type ProjectFile } from '../src/core/io/project';
 import type { TestKind } from '../src/core/model';
 import { demoEarthModel, makeDemoProject } from '../src/core/synth/demo';
 import type { SynthResult } from '../src/core/synth/synthesize';

@@ -31,7 +31,7 @@ describe('unit factors from the exact definitions', () => {
   it('1 lb/ft3 = 16.01846 kg/m3 (NIST SP 811 appendix B, from memory)', () => {
     expect(MGM3_PER_LBFT3 * 1000).toBeCloseTo(16.01846, 5);
   });
-  it('270.68 m/s = 888.0 ft/s (shared/domain.md section 4 [calc])', () => {
+  it('270.68 m/s = 888.0 ft/s (docs/methods.md section 4 [calc])', () => {
     expect(toDisplay('velocity', 'US', 270.68)).toBeCloseTo(888.06, 2);
     expect(formatQuantity('velocity', 'US', 270.6767, { decimals: 1 })).toBe('888.0 ft/s');
   });
@@ -47,7 +47,7 @@ describe('display and entry', () => {
         expect(fromDisplay(k, s, toDisplay(k, s, si)) / si).toBeCloseTo(1, 14);
       }
   });
-  it('SI display: modulus kPa -> MPa (76,000 kPa = 76.0 MPa, shared/domain.md section 4)', () => {
+  it('SI display: modulus kPa -> MPa (76,000 kPa = 76.0 MPa, docs/methods.md section 4)', () => {
     expect(formatQuantity('modulus', 'SI', 76000)).toBe('76.0 MPa');
     expect(formatQuantity('stress', 'SI', 82.94, { withUnit: false })).toBe('82.9');
   });
@@ -57,7 +57,7 @@ describe('display and entry', () => {
   it('non-finite values show a dash, not NaN', () => {
     expect(formatQuantity('velocity', 'SI', NaN)).toBe('–');
   });
-  it('CSV column names carry the unit (design.md: units in every column name)', () => {
+  it('CSV column names carry the unit (docs/conventions.md: units in every column name)', () => {
     expect(csvColumn('vs', 'velocity', 'SI')).toBe('vs_mps');
     expect(csvColumn('vs', 'velocity', 'US')).toBe('vs_ftps');
     expect(csvColumn('gmax', 'modulus', 'SI')).toBe('gmax_mpa');

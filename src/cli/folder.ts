@@ -7,23 +7,24 @@
  */
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { isAbsolute, join, relative, resolve } from 'node:path';
-import { newProjectDocument, validateProjectDocument, type OpenedProject } from '../core/io/archive';
-import { decodeUtf8 } from '../core/io/bytes';
-import { readDeviationTable } from '../core/io/deviation';
-import { readWaveFile } from '../core/io/readers';
-import { looksLikeRecordLog, readRecordLog, type RecordLog } from '../core/io/recordlog';
-import type { ErrorInfo } from '../core/errors';
-import type { Borehole, WaveRecord } from '../core/model';
-import { describeInferences, inferSetup, type SetupResult } from '../core/setup/infer';
-import { toLegacySurvey } from '../core/setup/legacy';
 import {
-  defaultPlacementSettings,
-  SETUP_KINDS,
-  type PlacementSettings,
-  type SetupGeometry,
-  type SetupKind,
-} from '../core/setup/types';
-import { DEFAULT_WATER_UNIT_WEIGHT_KNM3 } from '../core/stiffness/stress';
+  newProjectDocument,
+  parseProjectJson,
+  softwareVersion,
+  toProjectJson,
+  type OpenedProject,
+  type ProjectDocument,
+} from '../core';
+import { decodeUtf8 } from '../core';
+import { readDeviationTable } from '../core';
+import { readWaveFile } from '../core';
+import { looksLikeRecordLog, readRecordLog, type RecordLog } from '../core';
+import type { ErrorInfo, PlacementSettings } from '../core';
+import type { Borehole, WaveRecord } from '../core';
+import { describeInferences, inferSetup, type SetupResult } from '../core';
+import { toLegacySurvey } from '../core';
+import { defaultPlacementSettings, SETUP_KINDS, type SetupGeometry, type SetupKind } from '../core';
+import { DEFAULT_WATER_UNIT_WEIGHT_KNM3 } from '../core';
 
 export interface FolderFlags {
   kind?: string;
@@ -195,14 +196,15 @@ export function openFieldFolder(dir: string, flags: FolderFlags, callerDir: stri
     soil,
     records: setup.records,
   });
-  const base = raw
-    ? validateProjectDocument({ ...raw, survey: { ...rs, ...survey } }, dir)
-    : newProjectDocument(survey);
-  const doc = {
+  // Settings, edits, notes and comparison of form (b) come through the one project parser (v1 migrated).
+  const base = raw ? parseProjectJson(raw, dir) : newProjectDocument(survey);
+  const doc: ProjectDocument = {
     ...base,
     survey,
+    settings: { ...base.settings, placement },
     files: files.map((f) => f.name),
     ...(Object.keys(deviationFiles).length ? { deviationFiles } : {}),
+    placementInferred: false,
   };
   const lines = [
     `set-up: ${records.length} waveform files, kind ${kind}${log ? `, record log ${log.name}` : ''}`,
@@ -211,6 +213,14 @@ export function openFieldFolder(dir: string, flags: FolderFlags, callerDir: stri
   issues.push(...setup.problems);
   // Every value's source is in the records (depthSource, hitSource, channel source); rejected header
   // values are printed above, not stored (the project schema takes no extra keys).
-  const completed = { ...doc, settings: { ...doc.settings, placement } };
-  return { opened: { doc, files, missing: [] }, setup, lines, issues, completed };
+  const completed = toProjectJson(doc, softwareVersion());
+  const recordMap = new Map(records.map((r) => [r.id, r]));
+  const parsed = records.map((r) => ({ name: r.id, outcome: { ok: true as const, record: r } }));
+  return {
+    opened: { doc, files, missing: [], parsed, records: recordMap, issues: [] },
+    setup,
+    lines,
+    issues,
+    completed,
+  };
 }

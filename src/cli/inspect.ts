@@ -8,8 +8,8 @@
  */
 import { readFile } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
-import { type FileSummary, readWaveFile, summarizeOutcome, type WaveReadOptions } from '../core/io/readers';
-import { splitPath, uniqueRecordIds } from '../core/io/record-ids';
+import { type FileSummary, readWaveFile, summarizeOutcome, type WaveReadOptions } from '../core';
+import { splitPath, uniqueRecordIds } from '../core';
 
 export interface CliIo {
   stdout: { write(text: string): unknown };

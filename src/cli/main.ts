@@ -5,6 +5,7 @@
 import { runInspect, type CliIo } from './inspect';
 import { runProfile } from './profile';
 import { runReport } from './report';
+import { cliSoftwareVersion } from './version';
 
 type Command = (args: string[], io: CliIo) => Promise<number>;
 
@@ -15,6 +16,7 @@ const COMMANDS: Record<string, Command> = {
 };
 
 async function main(argv: string[]): Promise<number> {
+  cliSoftwareVersion();
   const [name, ...rest] = argv;
   const usage = `usage: borewave <${Object.keys(COMMANDS).join('|')}> ...\n`;
   if (name === 'help' || name === '--help' || name === '-h') {

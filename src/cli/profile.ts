@@ -1,46 +1,46 @@
 /**
- * `cli profile <project.zip|folder> --out <dir> [--method <m>] [--units SI|US] [--strict]`: runs the pipeline on a
- * project and writes picks.csv, intervals.csv, profile.csv, layers.csv, site.json and, for crosshole,
- * direct.csv (source-to-receiver velocities). Problems with single items
+ * `cli profile <project.zip|folder> --out <dir> [--method <m>] [--units SI|US] [--pga-g <g> --magnitude <Mw>]
+ * [--strict]`: runs the pipeline on a project and writes picks.csv, intervals.csv, profile.csv, layers.csv,
+ * curves.csv, site.json, for crosshole direct.csv (source-to-receiver velocities), and liquefaction.csv when
+ * the shaking is given (by the options, which override the project's settings.design, or by the project). Problems with single items
  * (a missing file, a record with no depth) are listed on stderr and the rest still computes; an
  * unreadable project exits 2 with a one-line reason; --strict also exits 3 when any problem was listed.
  */
 import { existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { toErrorInfo } from '../core/errors';
-import { readProjectArchive, validateProjectDocument, type OpenedProject } from '../core/io/archive';
-import { loadProject } from '../core/io/project';
-import { runPipeline } from '../core/pipeline';
-import {
-  directTable,
-  intervalsTable,
-  layersTable,
-  picksTable,
-  profileTable,
-  siteJson,
-  toCsv,
-} from '../core/report/tables';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
-import { hasDirectVelocities } from '../core/catalogue/testKinds';
+import { toErrorInfo } from '../core';
+import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core';
+import { patchSettings } from '../core';
+import { runPipeline } from '../core';
+import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core';
+import { hasDirectVelocities } from '../core';
+import { curvesCautions, curvesTable, liquefactionCautions, liquefactionTable } from '../core';
 import { type CliIo, cliPath } from './inspect';
 import { openFieldFolder, type FolderFlags } from './folder';
-import type { UnitSystem } from '../core/units';
+import type { UnitSystem } from '../core';
 
-export function openFolder(dir: string): OpenedProject {
-  const path = join(dir, 'project.json');
-  if (!existsSync(path)) throw new Error(`${dir} has no project.json`);
-  let raw: unknown;
-  try {
-    raw = JSON.parse(readFileSync(path, 'utf8'));
-  } catch (e) {
-    throw new Error(`${path} is not valid JSON: ${(e as Error).message}`);
-  }
-  const doc = validateProjectDocument(raw, dir);
-  const present = new Set(readdirSync(dir));
-  const files = doc.files
-    .filter((n) => present.has(n))
-    .map((n) => ({ name: n, bytes: new Uint8Array(readFileSync(join(dir, n))) }));
-  return { doc, files, missing: doc.files.filter((n) => !present.has(n)) };
+/** A folder as a project source: project.json and the listed files beside it (sub-folders allowed). */
+export function folderSource(dir: string): ProjectSource {
+  const inside = (p: string) => join(dir, ...p.split('/'));
+  const walk = (rel: string): string[] =>
+    readdirSync(join(dir, rel), { withFileTypes: true }).flatMap((e) => {
+      const p = rel ? `${rel}/${e.name}` : e.name;
+      return e.isDirectory() ? walk(p) : [p];
+    });
+  return {
+    name: basename(dir),
+    projectJson: () =>
+      existsSync(inside('project.json')) ? new Uint8Array(readFileSync(inside('project.json'))) : null,
+    readListed(paths) {
+      const files = new Map<string, Uint8Array>();
+      for (const p of paths) {
+        const full = inside(p);
+        if (existsSync(full) && statSync(full).isFile()) files.set(p, new Uint8Array(readFileSync(full)));
+      }
+      return { files, present: walk('') };
+    },
+  };
 }
 
 /** A folder is set up from its files when it has no project.json, or one whose survey has no records. */
@@ -69,6 +69,8 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   let method: string | undefined;
   let strict = false;
   let units: UnitSystem = 'SI';
+  let pgaG: number | undefined;
+  let magnitude: number | undefined;
   const flags: FolderFlags = { holes: [] };
   let setupFlagGiven = false;
   for (let i = 0; i < args.length; i++) {
@@ -93,6 +95,18 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     } else if (a === '--hole') {
       flags.holes.push(args[++i] ?? '');
       setupFlagGiven = true;
+    } else if (a === '--pga-g' || a === '--magnitude') {
+      const raw = args[++i];
+      const v = Number(raw);
+      const ok = a === '--pga-g' ? v > 0 && v <= 3 : v >= 4 && v <= 9.5;
+      if (raw === undefined || raw.trim() === '' || !Number.isFinite(v) || !ok) {
+        io.stderr.write(
+          `profile: ${a} ${raw ?? ''} must be a number ${a === '--pga-g' ? 'above 0 and at most 3 (g)' : 'from 4 to 9.5'}\n`,
+        );
+        return 2;
+      }
+      if (a === '--pga-g') pgaG = v;
+      else magnitude = v;
     } else if (a === '--out') out = args[++i];
     else if (a === '--method') method = args[++i];
     else if (a === '--strict') strict = true;
@@ -112,7 +126,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     io.stderr.write(
       'usage: cli profile <project.zip|folder> --out <dir> [--method ' +
         INTERVAL_METHODS.join('|') +
-        '] [--units SI|US] [--strict]\n' +
+        '] [--units SI|US] [--pga-g <g> --magnitude <Mw>] [--strict]\n' +
         '       cli profile <folder of field files> --out <dir> [--kind downhole|downhole-pair|crosshole|seismic-cone]\n' +
         '         [--source-offset-m X] [--receiver-spacing-m S] [--cone-offset-m C] [--receiver-count 1|2]\n' +
         '         [--records log.csv] [--hole name=east,north ...] [--file-name-pattern P] [--max-header-depth-m D]\n',
@@ -125,6 +139,10 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   const cwd = io.cwd ?? process.cwd();
   if (method && !INTERVAL_METHODS.includes(method as IntervalMethod)) {
     io.stderr.write(`profile: --method ${method} is not one of ${INTERVAL_METHODS.join(', ')}\n`);
+    return 2;
+  }
+  if ((pgaG === undefined) !== (magnitude === undefined)) {
+    io.stderr.write('profile: give both --pga-g and --magnitude for the liquefaction screen\n');
     return 2;
   }
   let opened: OpenedProject;
@@ -142,22 +160,28 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     } else {
       if (setupFlagGiven)
         throw new Error(`${input} holds a complete project; set-up flags apply only to a folder of field files`);
-      opened = isDir ? openFolder(input) : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+      opened = isDir
+        ? openProject(folderSource(input))
+        : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
     }
   } catch (e) {
     io.stderr.write(`profile: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
     return 2;
   }
-  const project = loadProject(opened, basename(input));
-  const settings = method ? { ...project.settings, profileMethod: method as IntervalMethod } : project.settings;
+  const project = opened.doc;
+  // --pga-g and --magnitude override the project's settings.design for this run.
+  const settings = patchSettings(project.settings, {
+    ...(method ? { intervals: { profileMethod: method as IntervalMethod } } : {}),
+    ...(pgaG !== undefined && magnitude !== undefined ? { design: { pgaG, magnitude } } : {}),
+  });
   const result = runPipeline({
     survey: project.survey,
-    records: project.records,
+    records: opened.records,
     settings,
     edits: project.edits,
-    comparison: project.comparison,
+    comparison: project.comparison ?? null,
   });
-  const issues = [...setupIssues, ...project.issues, ...result.derived.issues];
+  const issues = [...setupIssues, ...opened.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   const setup = result.derived.setupProblems;
   for (const p of setup)
@@ -170,6 +194,9 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
   writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
   writeFileSync(join(out, 'layers.csv'), toCsv(layersTable(result.derived, units)));
+  writeFileSync(join(out, 'curves.csv'), toCsv(curvesTable(result.derived, units), curvesCautions(result.derived)));
+  const liq = liquefactionTable(result.derived, units);
+  if (liq) writeFileSync(join(out, 'liquefaction.csv'), toCsv(liq, liquefactionCautions()));
   if (hasDirectVelocities(project.survey.kind))
     writeFileSync(join(out, 'direct.csv'), toCsv(directTable(result.derived, units)));
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
@@ -179,7 +206,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
       (v
         ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m`
         : (result.derived.site.setupIncomplete ?? 'no time-averaged Vs')) +
-      `; wrote ${completed ? 'project.json, ' : ''}picks.csv, intervals.csv, profile.csv, layers.csv, ${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
+      `; wrote ${completed ? 'project.json, ' : ''}picks.csv, intervals.csv, profile.csv, layers.csv, curves.csv, ${liq ? 'liquefaction.csv, ' : ''}${hasDirectVelocities(project.survey.kind) ? 'direct.csv, ' : ''}site.json to ${out}\n`,
   );
   // Exit 0 with problems listed; under --strict, 3 when any problem (blocking set-up problems included) stands.
   return strict && (issues.length || setup.some((p) => p.blocking)) ? 3 : 0;

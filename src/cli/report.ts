@@ -4,42 +4,18 @@
  * figures inline, system fonts, no links), printable to PDF by any browser. Exit 2 on a bad project or
  * bad options, with a one-line reason.
  */
-import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
-import { basename, dirname, resolve } from 'node:path';
-import { toErrorInfo } from '../core/errors';
-import { readProjectArchive, type OpenedProject } from '../core/io/archive';
-import { loadProject } from '../core/io/project';
-import { runPipeline } from '../core/pipeline';
-import { reportDataFrom } from '../core/report/adapter';
-import { reportHtml, type Paper } from '../core/report/html';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core/catalogue/methods';
-import type { UnitSystem } from '../core/units';
+import { basename, dirname } from 'node:path';
+import { toErrorInfo } from '../core';
+import { openProject, readProjectArchive, type OpenedProject } from '../core';
+import { runPipeline } from '../core';
+import { reportDataFrom } from '../core';
+import { reportHtml, type Paper } from '../core';
+import { INTERVAL_METHODS, type IntervalMethod } from '../core';
+import type { UnitSystem } from '../core';
 import type { CliIo } from './inspect';
-import { openFolder } from './profile';
-
-/** Package version and, where the checkout has one, the build commit. */
-export function softwareVersion(): string {
-  const root = resolve(dirname(new URL(import.meta.url).pathname), '../..');
-  let version = 'unknown';
-  try {
-    version = String(JSON.parse(readFileSync(resolve(root, 'package.json'), 'utf8')).version);
-  } catch {
-    // keep 'unknown'
-  }
-  try {
-    const commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], {
-      cwd: root,
-      stdio: ['ignore', 'pipe', 'ignore'],
-    })
-      .toString()
-      .trim();
-    if (/^[0-9a-f]{4,40}$/.test(commit)) return `${version} (${commit})`;
-  } catch {
-    // no git here
-  }
-  return version;
-}
+import { folderSource } from './profile';
+import { cliSoftwareVersion } from './version';
 
 export interface ReportRun {
   html: string;
@@ -54,18 +30,18 @@ export function makeReport(
 ): ReportRun {
   if (!existsSync(input)) throw new Error(`${input} does not exist`);
   const opened: OpenedProject = statSync(input).isDirectory()
-    ? openFolder(input)
+    ? openProject(folderSource(input))
     : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
-  const project = loadProject(opened, basename(input));
+  const project = opened.doc;
   const settings = o.method
     ? { ...project.settings, intervals: { ...project.settings.intervals, profileMethod: o.method } }
     : project.settings;
   const result = runPipeline({
     survey: project.survey,
-    records: project.records,
+    records: opened.records,
     settings,
     edits: project.edits,
-    comparison: project.comparison,
+    comparison: project.comparison ?? null,
   });
   const data = reportDataFrom({
     survey: project.survey,
@@ -74,10 +50,10 @@ export function makeReport(
     prepared: result.prepared,
     derived: result.derived,
     units: o.units ?? 'SI',
-    softwareVersion: softwareVersion(),
+    softwareVersion: cliSoftwareVersion(),
     madeAt: o.madeAt ?? new Date().toISOString(),
   });
-  const warnings = project.issues.map((p) => `${p.file ? `${p.file}: ` : ''}${p.message} [${p.code}]`);
+  const warnings = opened.issues.map((p) => `${p.file ? `${p.file}: ` : ''}${p.message} [${p.code}]`);
   return { html: reportHtml(data, { paper: o.paper ?? 'A4' }), warnings, name: project.survey.name };
 }
 

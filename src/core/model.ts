@@ -141,7 +141,18 @@ export interface SoilLayer {
   stressExponent: number;
   /** Poisson's ratio used for E where Vp cannot give the skeleton's value. */
   poissonRatio: number;
+  /** Soil fields for curves and the liquefaction screen (project format v2); absent or null = default. */
+  soilType?: SoilType | null;
+  plasticityIndexPct?: number | null;
+  ocr?: number | null;
+  finesContentPct?: number | null;
+  k0?: number | null;
+  /** Shear strain at which the working stiffness G is wanted, % (0.01 = 0.01 %). */
+  workingStrainPct?: number | null;
 }
+
+/** Soil types of the project format (docs/project-format.md). */
+export type SoilType = 'clay' | 'silt' | 'sand' | 'silty-sand' | 'gravel' | 'rock' | 'other';
 
 export interface SoilColumn {
   layers: SoilLayer[];
@@ -152,6 +163,11 @@ export interface SoilColumn {
 
 export interface Survey {
   name: string;
+  /** Site name and test date (YYYY-MM-DD) for reports; absent = not given. */
+  siteName?: string;
+  testDate?: string | null;
+  /** One channel map for all records (records may override); absent = none. */
+  channelMap?: ChannelAssignment[];
   kind: TestKind;
   /** Receivers in use (seismic cone: 1 or 2; other kinds fixed by the kind catalogue). */
   receiverCount: number;

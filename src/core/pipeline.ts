@@ -38,6 +38,8 @@ import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/s
 import type { SiteUncertainty } from './site/montecarlo';
 import type { ComparisonProfile } from './site/comparison';
 import { comparisonResult, type ComparisonResult } from './site/compare';
+import type { FieldQ } from './stiffness/curves';
+import { designResults, type DesignResults } from './stiffness/design';
 
 export type { DirectVelocity, TravelTimeRow } from './velocity/direct';
 export type { LayerFit } from './velocity/layers';
@@ -104,6 +106,8 @@ export interface Derived {
   /** Set-up checks (survey/setup-checks.ts): blocking ones withhold Vs30 and the site classes. */
   setupProblems: SetupProblem[];
   comparison: ComparisonResult | null;
+  /** Modulus reduction and damping curves per soil layer; the liquefaction screen when shaking is given. */
+  design: DesignResults;
   issues: ErrorInfo[];
 }
 
@@ -112,6 +116,8 @@ export interface DeriveOptions {
   monteCarlo?: boolean;
   /** A profile from another test (e.g. surface waves) to compare with. */
   comparison?: ComparisonProfile | null;
+  /** Field attenuation (Q) per depth range, when estimated from the waveforms; else the field damping is empty. */
+  fieldQ?: readonly FieldQ[];
 }
 
 /**
@@ -201,7 +207,9 @@ export function derive(
     edits,
   });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
-  const { rows: profile, velocity } = profileRows(survey, intervals, issues);
+  const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
+  const design = designResults(profile, soil, settings.design, options.fieldQ ?? []);
+  issues.push(...design.issues);
   const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
   const site = siteSummary(
     velocity,
@@ -233,6 +241,7 @@ export function derive(
     site,
     setupProblems,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,
+    design,
     issues,
   };
 }

@@ -4,7 +4,7 @@
  */
 
 import type { IntervalMethod, OnsetPicker } from './catalogue/methods';
-import type { IntervalKey, PickEditKey, StationWaveKey } from './keys';
+import type { IntervalKey, PickEditKey, ReceiverDepthKey, StationWaveKey } from './keys';
 
 export type { EditablePickMethod, IntervalMethod } from './catalogue/methods';
 
@@ -83,9 +83,15 @@ export interface DesignSettings {
   pgaG: number | null;
   /** Earthquake magnitude; null = not given. */
   magnitude: number | null;
-  curveModel: 'darendeli';
+  curveModel: 'darendeli' | 'ishibashi-zhang';
+  /** Loading frequency and number of cycles of the Darendeli (2001) curves. */
   loadingFrequencyHz: number;
   loadingCycles: number;
+}
+
+export function defaultDesignSettings(): DesignSettings {
+  // 1 Hz and 10 cycles: Darendeli's (2001) reference loading for earthquake-type curves (common practice).
+  return { pgaG: null, magnitude: null, curveModel: 'darendeli', loadingFrequencyHz: 1, loadingCycles: 10 };
 }
 
 /** Read when records are placed (set-up, before prepare). */
@@ -147,7 +153,7 @@ export function defaultSettings(): Settings {
     },
     layering: { mode: 'auto', boundariesM: [], minThicknessM: 1.0 },
     site: { vs30Rule: 'no-extrapolation', siteAnswers: {}, monteCarloDraws: 10000, monteCarloSeed: 20261201 },
-    design: { pgaG: null, magnitude: null, curveModel: 'darendeli', loadingFrequencyHz: 1, loadingCycles: 10 },
+    design: defaultDesignSettings(),
     placement: { maxHeaderDepthM: 200, fileNamePattern: '' },
   };
 }
@@ -183,8 +189,8 @@ export interface UserEdits {
   chosenMethod: Record<IntervalKey, IntervalMethod>;
   /** Interval keys left out of the profile. */
   excludedIntervals: IntervalKey[];
-  /** User-fixed azimuth of the first hit direction, degrees, keyed `<receiver>@<depth mm>` (orientation.ts). */
-  azimuthDeg?: Record<string, number>;
+  /** User-fixed horizontal rotation per receiver and logged depth, degrees. */
+  azimuthDeg?: Record<ReceiverDepthKey, number>;
 }
 
 export function emptyEdits(): UserEdits {

@@ -10,14 +10,12 @@
  */
 import { create } from 'zustand';
 import { createStore, del, delMany, get, getMany, keys, set, type UseStore } from 'idb-keyval';
-import { toErrorInfo, type ErrorInfo } from '../core/errors';
-import { validateProjectDocument, type ProjectDocument } from '../core/io/archive';
-import type { UnitSystem } from '../core/units';
+import type { ErrorInfo } from '../core';
+import { toProjectJson, writeZip, type ProjectJson } from '../core';
+import type { UnitSystem } from '../core';
 import type { NamedBytes } from '../worker/protocol';
-import { ioLane } from '../worker/client';
-import { applyProject, currentProject } from './files';
+import { currentProject, openArchiveBytes } from './files';
 import { useApp } from './store';
-import type { ParsedFile } from '../worker/protocol';
 
 const SESSION_KEY = 'session';
 /** Older sessions kept every file's bytes under one key (read on restore, deleted with the session). */
@@ -27,7 +25,8 @@ const DEBOUNCE_MS = 700;
 
 export interface SavedSession {
   savedAt: string;
-  doc: ProjectDocument;
+  /** project.json as saved (version 2; sessions of older versions hold version 1). */
+  doc: ProjectJson;
   namePattern: string;
   unitSystem: UnitSystem;
   fileCount: number;
@@ -111,7 +110,7 @@ async function saveNow(): Promise<void> {
     // 2. The session, one key in one transaction, naming only bytes already written.
     const session: SavedSession = {
       savedAt: doc.savedAt,
-      doc,
+      doc: toProjectJson(doc),
       namePattern: s.namePattern,
       unitSystem: s.unitSystem,
       fileCount: files.length,
@@ -176,7 +175,7 @@ export async function checkForSavedSession(): Promise<void> {
     });
     return;
   }
-  if (session && (session.fileCount > 0 || session.doc.survey.records.length > 0))
+  if (session && (session.fileCount > 0 || (session.doc.survey?.records?.length ?? 0) > 0))
     useAutosave.setState({ offer: session });
   else enableAutosave();
 }
@@ -205,33 +204,17 @@ export async function restoreSession(): Promise<ErrorInfo | null> {
   } catch (e) {
     return { code: 'AUTOSAVE_READ', message: `The saved files could not be read: ${(e as Error).message}` };
   }
-  const deviationNames = new Set(Object.values(offer.doc.deviationFiles ?? {}));
-  const waves = files.filter((f) => !deviationNames.has(f.name));
-  const parsed: ParsedFile[] = [];
-  useApp.setState({ loadProgress: { done: 0, total: waves.length } });
-  try {
-    await ioLane.run({ type: 'parse', files: waves.map((f) => ({ name: f.name, bytes: f.bytes.slice() })) }, (m) => {
-      if (m.type === 'parsed-file') parsed.push(m.file);
-      if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
-      return m.type === 'parsed';
-    });
-  } catch (e) {
-    useApp.setState({ loadProgress: null });
-    return e as ErrorInfo;
-  }
-  const present = new Set(files.map((f) => f.name));
-  let doc: ProjectDocument;
-  try {
-    // A session saved by an older version is migrated like an archive (same rules, same numbers).
-    doc = validateProjectDocument(offer.doc, 'the saved session');
-  } catch (e) {
-    useApp.setState({ loadProgress: null });
-    return toErrorInfo(e, 'the saved session');
-  }
-  applyProject(doc, { files, parsed, missing: doc.files.filter((n) => !present.has(n)) }, 'the saved session', {
+  // The session opens exactly like a project archive (the one opener: migration, schema, placement).
+  const json = new TextEncoder().encode(JSON.stringify(offer.doc));
+  const zip = writeZip(
+    [{ path: 'project.json', bytes: json }, ...files.map((f) => ({ path: f.name, bytes: f.bytes }))],
+    offer.savedAt,
+  );
+  const problem = await openArchiveBytes('the saved session', zip, {
     namePattern: offer.namePattern,
     unitSystem: offer.unitSystem,
   });
+  if (problem) return problem;
   useAutosave.setState({ offer: null });
   enableAutosave();
   return null;

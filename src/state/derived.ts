@@ -10,13 +10,13 @@
  */
 import { useDeferredValue } from 'react';
 import { create } from 'zustand';
-import { derive, siteSpread, type Derived } from '../core/pipeline';
-import { toErrorInfo } from '../core/errors';
-import type { Survey } from '../core/model';
-import type { Settings, UserEdits } from '../core/settings';
-import type { Prepared } from '../core/pipeline';
-import type { AutoPickResult } from '../core/picking/autopick';
-import type { ComparisonProfile } from '../core/site/comparison';
+import { derive, siteSpread, type Derived } from '../core';
+import { toErrorInfo } from '../core';
+import type { Survey } from '../core';
+import type { Settings, UserEdits } from '../core';
+import type { Prepared } from '../core';
+import type { AutoPickResult } from '../core';
+import type { ComparisonProfile } from '../core';
 import { useApp, useResults } from './store';
 
 type Inputs = [Survey, Prepared | null, AutoPickResult | null, UserEdits, Settings, ComparisonProfile | null];
@@ -119,6 +119,15 @@ function emptyDerived(issues: Derived['issues']): Derived {
     comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [], setupIncomplete: null, bridged: [] },
     setupProblems: [],
+    design: {
+      layers: [],
+      liquefaction: null,
+      fieldQGiven: false,
+      curveModel: 'darendeli',
+      loadingFrequencyHz: 1,
+      loadingCycles: 10,
+      issues: [],
+    },
     issues,
   };
 }

@@ -3,12 +3,12 @@
  * method also makes that method the chosen one for the station's intervals, in the same step, so the
  * profile follows the edit at once.
  */
-import type { Wave } from '../core/model';
-import { toErrorInfo, type ErrorInfo } from '../core/errors';
-import { parseComparisonCsv, type ComparisonProfile } from '../core/site/comparison';
-import { patchSettings, type SettingsPatch, type UserEdits } from '../core/settings';
-import type { EditablePickMethod, IntervalMethod } from '../core/catalogue/methods';
-import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core/keys';
+import type { Wave } from '../core';
+import { toErrorInfo, type ErrorInfo } from '../core';
+import { parseComparisonCsv, type ComparisonProfile } from '../core';
+import { patchSettings, type SettingsPatch, type UserEdits } from '../core';
+import type { EditablePickMethod, IntervalMethod } from '../core';
+import { applyPickEdit, pickEditKey, stationWaveKey, type IntervalKey, type StationKey } from '../core';
 import { amend, commit, useApp, useResults, type Snapshot } from './store';
 
 /** Interval keys that use the station (as either end). */
@@ -20,32 +20,52 @@ export function intervalsOfStation(stationKey: StationKey, wave: Wave): Interval
     .map((p) => p.key);
 }
 
+/** The edit action of the core (snapping, the edited method chosen for the station's intervals). */
 function withPick(
   edits: UserEdits,
   stationKey: StationKey,
   wave: Wave,
   method: EditablePickMethod,
   timeS: number,
+  snap: boolean,
 ): UserEdits {
-  const chosen = { ...edits.chosenMethod };
-  for (const k of intervalsOfStation(stationKey, wave)) chosen[k] = method as IntervalMethod;
-  return { ...edits, picks: { ...edits.picks, [pickEditKey(stationKey, wave, method)]: timeS }, chosenMethod: chosen };
+  const prepared = useResults.getState().prepared;
+  const station = prepared?.stations.find((s) => s.key === stationKey && s.wave === wave) ?? { key: stationKey, wave };
+  return applyPickEdit(edits, prepared?.pairs ?? [], station, method, timeS, snap);
 }
 
 export const PICK_NOTICE = 'Interval now uses your picks: the profile follows this edit (undo with z).';
 
 /** Sets a hand pick (one undo step). */
-export function setPick(stationKey: StationKey, wave: Wave, method: EditablePickMethod, timeS: number): void {
-  commit((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS) }), PICK_NOTICE);
+export function setPick(
+  stationKey: StationKey,
+  wave: Wave,
+  method: EditablePickMethod,
+  timeS: number,
+  snap = false,
+): void {
+  commit((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS, snap) }), PICK_NOTICE);
 }
 
 /** Starts a drag: one undo step now, later moves amend it. */
-export function beginPickDrag(stationKey: StationKey, wave: Wave, method: EditablePickMethod, timeS: number): void {
-  setPick(stationKey, wave, method, timeS);
+export function beginPickDrag(
+  stationKey: StationKey,
+  wave: Wave,
+  method: EditablePickMethod,
+  timeS: number,
+  snap: boolean,
+): void {
+  setPick(stationKey, wave, method, timeS, snap);
 }
 
-export function movePickDrag(stationKey: StationKey, wave: Wave, method: EditablePickMethod, timeS: number): void {
-  amend((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS) }));
+export function movePickDrag(
+  stationKey: StationKey,
+  wave: Wave,
+  method: EditablePickMethod,
+  timeS: number,
+  snap: boolean,
+): void {
+  amend((s) => ({ edits: withPick(s.edits, stationKey, wave, method, timeS, snap) }));
 }
 
 /** Removes the hand pick of a method (back to the automatic one). */

@@ -2,20 +2,20 @@
  * Loading and removing files, opening and saving project archives, the demo survey. Parsing happens in
  * the worker; a file that fails shows its error while every good file stays loaded.
  */
-import type { ErrorInfo } from '../core/errors';
-import type { RecordAssignment, TestKind, WaveRecord } from '../core/model';
-import { looksLikeRecordLog, readRecordLog } from '../core/io/recordlog';
-import { placeForSurvey } from '../core/setup/legacy';
-import type { Survey } from '../core/model';
-import { decodeUtf8 } from '../core/io/bytes';
-import { toErrorInfo } from '../core/errors';
-import { PROJECT_VERSION, writeProjectArchive, type ProjectDocument } from '../core/io/archive';
-import { uniqueRecordIds } from '../core/io/record-ids';
-import { textLayout } from '../core/io/text';
-import { readDeviationTable } from '../core/io/deviation';
-import { defaultSettings, emptyEdits } from '../core/settings';
+import type { ErrorInfo } from '../core';
+import type { RecordAssignment, TestKind, WaveRecord } from '../core';
+import { looksLikeRecordLog, readRecordLog } from '../core';
+import { placeForSurvey } from '../core';
+import type { Survey } from '../core';
+import { decodeUtf8 } from '../core';
+import { toErrorInfo } from '../core';
+import { PROJECT_FORMAT, PROJECT_VERSION, writeProjectArchive, type ProjectDocument } from '../core';
+import { uniqueRecordIds } from '../core';
+import { textLayout } from '../core';
+import { readDeviationTable } from '../core';
+import { defaultSettings, emptyEdits } from '../core';
 import { ioLane } from '../worker/client';
-import { blankSurvey } from '../core/catalogue/testKinds';
+import { blankSurvey } from '../core';
 import type { NamedBytes, OpenedArchive, ParsedFile } from '../worker/protocol';
 import { clearRaw, rawFiles, rawRecords } from './raw';
 import {
@@ -275,7 +275,7 @@ export function removeFile(fileName: string): void {
 /** Replaces the whole session with a project document and its files (archive, demo, restore). */
 export function applyProject(
   doc: ProjectDocument,
-  opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing'>,
+  opened: Pick<OpenedArchive, 'files' | 'parsed' | 'missing' | 'issues'>,
   archiveName: string,
   extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {},
 ): void {
@@ -294,12 +294,13 @@ export function applyProject(
       sizeBytes: 0,
       status: 'error',
       error: {
-        code: 'ARCHIVE_FILE_MISSING',
+        code: 'PROJECT_FILE_MISSING',
         message: `${name} is listed in project.json but is not in ${archiveName}.`,
         file: name,
       },
     });
   }
+  for (const issue of opened.issues ?? []) if (issue.code === 'ARCHIVE_FILE_UNLISTED') pushMessage(issue);
   // Records in the survey keep their ids; any record the archive added with a new name is placed too.
   const placed = new Set(doc.survey.records.map((r) => r.recordId));
   const unplaced = [...rawRecords.values()].filter((r) => !placed.has(r.id));
@@ -325,7 +326,7 @@ export function applyProject(
     intervalRequest: opened.parsed
       .filter((p) => !p.outcome.ok && p.outcome.error.code === 'TEXT_NO_SAMPLE_INTERVAL')
       .map((p) => p.name),
-    fileSampleIntervals: {},
+    fileSampleIntervals: { ...(doc.sampleIntervalsS ?? {}) },
     namePattern: extra.namePattern ?? st.namePattern,
     unitSystem: extra.unitSystem ?? st.unitSystem,
     view: keepViewPrefs(st.view),
@@ -336,7 +337,11 @@ export function applyProject(
   void runProcessing();
 }
 
-export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise<void> {
+export async function openArchiveBytes(
+  name: string,
+  bytes: Uint8Array,
+  extra: { namePattern?: string; unitSystem?: 'SI' | 'US' } = {},
+): Promise<ErrorInfo | null> {
   useApp.setState({ loadProgress: { done: 0, total: 1 } });
   let opened: OpenedArchive | null = null;
   try {
@@ -355,11 +360,13 @@ export async function openArchiveBytes(name: string, bytes: Uint8Array): Promise
     );
   } catch (e) {
     useApp.setState({ loadProgress: null });
-    pushMessage({ ...(e as ErrorInfo), file: (e as ErrorInfo).file ?? name });
-    return;
+    const info = { ...(e as ErrorInfo), file: (e as ErrorInfo).file ?? name };
+    pushMessage(info);
+    return info;
   }
   const o = opened as OpenedArchive | null;
-  if (o) applyProject(o.doc, o, name);
+  if (o) applyProject(o.doc, o, name, extra);
+  return null;
 }
 
 /** Makes the demo survey in the worker and opens it exactly like a project archive (without zipping it). */
@@ -397,7 +404,7 @@ export function currentProject(): { doc: ProjectDocument; files: NamedBytes[] } 
     if (b && !files.some((f) => f.name === name)) files.push({ name, bytes: b });
   }
   const doc: ProjectDocument = {
-    format: 'borewave-project',
+    format: PROJECT_FORMAT,
     version: PROJECT_VERSION,
     savedAt: new Date().toISOString(),
     survey: s.survey,
@@ -406,6 +413,10 @@ export function currentProject(): { doc: ProjectDocument; files: NamedBytes[] } 
     ...(s.comparison ? { comparison: s.comparison } : {}),
     files: files.map((f) => f.name),
     deviationFiles: { ...s.deviationFiles },
+    // files[].sampleIntervalS: the user-given interval of a text file without a time column.
+    sampleIntervalsS: Object.fromEntries(
+      Object.entries(s.fileSampleIntervals).filter(([n]) => files.some((f) => f.name === n)),
+    ),
   };
   return { doc, files };
 }

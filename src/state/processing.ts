@@ -3,11 +3,11 @@
  * processing settings: when their key changes, the running job is cancelled and a new one starts after
  * a short pause. Soil layers, the profile method and other derive-only inputs do not re-run it.
  */
-import type { Survey } from '../core/model';
-import type { ErrorCode } from '../core/errors';
-import { WORKER_SETTING_GROUPS, type Settings } from '../core/settings';
-import type { Prepared } from '../core/pipeline';
-import type { AutoPickResult } from '../core/picking/autopick';
+import type { Survey } from '../core';
+import type { ErrorCode } from '../core';
+import { WORKER_SETTING_GROUPS, type Settings } from '../core';
+import type { Prepared } from '../core';
+import type { AutoPickResult } from '../core';
 import { processLane } from '../worker/client';
 import { rawRecords } from './raw';
 import { useApp, useResults } from './store';

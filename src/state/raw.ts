@@ -2,7 +2,7 @@
  * Raw waveforms and original file bytes, outside React state (keyed by record id / file name) so that
  * edits never copy sample arrays. The store keeps only metadata about them.
  */
-import type { WaveRecord } from '../core/model';
+import type { WaveRecord } from '../core';
 
 /** Parsed records by record id. */
 export const rawRecords = new Map<string, WaveRecord>();

@@ -3,19 +3,19 @@
  * of survey/settings/edits goes through commit() so it can be undone. Derived results are not stored
  * here (see derived.ts); worker results (working traces, automatic picks) sit in useResults.
  */
-import type { IntervalKey, StationKey } from '../core/keys';
-import type { RecordLog } from '../core/io/recordlog';
-import type { InferenceSummary, RejectedValue } from '../core/setup/types';
+import type { IntervalKey, StationKey } from '../core';
+import type { RecordLog } from '../core';
+import type { InferenceSummary, RejectedValue } from '../core';
 import { create } from 'zustand';
-import type { ErrorInfo } from '../core/errors';
-import type { Survey, TestKind, Wave } from '../core/model';
-import { defaultSettings, emptyEdits, type EditablePickMethod, type Settings, type UserEdits } from '../core/settings';
-import type { UnitSystem } from '../core/units';
-import type { Prepared } from '../core/pipeline';
-import type { AutoPickResult } from '../core/picking/autopick';
-import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
-import type { ComparisonProfile } from '../core/site/comparison';
-import { blankSurvey } from '../core/catalogue/testKinds';
+import type { ErrorInfo } from '../core';
+import type { Survey, TestKind, Wave } from '../core';
+import { defaultSettings, emptyEdits, type EditablePickMethod, type Settings, type UserEdits } from '../core';
+import type { UnitSystem } from '../core';
+import type { Prepared } from '../core';
+import type { AutoPickResult } from '../core';
+import { DEFAULT_NAME_PATTERN } from '../core';
+import type { ComparisonProfile } from '../core';
+import { blankSurvey } from '../core';
 
 export interface Snapshot {
   survey: Survey;
@@ -47,7 +47,7 @@ export interface RecordMeta {
 }
 
 export type Sheet = null | 'site' | 'export';
-export type CentreTab = 'traces' | 'geometry';
+export type CentreTab = 'traces' | 'geometry' | 'design';
 export type TraceTool = 'pick' | 'zoom' | 'pan';
 export type HitView = 'working' | 'both';
 

@@ -3,24 +3,25 @@
  * visible) with the Site and Export sheets over it, and the bottom strip with Pair check and Travel time.
  */
 import { memo, useDeferredValue, useEffect, useRef } from 'react';
-import type { Derived } from '../core/pipeline';
-import type { UnitSystem } from '../core/units';
-import type { Survey, Wave } from '../core/model';
-import type { Settings } from '../core/settings';
-import { STANDARD_NAMES } from '../core/site/classes';
-import { EXPORT_CAUTIONS } from '../core/report/tables';
+import type { Derived } from '../core';
+import type { UnitSystem } from '../core';
+import type { Station, Survey, Wave } from '../core';
+import type { Settings } from '../core';
+import { STANDARD_NAMES } from '../core';
+import { EXPORT_CAUTIONS } from '../core';
 import { useAutosave, restoreSession, discardSavedSession } from '../state/autosave';
 import { currentDerived, settleSpread, useDerived } from '../state/derived';
 import { clearPick, setPick, toggleStationExcluded } from '../state/edits';
 import { loadFiles, startFresh } from '../state/files';
 import { cancelProcessing, runProcessing } from '../state/processing';
 import { dismissMessage, redo, setUnitSystem, setView, undo, useApp, useResults } from '../state/store';
-import { EDITABLE_METHODS, methodInfo } from '../core/catalogue/methods';
-import { kindInfo } from '../core/catalogue/testKinds';
+import { EDITABLE_METHODS, methodInfo } from '../core';
+import { kindInfo } from '../core';
 import { GeometryPane } from './Geometry';
 import { PairCheck } from './PairCheck';
 import { boardStations, effectiveReceiver, pickFor } from './picks';
 import { ProfilePane } from './Profile';
+import { DesignPane, DesignPrintSection } from './Design';
 import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
@@ -35,86 +36,158 @@ function isTyping(t: EventTarget | null): boolean {
   return tag === 'INPUT' || tag === 'TEXTAREA' || tag === 'SELECT' || el.isContentEditable;
 }
 
-/** Keyboard editing on the Trace board (listed in KeyboardHelp). */
-export function handleKey(e: KeyboardEvent): void {
-  if (isTyping(e.target)) return;
-  const key = e.key;
-  const ctrl = e.ctrlKey || e.metaKey;
-  if ((ctrl && key.toLowerCase() === 'z' && !e.shiftKey) || (!ctrl && key === 'z')) {
-    e.preventDefault();
-    undo();
-    return;
-  }
-  if ((ctrl && (key.toLowerCase() === 'y' || (key.toLowerCase() === 'z' && e.shiftKey))) || (!ctrl && key === 'Z')) {
-    e.preventDefault();
-    redo();
-    return;
-  }
-  if (ctrl || e.altKey) return;
+type Ctx = { e: KeyboardEvent; key: string; ctrl: boolean };
+
+/** The board's selected station (with its wave) for the keys that act on it; null when there is none. */
+function selectedOnBoard(): { s: Station; wave: Wave; stations: Station[]; idx: number } | null {
   const { view } = useApp.getState();
-  if (key === '?') {
-    setView({ helpOpen: !view.helpOpen });
-    return;
-  }
-  if (key === 'Escape') {
-    setView({ helpOpen: false, sheet: null });
-    return;
-  }
-  if (key >= '1' && key <= '4') {
-    setView({ editMethod: EDITABLE_METHODS[Number(key) - 1] });
-    return;
-  }
-  if (key === 'p') return setView({ tool: 'pick' });
-  if (key === 'm') return setView({ tool: 'zoom' });
-  if (key === 'n') return setView({ tool: 'pan' });
-  if (key === 's') return setView({ snap: !view.snap });
   const prepared = useResults.getState().prepared;
-  if (!prepared) return;
+  if (!prepared) return null;
   const wave: Wave = view.wave;
   const stations = boardStations(prepared.stations, wave, effectiveReceiver(prepared.stations, wave, view.receiver));
-  if (!stations.length) return;
+  if (!stations.length) return null;
   const idx = stations.findIndex((s) => s.key === view.selectedStation);
-  if (key === 'ArrowUp' || key === 'ArrowDown') {
-    e.preventDefault();
-    const next = idx < 0 ? 0 : Math.max(0, Math.min(stations.length - 1, idx + (key === 'ArrowUp' ? -1 : 1)));
-    setView({ selectedStation: stations[next].key, selectedInterval: null });
-    return;
-  }
-  if (idx < 0) return;
-  const s = stations[idx];
-  if (key === 'ArrowLeft' || key === 'ArrowRight') {
-    e.preventDefault();
-    const d = currentDerived();
-    const p = d ? pickFor(d.picks, s.key, wave, view.editMethod) : undefined;
-    if (!p) return;
-    const steps = (key === 'ArrowLeft' ? -1 : 1) * (e.shiftKey ? 10 : 1);
-    setPick(s.key, wave, view.editMethod, p.timeS + steps * s.working.sampleIntervalS);
-    return;
-  }
-  if (key === 'x') {
-    toggleStationExcluded(s.key, wave);
-    return;
-  }
-  if (key === 'Delete' || key === 'Backspace') {
-    clearPick(s.key, wave, view.editMethod);
+  return { s: stations[idx], wave, stations, idx };
+}
+
+interface Binding {
+  /** Keys as shown in the help. */
+  keys: string;
+  help: string;
+  /** Whether the key event is this binding (absent = mouse, listed for help only). */
+  match?: (c: Ctx) => boolean;
+  run?: (c: Ctx) => void;
+  /** Bindings that work without ctrl/alt only. */
+  plain?: boolean;
+}
+
+/** Every key and mouse binding of the board: handleKey runs them, KeyboardHelp lists them. */
+export const BINDINGS: readonly Binding[] = [
+  { keys: 'click (Pick tool)', help: 'place the pick of the method being edited on the nearest trace' },
+  { keys: 'drag (Pick tool)', help: 'move it; one undo step per drag' },
+  {
+    keys: 'z  or  ctrl+z',
+    help: 'undo',
+    match: ({ e, key, ctrl }) => (ctrl && key.toLowerCase() === 'z' && !e.shiftKey) || (!ctrl && key === 'z'),
+    run: ({ e }) => {
+      e.preventDefault();
+      undo();
+    },
+  },
+  {
+    keys: 'shift+z  or  ctrl+y',
+    help: 'redo',
+    match: ({ e, key, ctrl }) =>
+      (ctrl && (key.toLowerCase() === 'y' || (key.toLowerCase() === 'z' && e.shiftKey))) || (!ctrl && key === 'Z'),
+    run: ({ e }) => {
+      e.preventDefault();
+      redo();
+    },
+  },
+  {
+    keys: '?',
+    help: 'this list',
+    plain: true,
+    match: ({ key }) => key === '?',
+    run: () => setView({ helpOpen: !useApp.getState().view.helpOpen }),
+  },
+  {
+    keys: 'Escape',
+    help: 'close this list or the open sheet',
+    plain: true,
+    match: ({ key }) => key === 'Escape',
+    run: () => setView({ helpOpen: false, sheet: null }),
+  },
+  {
+    keys: '1 2 3 4',
+    help: `edit ${EDITABLE_METHODS.map((m) => methodInfo(m).label).join(' / ')}`,
+    plain: true,
+    match: ({ key }) => key >= '1' && key <= String(EDITABLE_METHODS.length) && key.length === 1,
+    run: ({ key }) => setView({ editMethod: EDITABLE_METHODS[Number(key) - 1] }),
+  },
+  {
+    keys: 'p  m  n',
+    help: 'Pick tool / Zoom tool (drag a box; double-click to see all) / Pan tool; the wheel zooms',
+    plain: true,
+    match: ({ key }) => key === 'p' || key === 'm' || key === 'n',
+    run: ({ key }) => setView({ tool: key === 'p' ? 'pick' : key === 'm' ? 'zoom' : 'pan' }),
+  },
+  {
+    keys: 's',
+    help: 'snap on or off',
+    plain: true,
+    match: ({ key }) => key === 's',
+    run: () => setView({ snap: !useApp.getState().view.snap }),
+  },
+  {
+    keys: '↑ ↓',
+    help: 'previous / next trace',
+    plain: true,
+    match: ({ key }) => key === 'ArrowUp' || key === 'ArrowDown',
+    run: ({ e, key }) => {
+      const b = selectedOnBoard();
+      if (!b) return;
+      e.preventDefault();
+      const { stations, idx } = b;
+      const next = idx < 0 ? 0 : Math.max(0, Math.min(stations.length - 1, idx + (key === 'ArrowUp' ? -1 : 1)));
+      setView({ selectedStation: stations[next].key, selectedInterval: null });
+    },
+  },
+  {
+    keys: '← →',
+    help: 'nudge the pick one sample (with shift: ten)',
+    plain: true,
+    match: ({ key }) => key === 'ArrowLeft' || key === 'ArrowRight',
+    run: ({ e, key }) => {
+      const b = selectedOnBoard();
+      if (!b?.s) return;
+      e.preventDefault();
+      const { view } = useApp.getState();
+      const d = currentDerived();
+      const p = d ? pickFor(d.picks, b.s.key, b.wave, view.editMethod) : undefined;
+      if (!p) return;
+      const steps = (key === 'ArrowLeft' ? -1 : 1) * (e.shiftKey ? 10 : 1);
+      setPick(b.s.key, b.wave, view.editMethod, p.timeS + steps * b.s.working.sampleIntervalS);
+    },
+  },
+  {
+    keys: 'x',
+    help: 'exclude the trace, or restore it',
+    plain: true,
+    match: ({ key }) => key === 'x',
+    run: () => {
+      const b = selectedOnBoard();
+      if (b?.s) toggleStationExcluded(b.s.key, b.wave);
+    },
+  },
+  {
+    keys: 'Delete  or  Backspace',
+    help: 'back to the automatic pick',
+    plain: true,
+    match: ({ key }) => key === 'Delete' || key === 'Backspace',
+    run: () => {
+      const b = selectedOnBoard();
+      if (b?.s) clearPick(b.s.key, b.wave, useApp.getState().view.editMethod);
+    },
+  },
+];
+
+/** Keyboard editing on the Trace board: the first binding that matches runs (listed in KeyboardHelp). */
+export function handleKey(e: KeyboardEvent): void {
+  if (isTyping(e.target)) return;
+  const c: Ctx = { e, key: e.key, ctrl: e.ctrlKey || e.metaKey };
+  for (const b of BINDINGS) {
+    if (!b.match || !b.run) continue;
+    if (b.plain && (c.ctrl || e.altKey)) continue;
+    if (b.match(c)) {
+      b.run(c);
+      return;
+    }
   }
 }
 
 function KeyboardHelp() {
-  const rows: [string, string][] = [
-    ['click (Pick tool)', 'place the pick of the method being edited on the nearest trace'],
-    ['drag (Pick tool)', 'move it; one undo step per drag'],
-    ['↑ ↓', 'previous / next trace'],
-    ['← →', 'nudge the pick one sample (with shift: ten)'],
-    ['x', 'exclude the trace, or restore it'],
-    ['Delete', 'back to the automatic pick'],
-    ['1 2 3 4', 'edit onset / first peak / first trough / zero crossing'],
-    ['p  m  n', 'Pick tool / Zoom tool (drag a box; double-click to see all) / Pan tool; the wheel zooms'],
-    ['s', 'snap on or off'],
-    ['z  or  ctrl+z', 'undo'],
-    ['shift+z  or  ctrl+y', 'redo'],
-    ['?', 'this list'],
-  ];
+  const rows: [string, string][] = BINDINGS.map((b) => [b.keys, b.help]);
   return (
     <div className="modal" role="dialog" aria-label="Keyboard" onClick={() => setView({ helpOpen: false })}>
       <div className="modal-box" onClick={(e) => e.stopPropagation()}>
@@ -376,6 +449,7 @@ const PrintBody = memo(function PrintBody({
           </li>
         ))}
       </ul>
+      <DesignPrintSection design={d?.design} units={units} />
       <h2>Cautions</h2>
       <ul>
         {EXPORT_CAUTIONS.map((c) => (
@@ -429,8 +503,16 @@ export function App() {
             >
               Geometry
             </button>
+            <button
+              role="tab"
+              aria-selected={view.centre === 'design'}
+              className={view.centre === 'design' ? 'on' : ''}
+              onClick={() => setView({ centre: 'design' })}
+            >
+              Curves &amp; liquefaction
+            </button>
           </nav>
-          {view.centre === 'traces' ? <TraceBoard /> : <GeometryPane />}
+          {view.centre === 'traces' ? <TraceBoard /> : view.centre === 'geometry' ? <GeometryPane /> : <DesignPane />}
         </div>
         <div className="right">
           <ProfilePane />

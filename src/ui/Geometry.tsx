@@ -14,13 +14,13 @@ import type {
   SoilLayer,
   TestKind,
   ValueSource,
-} from '../core/model';
-import { userBoundariesM, type BandpassSetting, type Settings } from '../core/settings';
-import type { OnsetPicker } from '../core/catalogue/methods';
-import { STRESS_EXPONENT_CHOICES } from '../core/stiffness/normalise';
-import { DEFAULT_NAME_PATTERN } from '../core/survey/assign';
-import { applyPaste } from '../core/survey/paste';
-import type { ReceiverSlot } from '../core/keys';
+} from '../core';
+import { userBoundariesM, type BandpassSetting, type Settings } from '../core';
+import type { OnsetPicker } from '../core';
+import { STRESS_EXPONENT_CHOICES } from '../core';
+import { DEFAULT_NAME_PATTERN } from '../core';
+import { applyPaste } from '../core';
+import type { ReceiverSlot } from '../core';
 import {
   changeKind,
   kindInfo,
@@ -29,14 +29,15 @@ import {
   receiverSlots,
   surfaceSource,
   TEST_KIND_CATALOGUE,
-} from '../core/catalogue/testKinds';
+} from '../core';
 import { useDerived } from '../state/derived';
 import { rawRecords } from '../state/raw';
 import { updateSettings, updateSurvey } from '../state/edits';
 import { loadDeviation, loadRecordLog, reassignAll } from '../state/files';
 import { setNamePattern, useApp } from '../state/store';
 import { fmt, label, parseDisplay, useUnits } from './units';
-import type { QuantityKind, UnitSystem } from '../core/units';
+import { DesignFields, SoilDesignTable } from './SoilDesign';
+import type { QuantityKind, UnitSystem } from '../core';
 
 const HITS: HitDirection[] = ['left', 'right', 'up', 'down', 'none'];
 const COMPONENTS: Component[] = ['H1', 'H2', 'V'];
@@ -1128,6 +1129,9 @@ export function GeometryPane() {
       </button>
       <h3>Soil column</h3>
       <SoilTable units={units} />
+      <SoilDesignTable />
+      <h4>Shaking and curves</h4>
+      <DesignFields />
       <h3>Processing</h3>
       <ProcessingFields settings={settings} units={units} />
     </section>

@@ -3,9 +3,9 @@
  * back by the chosen travel-time difference, with the cross-correlation coefficient from the core; and
  * the reversed hits of the selected station overlaid (first direction solid, second dashed).
  */
-import { methodInfo } from '../core/catalogue/methods';
+import { methodInfo } from '../core';
 import { useMemo } from 'react';
-import { reversedDirections } from '../core/catalogue/testKinds';
+import { reversedDirections } from '../core';
 import { useDerived } from '../state/derived';
 import { rawRecords } from '../state/raw';
 import { useApp, useResults } from '../state/store';

@@ -4,13 +4,13 @@
  */
 import { CurrentSetupProblems } from './Setup';
 import { memo, useMemo, useRef, useState } from 'react';
-import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core/catalogue/methods';
-import type { IntervalKey, StationKey } from '../core/keys';
-import type { IntervalValue } from '../core/velocity/intervals';
-import type { ComparisonResult, ProfileRow } from '../core/pipeline';
-import type { ComparisonProfile } from '../core/site/comparison';
-import { DEFAULT_RAYLEIGH_POISSON } from '../core/site/comparison';
-import type { ErrorInfo } from '../core/errors';
+import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core';
+import type { IntervalKey, StationKey } from '../core';
+import type { IntervalValue } from '../core';
+import type { ComparisonResult, ProfileRow } from '../core';
+import type { ComparisonProfile } from '../core';
+import { DEFAULT_RAYLEIGH_POISSON } from '../core';
+import type { ErrorInfo } from '../core';
 import { useDerived } from '../state/derived';
 import {
   loadComparison,
@@ -21,9 +21,9 @@ import {
 } from '../state/edits';
 import { setView, useApp } from '../state/store';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
-import { fromDisplay } from '../core/units';
+import { fromDisplay } from '../core';
 import { disp, fmt, label, useUnits } from './units';
-import type { UnitSystem } from '../core/units';
+import type { UnitSystem } from '../core';
 
 function stepLine(
   rows: readonly ProfileRow[],

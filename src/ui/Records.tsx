@@ -6,8 +6,8 @@ import { useRef, useState } from 'react';
 import { applySampleInterval, loadFiles, openDemo, removeFile } from '../state/files';
 import type { NamedBytes } from '../worker/protocol';
 import { setView, useApp, type RecordMeta } from '../state/store';
-import { kindInfo } from '../core/catalogue/testKinds';
-import { DEMO_KINDS } from '../core/synth/demo';
+import { kindInfo } from '../core';
+import { DEMO_KINDS } from '../core';
 import { fmt, useUnits } from './units';
 
 export async function filesFromList(list: FileList | File[]): Promise<NamedBytes[]> {

@@ -3,10 +3,10 @@
  * table (per depth: hits, where they came from, confidence, azimuth of each receiver), with the bulk
  * actions (hits by data, alternate by file order, one global swap) and the azimuth fix per row.
  */
-import type { ReceiverSlot } from '../core/keys';
-import type { HitDirection } from '../core/model';
-import { azimuthEditKey } from '../core/survey/orientation';
-import type { SetupProblem } from '../core/survey/setup-checks';
+import type { ReceiverSlot } from '../core';
+import type { HitDirection } from '../core';
+import { azimuthEditKey } from '../core';
+import type { SetupProblem } from '../core';
 import { updateSurvey } from '../state/edits';
 import { useDerived } from '../state/derived';
 import { commit, useApp, useResults } from '../state/store';

@@ -3,9 +3,9 @@
  * questions each standard asks beyond Vs30, cautions) and Export (tables from core/report, plots as
  * images, the project archive, a printable summary).
  */
-import { hasDirectVelocities } from '../core/catalogue/testKinds';
+import { hasDirectVelocities } from '../core';
 import { CurrentSetupProblems } from './Setup';
-import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core/site/classes';
+import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core';
 import {
   directTable,
   intervalsTable,
@@ -15,16 +15,17 @@ import {
   siteJson,
   toCsv,
   EXPORT_CAUTIONS,
-} from '../core/report/tables';
-import type { Vs30RuleSetting } from '../core/settings';
+} from '../core';
+import { curvesCautions, curvesTable, liquefactionCautions, liquefactionTable } from '../core';
+import type { Vs30RuleSetting } from '../core';
 import { settledDerived, useDerived, useSpreadPending } from '../state/derived';
 import { updateSettings } from '../state/edits';
 import { projectArchiveBytes } from '../state/files';
 import { setView, useApp, useResults } from '../state/store';
 import { downloadPlot, PLOT_NAMES, plotRegistry } from './plot';
 import { currentFigure, figurePng, figureSvgFile, FIGURE_PNG_WIDTH_PX, openReport } from './report';
-import type { Figure } from '../core/report/figures';
-import type { Paper } from '../core/report/html';
+import type { Figure } from '../core';
+import type { Paper } from '../core';
 import { fmt, label, useUnits } from './units';
 import { useState } from 'react';
 
@@ -215,6 +216,7 @@ export function ExportSheet() {
   const [error, setError] = useState<string | null>(null);
   const base = safeBaseName(name);
   const ready = !!(d && prepared);
+  const liquefactionReady = !!d?.design.liquefaction;
   const units = useUnits();
   const surveyKind = useApp((s) => s.survey.kind);
   const csv = (kind: 'picks' | 'intervals' | 'profile' | 'layers' | 'direct') => {
@@ -268,6 +270,26 @@ export function ExportSheet() {
             Direct velocities, source to each receiver (CSV)
           </button>
         )}
+        <button
+          disabled={!ready}
+          onClick={() => {
+            const full = settledDerived();
+            if (full) download(`${base}-curves.csv`, toCsv(curvesTable(full, units), curvesCautions(full)), 'text/csv');
+          }}
+        >
+          Modulus reduction and damping curves per layer (CSV)
+        </button>
+        <button
+          disabled={!ready || !liquefactionReady}
+          title={liquefactionReady ? undefined : 'Enter peak ground acceleration and magnitude in Geometry first'}
+          onClick={() => {
+            const full = settledDerived();
+            const t = full ? liquefactionTable(full, units) : null;
+            if (t) download(`${base}-liquefaction.csv`, toCsv(t, liquefactionCautions()), 'text/csv');
+          }}
+        >
+          Liquefaction screen from Vs (CSV)
+        </button>
         <button
           disabled={!ready}
           onClick={() => {

@@ -3,21 +3,20 @@
  * (auto = hollow circle, edited = filled circle with a dark rim, excluded = small grey cross), click to
  * place a pick on the nearest trace, drag to move it, keys to nudge (see KeyboardHelp).
  */
-import { EDITABLE_METHODS, methodInfo } from '../core/catalogue/methods';
+import { EDITABLE_METHODS, methodInfo } from '../core';
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { Wave } from '../core/model';
-import type { EditablePickMethod } from '../core/settings';
-import type { TestKind } from '../core/model';
-import type { IntervalKey } from '../core/keys';
-import type { Station } from '../core/survey/stations';
-import { reversedDirections } from '../core/catalogue/testKinds';
-import { stationWaveKey } from '../core/keys';
+import type { Wave } from '../core';
+import type { EditablePickMethod } from '../core';
+import type { TestKind } from '../core';
+import type { IntervalKey } from '../core';
+import type { Station } from '../core';
+import { reversedDirections } from '../core';
+import { stationWaveKey } from '../core';
 import { currentDerived, useDerived } from '../state/derived';
-import type { IntervalValue } from '../core/velocity/intervals';
+import type { IntervalValue } from '../core';
 import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
-import { snapTimeS } from '../core/picking/snap';
 import { decimateMinMax, dropFlatRuns, mean, medianStep, peakAbs } from './decimate';
 import { boardStations, effectiveReceiver, pickFor, receiversOf } from './picks';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
@@ -507,12 +506,11 @@ export function TraceBoard() {
       const place = (clientX: number) => {
         const q = pointerToData(plotDiv, clientX, ev.clientY);
         if (!q) return null;
-        const tS = q.x / 1000;
-        return st.snap ? snapTimeS(s.working, method, tS) : tS;
+        return q.x / 1000;
       };
       const t0 = place(ev.clientX);
       if (t0 === null) return;
-      beginPickDrag(s.key, s.wave, method, t0);
+      beginPickDrag(s.key, s.wave, method, t0, st.snap);
       let frame = 0;
       let lastX = ev.clientX;
       const onMove = (e: MouseEvent) => {
@@ -521,7 +519,7 @@ export function TraceBoard() {
         frame = requestAnimationFrame(() => {
           frame = 0;
           const t = place(lastX);
-          if (t !== null) movePickDrag(s.key, s.wave, method, t);
+          if (t !== null) movePickDrag(s.key, s.wave, method, t, st.snap);
         });
       };
       const onUp = () => {
@@ -530,7 +528,7 @@ export function TraceBoard() {
         window.removeEventListener('mouseup', onUp, true);
         if (lastX !== ev.clientX) {
           const t = place(lastX);
-          if (t !== null) movePickDrag(s.key, s.wave, method, t);
+          if (t !== null) movePickDrag(s.key, s.wave, method, t, st.snap);
         }
       };
       window.addEventListener('mousemove', onMove, true);

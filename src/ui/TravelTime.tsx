@@ -2,9 +2,9 @@
  * Travel time: direct times against depth for one pick method, raw (hollow) and slant-corrected
  * (filled), with the core's layer fits drawn as lines over each layer's stations.
  */
-import { methodInfo } from '../core/catalogue/methods';
-import { receiverLabel, receiverSlots } from '../core/catalogue/testKinds';
-import type { ReceiverSlot } from '../core/keys';
+import { methodInfo } from '../core';
+import { receiverLabel, receiverSlots } from '../core';
+import type { ReceiverSlot } from '../core';
 import { useMemo } from 'react';
 import { useDerived } from '../state/derived';
 import { useApp, useResults } from '../state/store';

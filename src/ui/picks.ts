@@ -1,9 +1,9 @@
 /** Small view helpers about picks and stations (lookups only; nothing here computes a pick). */
-import type { Pick, Wave } from '../core/model';
-import { pickIsMethod, type EditablePickMethod } from '../core/catalogue/methods';
-import type { Station } from '../core/survey/stations';
-import type { Derived } from '../core/pipeline';
-import { slotIndex, type IntervalKey, type StationKey } from '../core/keys';
+import type { Pick, Wave } from '../core';
+import { pickIsMethod, type EditablePickMethod } from '../core';
+import type { Station } from '../core';
+import type { Derived } from '../core';
+import { slotIndex, type IntervalKey, type StationKey } from '../core';
 
 export const isMethod = pickIsMethod;
 

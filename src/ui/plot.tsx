@@ -40,6 +40,8 @@ export const PLOT_NAMES: Record<string, string> = {
   'pair-check': 'Pair check',
   'travel-time': 'Travel time',
   profile: 'Profile',
+  'design-curves': 'Modulus reduction and damping curves',
+  'liquefaction-screen': 'Liquefaction screen',
 };
 
 export const COLOURS = {

@@ -4,12 +4,11 @@
  * (printable to PDF, A4 or Letter); each figure downloads as SVG, or as PNG rasterised in the browser
  * through an offscreen canvas at print resolution.
  */
-import { version } from '../../package.json';
-import { reportDataFrom } from '../core/report/adapter';
-import type { ReportData } from '../core/report/data';
-import { reportFigures, type Figure } from '../core/report/figures';
-import { reportHtml, type Paper } from '../core/report/html';
-import { standaloneSvg } from '../core/report/svg';
+import { reportDataFrom, softwareVersion } from '../core';
+import type { ReportData } from '../core';
+import { reportFigures, type Figure } from '../core';
+import { reportHtml, type Paper } from '../core';
+import { standaloneSvg } from '../core';
 import { settledDerived } from '../state/derived';
 import { useApp, useResults } from '../state/store';
 
@@ -29,7 +28,7 @@ export function currentReportData(): ReportData | null {
     prepared,
     derived,
     units: a.unitSystem,
-    softwareVersion: version,
+    softwareVersion: softwareVersion(),
     madeAt: new Date().toISOString(),
   });
 }

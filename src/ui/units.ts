@@ -1,5 +1,5 @@
 /** Display helpers: SI inside, the chosen unit system on screen (conversions from core/units). */
-import { toDisplay, fromDisplay, unitSpec, type QuantityKind, type UnitSystem } from '../core/units';
+import { toDisplay, fromDisplay, unitSpec, type QuantityKind, type UnitSystem } from '../core';
 import { useApp } from '../state/store';
 
 export function useUnits(): UnitSystem {

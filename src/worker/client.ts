@@ -3,7 +3,7 @@
  * the worker and start a fresh one, so a long auto-pick never blocks the page).
  */
 import CoreWorker from './core.worker?worker&inline';
-import type { ErrorInfo } from '../core/errors';
+import type { ErrorInfo } from '../core';
 import type { WorkerRequest, WorkerResponse } from './protocol';
 
 /**

@@ -3,13 +3,13 @@
  * Heavy core work off the main thread: reading waveform files, opening project archives, making the
  * demo survey, and prepare + auto-pick with progress. Only calls the core; computes nothing itself.
  */
-import { toErrorInfo } from '../core/errors';
-import type { WaveRecord } from '../core/model';
-import { readWaveFile } from '../core/io/readers';
-import { readProjectArchive, validateProjectDocument } from '../core/io/archive';
-import { makeDemoProject } from '../core/synth/demo';
-import { autoPick, prepare } from '../core/pipeline';
-import type { OpenedArchive, ParsedFile, WorkerRequest, WorkerResponse } from './protocol';
+import { toErrorInfo } from '../core';
+import type { WaveRecord } from '../core';
+import { readWaveFile } from '../core';
+import { readProjectArchive, writeProjectArchive, type OpenedProject } from '../core';
+import { makeDemoProject } from '../core';
+import { autoPick, prepare } from '../core';
+import type { OpenedArchive, WorkerRequest, WorkerResponse } from './protocol';
 import { buffersOf } from './transfer';
 
 const ctx = self as unknown as DedicatedWorkerGlobalScope;
@@ -23,18 +23,10 @@ function handOver(msg: WorkerResponse): void {
   post(msg, buffersOf(msg));
 }
 
-/** Reads the waveform files of an opened project (deviation tables are not waveforms). */
-function readOpened(
-  opened: Omit<OpenedArchive, 'parsed'>,
-  progress: (done: number, total: number) => void,
-): OpenedArchive {
-  const deviationNames = new Set(Object.values(opened.doc.deviationFiles ?? {}));
-  const parsed: ParsedFile[] = [];
-  opened.files.forEach((f, i) => {
-    if (!deviationNames.has(f.name)) parsed.push({ name: f.name, outcome: readWaveFile(f.bytes, f.name) });
-    progress(i + 1, opened.files.length);
-  });
-  return { ...opened, parsed };
+/** What the page needs of an opened project (the one opener in the core read and placed it). */
+function forPage(opened: OpenedProject): OpenedArchive {
+  const { doc, files, missing, parsed, issues } = opened;
+  return { doc, files, missing, parsed, issues };
 }
 
 function handle(req: WorkerRequest): void {
@@ -50,13 +42,18 @@ function handle(req: WorkerRequest): void {
       });
       post({ type: 'parsed', jobId });
     } else if (req.type === 'open-archive') {
-      handOver({ type: 'archive', jobId, archive: readOpened(readProjectArchive(req.bytes, req.name), progress) });
+      handOver({ type: 'archive', jobId, archive: forPage(readProjectArchive(req.bytes, req.name)) });
+      progress(1, 1);
     } else if (req.type === 'make-demo') {
-      // Opened as an archive would be, without zipping and unzipping it.
+      // Opened exactly as a saved archive would be (the one opener, same checks).
       const demo = makeDemoProject(req.kind);
-      const doc = validateProjectDocument(demo.doc, `demo-${req.kind}.zip`);
-      const archive = readOpened({ doc, files: demo.files, missing: [] }, progress);
-      handOver({ type: 'archive', jobId, archive });
+      const name = `demo-${req.kind}.zip`;
+      handOver({
+        type: 'archive',
+        jobId,
+        archive: forPage(readProjectArchive(writeProjectArchive(demo.doc, demo.files), name)),
+      });
+      progress(1, 1);
     } else if (req.type === 'process') {
       const records = new Map<string, WaveRecord>(req.records.map((r) => [r.id, r]));
       post({ type: 'progress', jobId, stage: 'prepare', done: 0, total: 1 });

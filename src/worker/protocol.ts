@@ -3,13 +3,13 @@
  * as ErrorInfo. Typed arrays the page sends are copies (the page keeps its records and bytes); results
  * the worker sends back are transferred (worker/transfer.ts). 'make-demo' answers with 'archive'.
  */
-import type { ErrorInfo } from '../core/errors';
-import type { TestKind, Survey, WaveRecord } from '../core/model';
-import type { Settings } from '../core/settings';
-import type { ProjectDocument, ProjectFile } from '../core/io/archive';
-import type { ReadOutcome } from '../core/io/readers';
-import type { Prepared } from '../core/pipeline';
-import type { AutoPickResult } from '../core/picking/autopick';
+import type { ErrorInfo } from '../core';
+import type { TestKind, Survey, WaveRecord } from '../core';
+import type { Settings } from '../core';
+import type { ProjectDocument, ProjectFile } from '../core';
+import type { ReadOutcome } from '../core';
+import type { Prepared } from '../core';
+import type { AutoPickResult } from '../core';
 
 export interface NamedBytes {
   /** Name in the session and in a saved project: unique, may hold folders ("day2/1.sg2"). */
@@ -47,6 +47,8 @@ export interface OpenedArchive {
   missing: string[];
   /** Read outcome of each waveform file (deviation-table files are not read as waveforms). */
   parsed: ParsedFile[];
+  /** Problems the opener reported (missing, unreadable or unlisted files). */
+  issues?: ErrorInfo[];
 }
 
 export type WorkerResponse =

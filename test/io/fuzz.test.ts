@@ -1,7 +1,8 @@
 /**
  * Short property-based fuzz of readWaveFile (fast-check): random bytes, mutated valid SEG-2 files,
- * truncations and random text. Property (common practice for file parsers): never throws, returns in
- * bounded time, and every failure is a typed error (never the INTERNAL fallback of toErrorInfo).
+ * truncations and random text. Property (common practice for file parsers): never throws, and every
+ * failure is a typed error (never the INTERNAL fallback of toErrorInfo). Speed is measured by
+ * `npm run bench`, never by a timed test.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -9,12 +10,8 @@ import { readWaveFile } from '../../src/core/io/readers';
 import { writeSeg2 } from '../../src/core/io/seg2';
 import { buildSeg2 } from './seg2-fixtures';
 
-const MAX_MS = 200;
-
 function checkOne(bytes: Uint8Array, name: string): void {
-  const t0 = performance.now();
   const out = readWaveFile(bytes, name);
-  expect(performance.now() - t0).toBeLessThan(MAX_MS);
   if (!out.ok) expect(out.error.code).not.toBe('INTERNAL');
 }
 
@@ -136,9 +133,7 @@ describe('readWaveFile fuzz (about 2,000 cases)', () => {
               ...Array.from(text).flatMap((c) => [c.charCodeAt(0) & 0xff, c.charCodeAt(0) >> 8]),
             ])
           : new TextEncoder().encode(text);
-        const t0 = performance.now();
         const out = readWaveFile(bytes, 'l.txt', given ? { sampleIntervalS: 1e-4 } : {});
-        expect(performance.now() - t0).toBeLessThan(MAX_MS);
         if (!out.ok) expect(out.error.code).not.toBe('INTERNAL');
       }),
       { numRuns: 300 },

@@ -39,11 +39,11 @@ const GOLDEN_LE = Uint8Array.from([
   ...hex('18 00'), // string length 24 = 2 + 21 + 1
   ...Array.from('SAMPLE_INTERVAL 0.001', (c) => c.charCodeAt(0)),
   ...hex('00 00 00 00 00'), // NUL terminator, zero length word, pad to X = 60
-  ...hex('01 21 64 00 fa ff 03 00 07 00'), // domain.md golden vector
+  ...hex('01 21 64 00 fa ff 03 00 07 00'), // docs/methods.md golden vector
 ]);
 
 describe('SEG-2 format 3 (20-bit floating point)', () => {
-  it('decodes the golden vector 01 21 64 00 FA FF 03 00 07 00 -> [200, -5, 6, 28] (domain.md section 1, calc)', () => {
+  it('decodes the golden vector 01 21 64 00 FA FF 03 00 07 00 -> [200, -5, 6, 28] (docs/methods.md section 1, calc)', () => {
     expect(GOLDEN_LE.length).toBe(110);
     const r = readSeg2(GOLDEN_LE, 'golden.sg2');
     expect(r.byteOrder).toBe('little');

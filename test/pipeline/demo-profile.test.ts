@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { runProfile } from '../../src/cli/profile';
-import { newProjectDocument, writeProjectArchive } from '../../src/core/io/archive';
+import { newProjectDocument, writeProjectArchive } from '../../src/core/io/project';
 import { writeSeg2 } from '../../src/core/io/seg2';
 import {
   demoCrossholeGeometry,
@@ -114,7 +114,7 @@ describe('bad input is named and the rest still computes', () => {
     const { unzipSync, zipSync, strFromU8, strToU8 } = await import('fflate');
     const entries = unzipSync(zip);
     const pj = JSON.parse(strFromU8(entries['project.json']));
-    pj.files = [res.records[0].fileName, ...pj.files];
+    pj.files = [{ path: res.records[0].fileName, role: 'wave' }, ...pj.files];
     entries['project.json'] = strToU8(JSON.stringify(pj));
     const { rows, stderr, code } = await profileRows(zipSync(entries));
     expect(code).toBe(0);

@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runProfile } from '../../src/cli/profile';
-import { newProjectDocument, writeProjectArchive } from '../../src/core/io/archive';
+import { newProjectDocument, writeProjectArchive } from '../../src/core/io/project';
 import type { RecordAssignment, Survey } from '../../src/core/model';
 import { makeVariantSurvey, type VariantSpec, type VariantSurvey } from '../../src/core/synth/variants';
 
@@ -103,7 +103,8 @@ describe('cli profile on a folder of field files', () => {
     expect(a.length).toBeGreaterThan(5);
     expect(a).toEqual(await archiveProfile(v, 'dh'));
     const written = JSON.parse(readFileSync(join(root, 'dh-a-out', 'project.json'), 'utf8'));
-    expect(written.survey.records[0].depthSource).toBe('log');
+    expect(written.version).toBe(2);
+    expect(written.survey.records[0].depthM.source).toBe('log');
     expect(written.survey.records[0].channels[0]).toMatchObject({ component: 'V', source: 'header' });
     expect(written.survey.records).toHaveLength(20);
     // The completed project.json opens again (with the files beside it) to the same profile.

@@ -19,14 +19,14 @@ const example = [
 ];
 
 describe('time-averaged Vs', () => {
-  it('5 m @ 150, 10 m @ 250, 15 m @ 400 -> 270.68 m/s = 888.0 ft/s (shared/domain.md section 4 [calc])', () => {
+  it('5 m @ 150, 10 m @ 250, 15 m @ 400 -> 270.68 m/s = 888.0 ft/s (docs/methods.md section 4 [calc])', () => {
     const t = timeAveragedVs(example, 30, 'no-extrapolation')!;
     expect(t.vsMps).toBeCloseTo(270.68, 2);
     expect(t.vsMps / 0.3048).toBeCloseTo(888.0, 0);
     expect(t.extended).toBe(false);
     expect(t.flags).toEqual([]);
   });
-  it('classes of that profile: ASCE 7-16 D, ASCE 7-22 D, EN 1998-1 C (shared/domain.md section 4)', () => {
+  it('classes of that profile: ASCE 7-16 D, ASCE 7-22 D, EN 1998-1 C (docs/methods.md section 4)', () => {
     const v = timeAveragedVs(example, 30, 'no-extrapolation')!.vsMps;
     expect(siteClass('asce7_16', v, {}).siteClass).toBe('D');
     expect(siteClass('asce7_22', v, {}).siteClass).toBe('D');
@@ -70,7 +70,7 @@ describe('time-averaged Vs', () => {
 
 type Case = { ftps: number; cls: string };
 /**
- * Boundaries as printed, inclusive sides per shared/domain.md section 4:
+ * Boundaries as printed, inclusive sides per docs/methods.md section 4:
  * ASCE 7-16 Table 20.3-1: A > 5000; B 2500 < v <= 5000; C 1200 < v <= 2500; D 600 <= v <= 1200; E < 600 (ft/s).
  * ASCE 7-22 Table 20.2-1: each class is "> lower to upper" (upper inclusive); E <= 500 (ft/s).
  */

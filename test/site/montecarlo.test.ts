@@ -55,7 +55,7 @@ describe('reproducibility and special cases', () => {
     expect(siteUncertainty(one, opts)).toEqual(siteUncertainty(one, opts));
     expect(siteUncertainty(one, { ...opts, seed: 7 }).vs30P05Mps).not.toBe(siteUncertainty(one, opts).vs30P05Mps);
   });
-  it('zero uncertainty: every percentile equals the deterministic Vs30 (270.68 m/s, shared/domain.md) and class probability 1', () => {
+  it('zero uncertainty: every percentile equals the deterministic Vs30 (270.68 m/s, docs/methods.md) and class probability 1', () => {
     const ivs = [
       { topM: 0, bottomM: 5, vsMps: 150, vsSdMps: 0 },
       { topM: 5, bottomM: 15, vsMps: 250, vsSdMps: 0 },

@@ -12,7 +12,7 @@ import {
 import { BorewaveError } from '../../src/core/errors';
 
 describe('density and Gmax (trade units)', () => {
-  it('rho = 1.9 Mg/m3, Vs = 200 m/s -> Gmax = 76,000 kPa (shared/domain.md section 4 [calc]; Mg/m3 x m2/s2 = kPa, common practice)', () => {
+  it('rho = 1.9 Mg/m3, Vs = 200 m/s -> Gmax = 76,000 kPa (docs/methods.md section 4 [calc]; Mg/m3 x m2/s2 = kPa, common practice)', () => {
     expect(gmaxKpa(1.9, 200)).toBeCloseTo(76000, 9);
   });
   it('rho = gamma / g: 19 kN/m3 / 9.80665 m/s2 = 1.937461 Mg/m3 (g standard gravity, CGPM 1901)', () => {
@@ -29,10 +29,10 @@ describe('density and Gmax (trade units)', () => {
 });
 
 describe("Poisson's ratio from Vp/Vs (isotropic elasticity; Jaeger, Cook & Zimmerman, Fundamentals of Rock Mechanics, 4th ed., ch. 5, from memory)", () => {
-  it('r = sqrt(2) -> nu = 0 (shared/domain.md [calc]), to machine precision', () => {
+  it('r = sqrt(2) -> nu = 0 (docs/methods.md [calc]), to machine precision', () => {
     expect(poissonFromVelocityRatio(Math.SQRT2 * 200, 200)).toBeCloseTo(0, 14);
   });
-  it('r = 7.5 -> nu = 54.25 / 110.5 = 0.4910 (shared/domain.md [calc])', () => {
+  it('r = 7.5 -> nu = 54.25 / 110.5 = 0.4910 (docs/methods.md [calc])', () => {
     expect(poissonFromVelocityRatio(1500, 200)).toBeCloseTo(54.25 / 110.5, 15);
     expect(poissonFromVelocityRatio(1500, 200)).toBeCloseTo(0.491, 4);
   });

@@ -7,7 +7,7 @@ import {
 import { BorewaveError } from '../../src/core/errors';
 
 describe("Vs1 = Vs (Pa / sigma'_v)^n", () => {
-  it("Vs = 180 m/s, sigma'_v = 50 kPa, Pa = 100 kPa, n = 0.25 -> 214.06 m/s (shared/domain.md section 4 [calc])", () => {
+  it("Vs = 180 m/s, sigma'_v = 50 kPa, Pa = 100 kPa, n = 0.25 -> 214.06 m/s (docs/methods.md section 4 [calc])", () => {
     expect(stressNormalisedVs(180, 50, 0.25, 100)).toBeCloseTo(214.06, 2);
   });
   it('same with Pa = 101.325 kPa (default): 180 x 2.0265^0.25 = 180 x 1.193127 = 214.76 m/s (hand calculation)', () => {

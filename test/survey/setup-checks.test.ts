@@ -12,7 +12,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runProfile } from '../../src/cli/profile';
-import { newProjectDocument, writeProjectArchive } from '../../src/core/io/archive';
+import { newProjectDocument, writeProjectArchive } from '../../src/core/io/project';
 import { writeSeg2 } from '../../src/core/io/seg2';
 import { siteJson } from '../../src/core/report/tables';
 import { defaultSettings } from '../../src/core/settings';

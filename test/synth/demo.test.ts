@@ -18,7 +18,7 @@ describe('demo site model', () => {
     expect(m.layers[m.layers.length - 1].topM).toBe(25);
   });
 
-  it('Vs and unit weights inside the typical ranges of domain.md section 5 (memory): Vs 80-900 m/s, 15-22 kN/m3', () => {
+  it('Vs and unit weights inside the typical ranges of docs/methods.md section 5 (memory): Vs 80-900 m/s, 15-22 kN/m3', () => {
     for (const l of m.layers) {
       expect(l.vsMps).toBeGreaterThanOrEqual(80);
       expect(l.vsMps).toBeLessThanOrEqual(900);

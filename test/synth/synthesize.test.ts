@@ -306,7 +306,7 @@ describe('two-receiver downhole and the survey description', () => {
     expect(survey.records[0].channels.map((c) => c.receiver)).toEqual(['r0', 'r0', 'r0', 'r1', 'r1', 'r1']);
   });
 
-  it('survey soil column: layers from the model, stress exponent 0.5 clay / 0.25 sand (domain.md section 4), Poisson 0.3', () => {
+  it('survey soil column: layers from the model, stress exponent 0.5 clay / 0.25 sand (docs/methods.md section 4), Poisson 0.3', () => {
     const { survey, records } = synthesizeSurvey(MODEL, DOWNHOLE, CLEAN);
     expect(survey.mainHoleId).toBe('DH');
     expect(survey.soil.waterTableM).toBe(2);

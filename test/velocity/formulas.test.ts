@@ -9,7 +9,7 @@ import {
 import { distanceM, positionAlongHole } from '../../src/core/survey/geometry';
 import type { Borehole } from '../../src/core/model';
 
-describe('downhole interval velocity (ASTM D7400/D7400M-19 formulas; worked numbers in shared/domain.md s.2 [calc])', () => {
+describe('downhole interval velocity (ASTM D7400/D7400M-19 formulas; worked numbers in docs/methods.md s.2 [calc])', () => {
   // Source at the surface, horizontal offset x = 1.5 m; receivers at z = 5 m and 6 m; picks 25.0 and 29.5 ms.
   const x = 1.5;
   const r1 = slantDistanceM(x, 0, 5); // sqrt(1.5^2 + 5^2) = sqrt(27.25) = 5.22015 m
@@ -28,7 +28,7 @@ describe('downhole interval velocity (ASTM D7400/D7400M-19 formulas; worked numb
     expect(tc2 * 1000).toBeCloseTo(28.6192, 3);
     expect(1 / (tc2 - tc1)).toBeCloseTo(213.97, 1);
   });
-  it('pick error matters: Vs 200 m/s over 1 m (dt = 5 ms) with +-0.5 ms gives 182-222 m/s (domain.md [calc])', () => {
+  it('pick error matters: Vs 200 m/s over 1 m (dt = 5 ms) with +-0.5 ms gives 182-222 m/s (docs/methods.md [calc])', () => {
     expect(intervalVelocityMps(0, 1, 0.0055)).toBeCloseTo(181.8, 1);
     expect(intervalVelocityMps(0, 1, 0.0045)).toBeCloseTo(222.2, 1);
   });
@@ -70,7 +70,7 @@ describe('crosshole interval velocity from deviated holes (ASTM D4428/D4428M-14:
     expect(distanceM(s, r2)).toBeCloseTo(6.101844, 6);
     expect(intervalVelocityMps(distanceM(s, r1), distanceM(s, r2), 0.0285 - 0.012)).toBeCloseTo(203.11, 2);
   });
-  it('a 0.3 m drift over 3 m is a 10% distance error (common practice, shared/domain.md)', () => {
+  it('a 0.3 m drift over 3 m is a 10% distance error (common practice, docs/methods.md)', () => {
     const straight = 3;
     const drifted = distanceM([0, 0, 10], [3.3, 0, 10]);
     expect((drifted - straight) / straight).toBeCloseTo(0.1, 12);

@@ -2,7 +2,7 @@
  * SEG-2 reader and writer.
  * Layout: Pullan, S.E., 1990, "Recommended standard for seismic (/radar) data files in the personal
  * computer environment", Geophysics 55(9), 1260-1271 (the open SEG-2 standard). Summary in
- * /work/shared/domain.md section 1.
+ * docs/methods.md section 1.
  *
  * Every declared size and pointer is checked against the file length before anything is allocated
  * or read, so a corrupt header fails with a typed error instead of allocating or reading past the end.
@@ -188,7 +188,7 @@ export function splitNoteLines(note: string, lineTerminator: string): string[] {
 /**
  * Decode 20-bit floating point samples (format 3): groups of five 16-bit words; word 0 holds four
  * 4-bit exponents (lowest nibble for the first sample), words 1-4 are one's complement mantissas
- * (read as int16, add 1 when negative); value = mantissa * 2^exponent. (domain.md section 1.)
+ * (read as int16, add 1 when negative); value = mantissa * 2^exponent. (docs/methods.md section 1.)
  */
 export function decode20BitGroup(view: DataView, offset: number, little: boolean, out: Float64Array, at: number): void {
   const exps = view.getUint16(offset, little);

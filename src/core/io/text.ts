@@ -139,7 +139,7 @@ export function isTimeHeader(cell: string): boolean {
 /**
  * Unit guess when neither the header nor the caller gives one (stated rule): a time step of
  * 0.005 or more is read as milliseconds, a smaller one as seconds. Borehole seismic records are
- * sampled at 0.02-0.5 ms (domain.md section 5), so a step >= 5 ms in seconds would be implausible
+ * sampled at 0.02-0.5 ms (docs/methods.md section 5), so a step >= 5 ms in seconds would be implausible
  * and a step < 5 microseconds in milliseconds likewise.
  */
 export const GUESS_MS_STEP_THRESHOLD = 0.005;

@@ -2,11 +2,12 @@
  * The user's pick edits applied to the automatic picks: hand times replace (or add) the pick of each
  * editable method; an excluded station's picks carry origin 'excluded'.
  */
-import type { Pick } from '../model';
+import type { Pick, Wave, WorkingTrace } from '../model';
 import type { UserEdits } from '../settings';
 import type { Station } from '../survey/stations';
-import { pickEditKey, stationWaveKey, type StationWaveKey } from '../keys';
-import { EDITABLE_METHODS, editableMethodOf, pickMethodForEdit } from '../catalogue/methods';
+import { pickEditKey, stationWaveKey, type IntervalKey, type StationKey, type StationWaveKey } from '../keys';
+import { EDITABLE_METHODS, editableMethodOf, pickMethodForEdit, type EditablePickMethod } from '../catalogue/methods';
+import { snapTimeS } from './snap';
 
 /** Applies the user's pick edits and exclusions to the automatic picks. */
 export function effectivePicks(stations: readonly Station[], auto: readonly Pick[], edits: UserEdits): Pick[] {
@@ -46,4 +47,28 @@ export function effectivePicks(stations: readonly Station[], auto: readonly Pick
     out.push(...picks);
   }
   return out;
+}
+
+/**
+ * One hand pick as an edit action: the time (snapped to the method's feature on the station's working
+ * trace when `snap` is on), and every interval that uses the station switched to the edited method, so
+ * the profile follows the edit at once. Pure: returns the new edits.
+ */
+export function applyPickEdit(
+  edits: UserEdits,
+  pairs: readonly { key: IntervalKey; wave: Wave; a: { key: StationKey }; b: { key: StationKey } }[],
+  station: { key: StationKey; wave: Wave; working?: WorkingTrace },
+  method: EditablePickMethod,
+  timeS: number,
+  snap = false,
+): UserEdits {
+  const t = snap && station.working ? snapTimeS(station.working, method, timeS) : timeS;
+  const chosen = { ...edits.chosenMethod };
+  for (const p of pairs)
+    if (p.wave === station.wave && (p.a.key === station.key || p.b.key === station.key)) chosen[p.key] = method;
+  return {
+    ...edits,
+    picks: { ...edits.picks, [pickEditKey(station.key, station.wave, method)]: t },
+    chosenMethod: chosen,
+  };
 }

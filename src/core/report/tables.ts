@@ -20,7 +20,7 @@ export interface Table {
   rows: Cell[][];
 }
 
-/** Plain words carried by every export (design.md "Cautions"). */
+/** Plain words carried by every export (docs/conventions.md "Cautions"). */
 export const EXPORT_CAUTIONS: string[] = [
   'Results need review by a qualified professional before use in design; local codes and standards govern.',
   ...SITE_CAUTIONS,
@@ -86,7 +86,7 @@ const ms = (s: number | null | undefined) => reported('time', s);
 const SI_SUFFIX: Partial<Record<QuantityKind, string>> = { density: 'mg_m3', unitWeight: 'kn_m3' };
 
 /** Column name with its unit, and the value converted from SI for the chosen system. */
-function unitColumn(system: UnitSystem) {
+export function unitColumn(system: UnitSystem) {
   return {
     name: (base: string, kind: QuantityKind) =>
       system === 'SI'

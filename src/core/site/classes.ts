@@ -206,7 +206,7 @@ const QUESTIONS: SiteQuestion[] = [
     yesClass: 'E',
     text: 'Is there more than 10 ft (3 m) of soft clay: plasticity index PI > 20, water content w >= 40 % and undrained shear strength su < 500 psf (24 kPa)?',
     consequence: 'Site class E whatever the measured Vs.',
-    source: 'ASCE 7-16 Table 20.3-1; ASCE 7-22 Table 20.2-1 (shared/domain.md section 4)',
+    source: 'ASCE 7-16 Table 20.3-1; ASCE 7-22 Table 20.2-1 (docs/methods.md section 4)',
   },
   {
     id: 'en_s2',
@@ -247,7 +247,7 @@ function clean(v: number): number {
 }
 
 /**
- * Class from Vs30 alone (m/s in). Inclusive sides as printed (shared/domain.md section 4):
+ * Class from Vs30 alone (m/s in). Inclusive sides as printed (docs/methods.md section 4):
  * ASCE 7-16 (ft/s): A > 5000; B 2500 < v <= 5000; C 1200 < v <= 2500; D 600 <= v <= 1200; E < 600.
  * ASCE 7-22 (ft/s): A > 5000; B > 3000; BC > 2100; C > 1450; CD > 1000; D > 700; DE > 500; E <= 500
  *   (each class includes its upper bound).

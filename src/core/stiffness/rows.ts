@@ -4,7 +4,7 @@
  * defaults when the column is unusable).
  */
 import { toErrorInfo, type ErrorInfo } from '../errors';
-import type { Survey } from '../model';
+import type { SoilColumn, Survey } from '../model';
 import type { IntervalKey } from '../keys';
 import type { IntervalMethod } from '../catalogue/methods';
 import { DOUBTFUL_VP_FLAGS } from '../flags';
@@ -23,7 +23,7 @@ export function profileRows(
   survey: Survey,
   intervals: readonly IntervalValue[],
   issues: ErrorInfo[],
-): { rows: ProfileRow[]; velocity: VelocityInterval[] } {
+): { rows: ProfileRow[]; velocity: VelocityInterval[]; soil: SoilColumn } {
   const chosenS = intervals.filter((r) => r.wave === 'S' && r.chosen).sort((a, b) => a.topM - b.topM);
   const chosenP = intervals.filter((r) => r.wave === 'P' && r.chosen);
   const velocity: VelocityInterval[] = chosenS.map((s) => {
@@ -52,11 +52,13 @@ export function profileRows(
   // An unusable soil column must not stop the profile: moduli then use the stated defaults, flagged.
   const soil = survey.soil.layers.length && !soilProblems.length ? survey.soil : fallbackSoil;
   let stiff: StiffnessRow[];
+  let usedSoil = soil;
   try {
     stiff = stiffnessProfile(velocity, soil);
   } catch (e) {
     issues.push(toErrorInfo(e, 'soil column'));
     stiff = stiffnessProfile(velocity, fallbackSoil);
+    usedSoil = fallbackSoil;
   }
   if (soil === fallbackSoil) for (const r of stiff) r.flags.push('default soil column');
   const rows: ProfileRow[] = stiff.map((r, i) => {
@@ -71,5 +73,5 @@ export function profileRows(
       vpSdMps: velocity[i].vpSdMps,
     };
   });
-  return { rows, velocity };
+  return { rows, velocity, soil: usedSoil };
 }

@@ -11,7 +11,7 @@ import { solveHitsAndRotation, type ChannelEnergy, type DepthGroupInput, type Th
 import { toDegrees360 } from './rotation';
 import { distanceM } from './geometry';
 import { kindInfo, receiverDepthM } from '../catalogue/testKinds';
-import { receiverDepthKey, type ReceiverSlot } from '../keys';
+import { receiverDepthKey, type ReceiverDepthKey, type ReceiverSlot } from '../keys';
 import { stationPositions } from './stations';
 
 /** What the set-up checks and the views need from the orientation stage (plain, structured-clone friendly). */
@@ -49,7 +49,7 @@ export interface Orientation {
 }
 
 /** Key of a user-fixed azimuth in edits.azimuthDeg: `<slot>@<logged depth mm>` (keys.ts). */
-export function azimuthEditKey(receiver: ReceiverSlot, loggedDepthM: number): string {
+export function azimuthEditKey(receiver: ReceiverSlot, loggedDepthM: number): ReceiverDepthKey {
   return receiverDepthKey(receiver, loggedDepthM);
 }
 

@@ -5,7 +5,7 @@
  *   X(p) = sum h_j p V_j / sqrt(1 - p^2 V_j^2)        (horizontal distance travelled)
  *   T(p) = sum h_j / (V_j sqrt(1 - p^2 V_j^2))        (travel time)
  * X rises monotonically with p on [0, 1/max V_j), so X(p) = x is solved by safeguarded Newton steps.
- * (Any seismology text, e.g. Shearer, Introduction to Seismology, ch. 4; formulas in shared/domain.md.)
+ * (Any seismology text, e.g. Shearer, Introduction to Seismology, ch. 4; formulas in docs/methods.md.)
  */
 
 /** A layered velocity model: layer j spans [topM_j, topM_{j+1}); the last layer extends downwards without end. */

@@ -1,11 +1,11 @@
 /**
  * The demo scenario: an invented site, "Tillwater Bend", a river terrace with made ground over soft
  * clay, sands and gravels on weathered mudstone. Numbers are ours, chosen inside the typical ranges
- * of shared/domain.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
+ * of docs/methods.md section 5 (memory). Three surveys: downhole, two-receiver downhole, crosshole.
  */
 import { TEST_KINDS } from '../catalogue/testKinds';
 import { BorewaveError } from '../errors';
-import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/archive';
+import { newProjectDocument, type ProjectDocument, type ProjectFile } from '../io/project';
 import { writeSeg2 } from '../io/seg2';
 import { encodeUtf8 } from '../io/bytes';
 import type { Borehole, ByteOrder, DeviationStation, TestKind } from '../model';
@@ -39,6 +39,7 @@ export function demoEarthModel(): EarthModel {
         qS: 15,
         qP: 20,
         behaviour: 'sand-like',
+        soil: { soilType: 'gravel' },
       },
       {
         name: 'Soft grey silty clay',
@@ -50,6 +51,7 @@ export function demoEarthModel(): EarthModel {
         qS: 20,
         qP: 30,
         behaviour: 'clay-like',
+        soil: { soilType: 'clay', plasticityIndexPct: 28 },
       },
       {
         name: 'Medium dense fine sand',
@@ -61,6 +63,7 @@ export function demoEarthModel(): EarthModel {
         qS: 25,
         qP: 40,
         behaviour: 'sand-like',
+        soil: { soilType: 'sand', finesContentPct: 8 },
       },
       {
         name: 'Dense gravelly sand',
@@ -72,6 +75,7 @@ export function demoEarthModel(): EarthModel {
         qS: 30,
         qP: 50,
         behaviour: 'sand-like',
+        soil: { soilType: 'sand', finesContentPct: 4 },
       },
       {
         name: 'Very dense sandy gravel',
@@ -83,6 +87,7 @@ export function demoEarthModel(): EarthModel {
         qS: 35,
         qP: 60,
         behaviour: 'sand-like',
+        soil: { soilType: 'gravel' },
       },
       {
         name: 'Weathered mudstone',
@@ -94,6 +99,7 @@ export function demoEarthModel(): EarthModel {
         qS: 50,
         qP: 80,
         behaviour: 'sand-like',
+        soil: { soilType: 'rock' },
       },
     ],
   };

@@ -21,8 +21,10 @@ export interface EarthLayer {
   /** Quality factors for S and P (constant Q). */
   qS: number;
   qP: number;
-  /** Sets the Vs1 stress exponent of the survey's soil column: 0.25 sand-like, 0.5 clay-like (domain.md section 4). */
+  /** Sets the Vs1 stress exponent of the survey's soil column: 0.25 sand-like, 0.5 clay-like (docs/methods.md section 4). */
   behaviour: 'sand-like' | 'clay-like';
+  /** Soil fields copied to the survey's soil column (curves, liquefaction screen); absent = not given. */
+  soil?: Pick<SoilLayer, 'soilType' | 'plasticityIndexPct' | 'finesContentPct'>;
 }
 
 export interface EarthModel {
@@ -80,7 +82,7 @@ export function trueVsAt(model: EarthModel, depthM: number): number {
   return model.layers[layerIndexAt(model, depthM)].vsMps;
 }
 
-/** True P-wave velocity at a depth, m/s: below the water table at least the pore-water value (ASTM D7400 note, domain.md section 2). */
+/** True P-wave velocity at a depth, m/s: below the water table at least the pore-water value (ASTM D7400 note, docs/methods.md section 2). */
 export function trueVpAt(model: EarthModel, depthM: number): number {
   const vp = model.layers[layerIndexAt(model, depthM)].vpMps;
   const wt = model.waterTableM;
@@ -122,7 +124,7 @@ export function modelSegments(model: EarthModel, wave: 'S' | 'P', depthAM: numbe
 
 /**
  * The survey's soil column from the model: unit weights and water table as in the model; stress
- * exponent 0.25 for sand-like and 0.5 for clay-like layers (domain.md section 4); Poisson's ratio
+ * exponent 0.25 for sand-like and 0.5 for clay-like layers (docs/methods.md section 4); Poisson's ratio
  * 0.3 (common practice default). A half-space last layer ends at bottomM = deepestM.
  */
 export function soilColumnFromModel(model: EarthModel, deepestM: number): SoilColumn {
@@ -138,6 +140,7 @@ export function soilColumnFromModel(model: EarthModel, deepestM: number): SoilCo
       unitWeightKnM3: l.unitWeightKnM3,
       stressExponent: l.behaviour === 'sand-like' ? 0.25 : 0.5,
       poissonRatio: 0.3,
+      ...(l.soil ?? {}),
     }));
   return { layers, waterTableM: model.waterTableM, waterUnitWeightKnM3: 9.81 };
 }

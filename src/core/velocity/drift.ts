@@ -3,7 +3,7 @@ import { fitLine } from './formulas';
 
 /**
  * Onset-based and correlation-based interval times drift apart with depth when attenuation broadens
- * the pulse (rise time grows about as C t/Q, Gladwin & Stacey 1974 (from memory); shared/domain.md s.3).
+ * the pulse (rise time grows about as C t/Q, Gladwin & Stacey 1974 (from memory); docs/methods.md s.3).
  * We fit the cumulative difference (xcorr - onset) against depth: a slope that is positive and large
  * against its standard error, and a total above 1% of the travel time, is a real difference between
  * methods, reported once for the survey so the user chooses knowingly.

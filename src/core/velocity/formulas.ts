@@ -1,6 +1,6 @@
 /**
  * Travel-time geometry and interval velocity formulas of the downhole and crosshole standards
- * (ASTM D7400/D7400M-19 downhole; ASTM D4428/D4428M-14 crosshole), as summarised in shared/domain.md s.2.
+ * (ASTM D7400/D7400M-19 downhole; ASTM D4428/D4428M-14 crosshole), as summarised in docs/methods.md s.2.
  */
 
 /** Slant distance from a source at depth zs and horizontal offset x to a receiver at depth z: R = sqrt(x^2 + (z - zs)^2). */

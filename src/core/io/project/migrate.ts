@@ -4,7 +4,11 @@
  * value's source ('manual' -> 'user'); station and interval keys in the edits are rewritten to slots and
  * LOGGED depths in whole millimetres. A v1 file opens to the same profile.
  */
-import type { Component } from '../../model';
+import type { Component, Survey } from '../../model';
+import { BorewaveError } from '../../errors';
+import { emptyEdits, mergeSettings, type SettingsPatch, type UserEdits } from '../../settings';
+import { toProjectJson, type ProjectDocument } from './document';
+import type { ProjectJson } from './schema';
 import {
   intervalKey,
   pickEditKey,
@@ -166,4 +170,46 @@ export function groupV1Settings(flat: Record<string, unknown>): {
     settings[at[0]] = { ...settings[at[0]], [at[1]]: v };
   }
   return { settings, dropped };
+}
+
+/**
+ * A whole version-1 project.json as version 2 (checked by the caller against the schema). The shape
+ * checks of version 1 come first, so a broken v1 file names its first bad field as before.
+ */
+export function migrateV1Document(raw: Record<string, unknown>, sourceName: string): ProjectJson {
+  const fail = (field: string, problem: string): never => {
+    throw new BorewaveError('PROJECT_BAD_FIELD', `project.json: ${field} ${problem}.`, sourceName, field);
+  };
+  const s = raw.survey as Record<string, unknown> | undefined;
+  if (!s || typeof s !== 'object') fail('survey', 'is missing');
+  if (!['downhole', 'downhole-pair', 'crosshole'].includes(String(s!.kind)))
+    fail('survey.kind', `"${String(s!.kind)}" is not downhole, downhole-pair or crosshole`);
+  // No records at all: the files are placed on open (docs/project-format.md, placement inferred).
+  const placementInferred = s!.records === undefined;
+  if (!placementInferred && !Array.isArray(s!.records)) fail('survey.records', 'is not a list');
+  if (!Array.isArray(s!.boreholes)) fail('survey.boreholes', 'is not a list');
+  if (!Array.isArray(raw.files)) fail('files', 'is not a list');
+  const d = structuredClone(raw);
+  migrateV1SurveyAndEdits(d);
+  const grouped = groupV1Settings((d.settings ?? {}) as Record<string, unknown>);
+  const survey = d.survey as unknown as Survey;
+  const doc: ProjectDocument = {
+    format: 'borewave-project',
+    version: 2,
+    savedAt: typeof d.savedAt === 'string' ? d.savedAt : new Date(0).toISOString(),
+    survey: {
+      ...survey,
+      records: survey.records ?? [],
+      soil: survey.soil ?? { layers: [], waterTableM: null, waterUnitWeightKnM3: 9.81 },
+    },
+    settings: mergeSettings(grouped.settings as SettingsPatch),
+    edits: { ...emptyEdits(), ...(d.edits as object) } as UserEdits,
+    files: (d.files as unknown[]).map(String),
+    ...(d.deviationFiles ? { deviationFiles: d.deviationFiles as Record<string, string> } : {}),
+    ...(typeof d.notes === 'string' ? { notes: d.notes } : {}),
+    ...(d.comparison ? { comparison: d.comparison as ProjectDocument['comparison'] } : {}),
+  };
+  const json = toProjectJson(doc, 'unknown (saved as version 1)');
+  if (placementInferred) delete json.survey.records;
+  return json;
 }

@@ -1,0 +1,123 @@
+/**
+ * project.json version 2 (docs/project-format.md): version-1 archives open to the same numbers, the
+ * schema names the path of a bad value, and archives are byte-reproducible for a given savedAt.
+ * Reference numbers: test/fixtures/v1/<kind>.profile.csv and .site.json, written by the command line
+ * from the version-1 demo archives before the format changed (same code path, SI units).
+ */
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { strToU8, zipSync } from 'fflate';
+import Papa from 'papaparse';
+import { describe, expect, it } from 'vitest';
+import type { BorewaveError } from '../../src/core/errors';
+import {
+  newProjectDocument,
+  readProjectArchive,
+  toProjectJson,
+  writeProjectArchive,
+  type OpenedProject,
+} from '../../src/core/io/project';
+import { runPipeline } from '../../src/core/pipeline';
+import { profileTable, siteJson, toCsv } from '../../src/core/report/tables';
+import { blankSurvey } from '../../src/core/catalogue/testKinds';
+
+const KINDS = ['downhole', 'downhole-pair', 'crosshole'] as const;
+
+function v1Archive(kind: string): Uint8Array {
+  const folder = join('sample-data', kind);
+  const entries: Record<string, Uint8Array> = {
+    'project.json': readFileSync(join('test/fixtures/v1', `${kind}.project.json`)),
+  };
+  for (const f of readdirSync(folder))
+    if (/\.(sg2|csv)$/.test(f) && f !== 'truth.csv') entries[f] = readFileSync(join(folder, f));
+  return zipSync(entries);
+}
+
+function numbers(o: OpenedProject): { profile: string; site: unknown } {
+  const r = runPipeline({
+    survey: o.doc.survey,
+    records: o.records,
+    settings: o.doc.settings,
+    edits: o.doc.edits,
+    comparison: o.doc.comparison ?? null,
+  });
+  return {
+    profile: toCsv(profileTable(r.derived)),
+    site: JSON.parse(JSON.stringify(siteJson(r.derived, o.doc.settings))),
+  };
+}
+
+describe('version-1 archives open to the same numbers', () => {
+  for (const kind of KINDS) {
+    it(`${kind}: profile.csv and site.json equal the version-1 reference`, () => {
+      const opened = readProjectArchive(v1Archive(kind), `${kind}.zip`);
+      expect(opened.issues.filter((i) => i.code !== 'ARCHIVE_FILE_UNLISTED')).toEqual([]);
+      const got = numbers(opened);
+      // Cells compared after CSV parsing: the numbers and flags, whatever the quoting rule of the day.
+      const cells = (csv: string) => Papa.parse<string[]>(csv.trim(), { skipEmptyLines: true }).data;
+      expect(cells(got.profile)).toEqual(cells(readFileSync(join('test/fixtures/v1', `${kind}.profile.csv`), 'utf8')));
+      expect(got.site).toEqual(JSON.parse(readFileSync(join('test/fixtures/v1', `${kind}.site.json`), 'utf8')));
+    });
+  }
+  it('saved again as version 2 and reopened, the two-receiver survey gives the same numbers', () => {
+    const first = readProjectArchive(v1Archive('downhole-pair'), 'p.zip');
+    const again = readProjectArchive(writeProjectArchive(first.doc, first.files), 'p2.zip');
+    expect(again.doc.version).toBe(2);
+    expect(numbers(again)).toEqual(numbers(first));
+  });
+});
+
+describe('the schema names the path of a bad value', () => {
+  const base = () => toProjectJson(newProjectDocument(blankSurvey('crosshole')));
+  const fieldOf = (doc: unknown): string => {
+    try {
+      readProjectArchive(zipSync({ 'project.json': strToU8(JSON.stringify(doc)) }), 'x.zip');
+      return 'none';
+    } catch (e) {
+      expect((e as BorewaveError).code).toBe('PROJECT_BAD_FIELD');
+      return (e as BorewaveError).field ?? '';
+    }
+  };
+  it('a collar that is not a number', () => {
+    const d = base() as unknown as { survey: { boreholes: { collarEastM: unknown }[] } };
+    d.survey.boreholes[0].collarEastM = 'x';
+    expect(fieldOf(d)).toBe('survey.boreholes[0].collarEastM');
+  });
+  it('more Monte Carlo draws than 100 000', () => {
+    const d = base();
+    d.settings.site.monteCarloDraws = 200000;
+    expect(fieldOf(d)).toBe('settings.site.monteCarloDraws');
+  });
+  it('an STA window not shorter than the LTA window', () => {
+    const d = base();
+    d.settings.picking.staS = 0.02;
+    expect(fieldOf(d)).toBe('settings.picking.staS');
+  });
+  it('a negative source offset and an unknown key', () => {
+    const d = base();
+    d.survey.sourceOffsetM = -1;
+    expect(fieldOf(d)).toBe('survey.sourceOffsetM');
+    expect(fieldOf({ ...base(), extra: 1 })).toBe('extra');
+  });
+  it('more than 500 layer boundaries', () => {
+    const d = base();
+    d.settings.layering.boundariesM = Array.from({ length: 501 }, (_, i) => i);
+    expect(fieldOf(d)).toBe('settings.layering.boundariesM');
+  });
+  it('an edit key that is not a station key', () => {
+    const d = base() as unknown as { edits: { picks: Record<string, number> } };
+    d.edits.picks['B2@1.000:H1|S|onset'] = 0.01;
+    expect(fieldOf(d)).toBe('edits.picks.B2@1.000:H1|S|onset');
+  });
+});
+
+describe('archive bytes', () => {
+  it('are the same for the same content and savedAt, and differ when savedAt differs', () => {
+    const doc = { ...newProjectDocument(blankSurvey('downhole')), savedAt: '2026-12-02T10:00:00.000Z' };
+    const files = [{ name: 'day1/a.sg2', bytes: new Uint8Array([1, 2, 3]) }];
+    const a = writeProjectArchive(doc, files);
+    expect(writeProjectArchive(doc, files)).toEqual(a);
+    expect(writeProjectArchive({ ...doc, savedAt: '2026-12-03T10:00:00.000Z' }, files)).not.toEqual(a);
+    expect(readProjectArchive(a, 'a.zip').files[0].name).toBe('day1/a.sg2');
+  });
+});

@@ -1,0 +1,100 @@
+/**
+ * Interval values (velocity/intervals.ts): V = (L_b - L_a) / (t_b - t_a) (ASTM D7400 pseudo interval),
+ * the fallback order when the chosen method has no value (common practice: whole-pulse measures
+ * first, onset last), the "methods differ" flag against the median of the other waveform methods, and
+ * excluded intervals. Paths 10 m and 20 m; dt 50 ms gives 200 m/s exactly.
+ */
+import { describe, expect, it } from 'vitest';
+import { intervalValues, type StationPair } from '../../src/core/velocity/intervals';
+import { defaultSettings, emptyEdits, patchSettings } from '../../src/core/settings';
+import { intervalKey, stationKey, type IntervalKey, type StationKey } from '../../src/core/keys';
+import type { PairDelay, Pick, PickMethod } from '../../src/core/model';
+import type { Station } from '../../src/core/survey/stations';
+
+const A = stationKey('r0', 5, 'H1');
+const B = stationKey('r0', 6, 'H1');
+const K = intervalKey('S', A, B);
+const st = (key: StationKey, pathM: number) => ({ key, straightPathM: pathM, flags: [] }) as unknown as Station;
+const pair: StationPair = { key: K, wave: 'S', kind: 'pseudo', a: st(A, 10), b: st(B, 20), topM: 5, bottomM: 6 };
+const pick = (k: StationKey, method: PickMethod, timeS: number): Pick => ({
+  stationKey: k,
+  wave: 'S',
+  method,
+  timeS,
+  origin: 'auto',
+  snr: 20,
+  uncertaintyS: 1e-4,
+  flags: [],
+});
+const delay = (key: IntervalKey, method: 'xcorr' | 'phase', delayS: number): PairDelay => ({
+  pairKey: key,
+  wave: 'S',
+  method,
+  delayS,
+  coefficient: 0.95,
+  uncertaintyS: 1e-4,
+  flags: [],
+});
+
+function run(picks: Pick[], delays: PairDelay[], edits = emptyEdits()) {
+  const byStation = new Map<StationKey, Pick[]>();
+  for (const p of picks) byStation.set(p.stationKey, [...(byStation.get(p.stationKey) ?? []), p]);
+  return intervalValues({
+    pairs: [pair],
+    picksByStation: byStation,
+    delaysByPair: new Map([[K, delays]]),
+    rayFit: new Map(),
+    // The cross-correlation delay as the profile method (the catalogue's fallback order starts there;
+    // the downhole default became the layer model, which a lone pair never has).
+    settings: patchSettings(defaultSettings(), { intervals: { profileMethod: 'xcorr' } }),
+    edits,
+  });
+}
+
+describe('interval values', () => {
+  it('xcorr chosen when it is the profile method: 10 m more path in 50 ms is 200 m/s', () => {
+    const rows = run([pick(A, 'aic', 0.1), pick(B, 'aic', 0.15)], [delay(K, 'xcorr', 0.05)]);
+    const chosen = rows.find((r) => r.chosen)!;
+    expect(chosen.method).toBe('xcorr');
+    expect(chosen.velocityMps).toBeCloseTo(200, 9);
+    expect(chosen.flags).not.toContain('methods differ');
+  });
+  it('falls back in catalogue order: no xcorr -> zero crossing before peak, trough and onset', () => {
+    const picks = [
+      pick(A, 'aic', 0.1),
+      pick(B, 'aic', 0.15),
+      pick(A, 'peak', 0.11),
+      pick(B, 'peak', 0.16),
+      pick(A, 'zero-crossing', 0.12),
+      pick(B, 'zero-crossing', 0.17),
+    ];
+    const chosen = run(picks, []).find((r) => r.chosen)!;
+    expect(chosen.method).toBe('zero-crossing');
+    expect(chosen.flags).toContain('fallback from xcorr');
+    const onlyOnset = run([pick(A, 'stalta', 0.1), pick(B, 'manual', 0.15)], []).find((r) => r.chosen)!;
+    expect(onlyOnset.method).toBe('onset');
+  });
+  it('flags "methods differ" when the chosen value is more than 10% from the median of the others', () => {
+    // Onset and peak say 200 m/s (50 ms); xcorr says 40 ms -> 250 m/s, 25% off.
+    const picks = [pick(A, 'aic', 0.1), pick(B, 'aic', 0.15), pick(A, 'peak', 0.11), pick(B, 'peak', 0.16)];
+    const chosen = run(picks, [delay(K, 'xcorr', 0.04)]).find((r) => r.chosen)!;
+    expect(chosen.velocityMps).toBeCloseTo(250, 9);
+    expect(chosen.flags).toContain('methods differ');
+    // The phase delay is not in the median: a wild phase value alone raises nothing.
+    const quiet = run([], [delay(K, 'xcorr', 0.05), delay(K, 'phase', 0.02)]).find((r) => r.chosen)!;
+    expect(quiet.flags).not.toContain('methods differ');
+  });
+  it("an excluded interval keeps its values but none is chosen; the user's method wins over the default", () => {
+    const picks = [pick(A, 'aic', 0.1), pick(B, 'aic', 0.15)];
+    const excluded = run(picks, [delay(K, 'xcorr', 0.05)], { ...emptyEdits(), excludedIntervals: [K] });
+    expect(excluded.some((r) => r.chosen)).toBe(false);
+    expect(excluded.find((r) => r.method === 'xcorr')!.velocityMps).toBeCloseTo(200, 9);
+    const own = run(picks, [delay(K, 'xcorr', 0.04)], { ...emptyEdits(), chosenMethod: { [K]: 'onset' } });
+    expect(own.find((r) => r.chosen)!.method).toBe('onset');
+  });
+  it('a non-positive delay gives no velocity and says why', () => {
+    const row = run([], [delay(K, 'xcorr', -0.001)]).find((r) => r.method === 'xcorr')!;
+    expect(row.velocityMps).toBeNull();
+    expect(row.flags).toContain('non-positive delay');
+  });
+});
