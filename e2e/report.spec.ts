@@ -7,6 +7,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { makeReport } from '../src/cli/report';
+import { cliSoftwareVersion } from '../src/cli/version';
 import type { WaveRecord } from '../src/core/model';
 import { readWaveFile } from '../src/core/io/readers';
 import { runPipeline } from '../src/core/pipeline';
@@ -16,7 +17,8 @@ import { makeDemoProject } from '../src/core/synth/demo';
 import { externalReferences } from '../test/helpers/external';
 import { appState, SCREENS, waitProcessed } from './helpers';
 
-const version = String(JSON.parse(readFileSync('package.json', 'utf8')).version);
+// The app's build and the command line read one version source: package.json's version and the commit.
+const version = cliSoftwareVersion();
 
 /** Every demo survey in sample-data (one folder per test kind, each with its project.zip). */
 const DEMO_SURVEYS = readdirSync('sample-data').filter((d) => existsSync(`sample-data/${d}/project.zip`));
