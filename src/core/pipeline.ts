@@ -33,6 +33,7 @@ import { layerMethod } from './velocity/layerMethod';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
+import { fieldDamping, type FieldDamping } from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
 import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/summary';
 import type { SiteUncertainty } from './site/montecarlo';
@@ -44,6 +45,7 @@ import { designResults, type DesignResults } from './stiffness/design';
 export type { DirectVelocity, TravelTimeRow } from './velocity/direct';
 export type { LayerFit } from './velocity/layers';
 export type { MethodDrift } from './velocity/drift';
+export type { FieldDamping, IntervalDamping, LayerDamping } from './velocity/damping';
 export type { ProfileRow } from './stiffness/rows';
 export type { SiteSummary } from './site/summary';
 export type { ComparisonResult } from './site/compare';
@@ -102,6 +104,8 @@ export interface Derived {
   /** Downhole kinds: the layered model behind the 'layer-model' method (automatic or user boundaries), or why there is none. */
   layering: { fit: LayeredFit | null; reason: string | null };
   drift: MethodDrift | null;
+  /** Field Qs and damping D = 1/(2Q) per same-hit interval and per layer (spectral ratio), or why there is none. */
+  damping: FieldDamping;
   site: SiteSummary;
   /** Set-up checks (survey/setup-checks.ts): blocking ones withhold Vs30 and the site classes. */
   setupProblems: SetupProblem[];
@@ -238,6 +242,7 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     drift,
+    damping: fieldDamping(pairs, picks, allDelays, layering.fit?.layers ?? null, isOnsetPick),
     site,
     setupProblems,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,
