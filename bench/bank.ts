@@ -187,7 +187,13 @@ export function prepareCase(c: Case): PreparedCase {
   const onsetTruth = (top: number, bottom: number) =>
     c.kind === 'crosshole' ? null : (bottom - top) / (onsetAt(bottom) - onsetAt(top));
   const perMethod: IntervalResult[] = [];
-  for (const r of d.intervals) {
+  // Same-hit kinds: the xcorr delays corrected for pulse broadening with the field Q, as method 'xcorr-bc'
+  const bc =
+    c.kind === 'two-receiver' || c.kind === 'crosshole'
+      ? derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false, broadeningCorrection: true })
+      : null;
+  const bcRows = (bc?.intervals ?? []).filter((r) => r.method === 'xcorr').map((r) => ({ ...r, method: 'xcorr-bc' }));
+  for (const r of [...d.intervals, ...bcRows]) {
     if (r.wave !== 'S' || r.velocityMps === null) continue;
     perMethod.push({
       method: r.method,

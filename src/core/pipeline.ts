@@ -33,7 +33,7 @@ import { layerMethod } from './velocity/layerMethod';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
-import { fieldDamping, type FieldDamping } from './velocity/damping';
+import { broadeningCorrected, fieldDamping, layerDamping, type FieldDamping } from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
 import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/summary';
 import type { SiteUncertainty } from './site/montecarlo';
@@ -122,6 +122,8 @@ export interface DeriveOptions {
   comparison?: ComparisonProfile | null;
   /** Field attenuation (Q) per depth range, when estimated from the waveforms; else the field damping is empty. */
   fieldQ?: readonly FieldQ[];
+  /** Correct same-hit xcorr delays for pulse broadening with the field Q (default BROADENING_CORRECTION.defaultOn). */
+  broadeningCorrection?: boolean;
 }
 
 /**
@@ -133,6 +135,13 @@ export function siteSpread(derived: Derived, settings: Settings): SiteUncertaint
   const ivs = [...siteIntervals(derived.profile), ...derived.site.bridged].sort((a, b) => a.topM - b.topM);
   return spreadOf(ivs, settings);
 }
+
+/**
+ * Broadening correction of same-hit xcorr delays with the local Q (inverse-variance 1/Q of the intervals
+ * within halfWidthM). Off by default: on the bank's training seeds (bench/bank.ts, method 'xcorr-bc') it
+ * made the two-receiver default (layer-model) worse and the crosshole xcorr no better in median.
+ */
+export const BROADENING_CORRECTION = { defaultOn: false, halfWidthM: 2 };
 
 /** Light stage: everything that follows from the auto picks and the user's edits. */
 export function derive(
@@ -151,7 +160,13 @@ export function derive(
     .filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)))
     .concat(bridges.pairs)
     .sort((a, b) => (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.topM - b.topM || a.bottomM - b.bottomM);
-  const allDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
+  const measuredDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
+  // Field Q of same-hit pairs from the measured delays; then their xcorr delays freed of pulse broadening.
+  const damping = fieldDamping(pairs, picks, measuredDelays, null, isOnsetPick);
+  const allDelays =
+    (options.broadeningCorrection ?? BROADENING_CORRECTION.defaultOn)
+      ? broadeningCorrected(measuredDelays, damping, BROADENING_CORRECTION.halfWidthM)
+      : measuredDelays;
   // Say what an exclusion costs: the intervals that touched the station leave the profile (or are bridged).
   for (const key of edits.excludedStations) {
     const lost = prepared.pairs.filter(
@@ -242,7 +257,11 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     drift,
-    damping: fieldDamping(pairs, picks, allDelays, layering.fit?.layers ?? null, isOnsetPick),
+    damping: {
+      ...damping,
+      intervals: damping.intervals.map(({ pulse: _pulse, ...rest }) => rest),
+      layers: layering.fit ? layerDamping(damping.intervals, layering.fit.layers) : [],
+    },
     site,
     setupProblems,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,

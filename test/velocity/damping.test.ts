@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { autoPick, derive, prepare } from '../../src/core/pipeline';
 import { defaultSettings, emptyEdits } from '../../src/core/settings';
 import { demoCrossholeHoles, synthesizeSurvey, type EarthModel, type SynthGeometry } from '../../src/core/synth';
-import { layerDamping, type IntervalDamping } from '../../src/core/velocity/damping';
+import { layerDamping, localInvQ, type IntervalDamping } from '../../src/core/velocity/damping';
 
 // One soil with constant Q (Kjartansson 1979 constant-Q model in the forward model): the spectral ratio
 // between two receivers of one hit gives t* = dt / Q (Bath 1974), so every interval should give Q back.
@@ -93,5 +93,29 @@ describe('per-layer damping: inverse-variance weighted 1/Q (common practice)', (
     // mean 1/Q = 0.02 -> D = 1%; chi2 = 32 on 1 dof inflates the sd 0.00707 by sqrt(32) to 0.04
     expect(m.damping).toBeCloseTo(0.01, 10);
     expect(m.dampingSd).toBeCloseTo(0.04 / 2, 8);
+  });
+});
+
+describe('local 1/Q for the broadening correction (inverse-variance weighted, common practice)', () => {
+  const iv = (topM: number, tStarS: number): IntervalDamping => ({
+    intervalKey: `S|${topM}` as IntervalDamping['intervalKey'],
+    topM,
+    bottomM: topM + 1,
+    qS: null,
+    qSdS: null,
+    damping: null,
+    dampingSd: null,
+    bandHz: null,
+    tStarS,
+    tStarSdS: 0.05e-3,
+    delayS: 5e-3,
+    reason: null,
+  });
+  const ivs = [iv(0, 0.1e-3), iv(1, 0.2e-3), iv(2, 0.3e-3), iv(3, 1e-3)];
+  it('averages the neighbours within the half-width: 1/Q = (0.02 + 0.04 + 0.06) / 3 = 0.04 around 1.5 m', () => {
+    expect(localInvQ(ivs, 1, 1)).toBeCloseTo(0.04, 10);
+  });
+  it('gives none where the local mean is not positive', () => {
+    expect(localInvQ([iv(0, -0.1e-3), iv(1, 0.05e-3)], 0, 2)).toBeNull();
   });
 });

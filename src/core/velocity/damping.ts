@@ -15,7 +15,7 @@ import type { IntervalKey } from '../keys';
 import type { StationPair } from './intervals';
 import type { FittedLayer } from './layering';
 import { realSpectrum, nextPow2 } from '../signal/fft';
-import { dampingFromQ, spectralRatioQ } from '../signal/attenuation';
+import { broadeningCorrectedDelay, dampingFromQ, spectralRatioQ } from '../signal/attenuation';
 
 export const FIELD_DAMPING_CAUTION =
   'Field damping from the spectral ratio includes scattering and geometric effects that are not removed: it is an upper bound on material damping.';
@@ -36,6 +36,10 @@ export interface IntervalDamping {
   tStarSdS: number | null;
   delayS: number | null;
   reason: string | null;
+  /** Correlation-delay bias from pulse broadening removed from this interval's xcorr delay, s (null: none applied). */
+  biasS?: number | null;
+  /** Nearer pulse window and reference (dominant) frequency, kept for the broadening correction. */
+  pulse?: { a: Float64Array; dtS: number; fRefHz: number };
 }
 
 export interface LayerDamping {
@@ -123,6 +127,7 @@ export function pairDamping(
   const wa = slice(ta.samples, startA, len);
   const wb = slice(tb.samples, startB, len);
   if (!wa || !wb) return { ...base, reason: 'the pulse window runs off the trace' };
+  const pulse = { a: wa, dtS: dt, fRefHz: f };
   // The whole common band: limiting it to 0.3-3 times the dominant frequency was worse on the bank's training seeds.
   const r = spectralRatioQ(wa, wb, dt, { delayS: delay.delayS });
   if (!r.ok)
@@ -132,6 +137,7 @@ export function pairDamping(
       tStarSdS: r.tStarSdS ?? null,
       delayS: r.tStarS === undefined ? null : delay.delayS,
       reason: r.reason,
+      pulse,
     };
   const d = dampingFromQ(r.q, r.qSd);
   return {
@@ -145,6 +151,7 @@ export function pairDamping(
     tStarSdS: r.tStarSdS,
     delayS: delay.delayS,
     reason: null,
+    pulse,
   };
 }
 
@@ -184,6 +191,49 @@ export function layerDamping(intervals: readonly IntervalDamping[], layers: read
       dampingSd: (inflate * Math.sqrt(1 / sw)) / 2,
       intervals: n,
     };
+  });
+}
+
+/**
+ * Local 1/Q for the broadening correction: inverse-variance weighted t-star / dt of the intervals whose
+ * mid-depth lies within halfWidthM of this one's (signed values kept; null when the mean is not positive).
+ */
+export function localInvQ(intervals: readonly IntervalDamping[], i: number, halfWidthM: number): number | null {
+  const mid = (intervals[i].topM + intervals[i].bottomM) / 2;
+  let sw = 0;
+  let s = 0;
+  for (const iv of intervals) {
+    if (Math.abs((iv.topM + iv.bottomM) / 2 - mid) > halfWidthM + 1e-9) continue;
+    if (iv.tStarS === null || iv.delayS === null || !(iv.tStarSdS! > 0)) continue;
+    const w = (iv.delayS / iv.tStarSdS!) ** 2;
+    sw += w;
+    s += (w * iv.tStarS) / iv.delayS;
+  }
+  return sw > 0 && s / sw > 0 ? s / sw : null;
+}
+
+/**
+ * Cross-correlation delays of same-hit S pairs freed of pulse broadening (attenuation.ts,
+ * broadeningCorrectedDelay) with the local Q; the intervals get the bias applied. Other delays pass.
+ */
+export function broadeningCorrected(
+  delays: readonly PairDelay[],
+  damping: FieldDamping,
+  halfWidthM: number,
+): PairDelay[] {
+  const byKey = new Map(damping.intervals.map((x, i) => [x.intervalKey as string, i]));
+  return delays.map((d) => {
+    if (d.method !== 'xcorr' || d.wave !== 'S') return d;
+    const i = byKey.get(d.pairKey);
+    if (i === undefined) return d;
+    const iv = damping.intervals[i];
+    const invQ = localInvQ(damping.intervals, i, halfWidthM);
+    if (invQ === null || !iv.pulse || !(d.delayS > 0)) return d;
+    const c = broadeningCorrectedDelay(iv.pulse.a, iv.pulse.dtS, d.delayS, 1 / invQ, iv.pulse.fRefHz);
+    // a correction larger than a fifth of the delay is not broadening: leave the delay as measured
+    if (!(Math.abs(c.biasS) < 0.2 * d.delayS)) return d;
+    iv.biasS = c.biasS;
+    return { ...d, delayS: c.delayS };
   });
 }
 
