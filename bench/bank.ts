@@ -10,7 +10,7 @@
  */
 import type { StationKey } from '../src/core/keys';
 import type { WaveRecord } from '../src/core/model';
-import { autoPick, derive, prepare } from '../src/core/pipeline';
+import { autoPick, broadeningCorrectionDefault, derive, prepare } from '../src/core/pipeline';
 import { defaultSettings, emptyEdits } from '../src/core/settings';
 import { demoCrossholeHoles, synthesizeSurvey, type SynthGeometry, type SynthOptions } from '../src/core/synth';
 import { layerIndexAt, trueVsAt } from '../src/core/synth/earth';
@@ -187,12 +187,16 @@ export function prepareCase(c: Case): PreparedCase {
   const onsetTruth = (top: number, bottom: number) =>
     c.kind === 'crosshole' ? null : (bottom - top) / (onsetAt(bottom) - onsetAt(top));
   const perMethod: IntervalResult[] = [];
-  // Same-hit kinds: the xcorr delays corrected for pulse broadening with the field Q, as method 'xcorr-bc'
+  // Same-hit kinds: xcorr delays the other way round from the default (corrected for pulse broadening
+  // with the field Q, 'xcorr-bc', or as measured, 'xcorr-raw'), to compare the two
+  const bcDefault = broadeningCorrectionDefault(res.survey.kind);
   const bc =
     c.kind === 'two-receiver' || c.kind === 'crosshole'
-      ? derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false, broadeningCorrection: true })
+      ? derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false, broadeningCorrection: !bcDefault })
       : null;
-  const bcRows = (bc?.intervals ?? []).filter((r) => r.method === 'xcorr').map((r) => ({ ...r, method: 'xcorr-bc' }));
+  const bcRows = (bc?.intervals ?? [])
+    .filter((r) => r.method === 'xcorr')
+    .map((r) => ({ ...r, method: bcDefault ? 'xcorr-raw' : 'xcorr-bc' }));
   for (const r of [...d.intervals, ...bcRows]) {
     if (r.wave !== 'S' || r.velocityMps === null) continue;
     perMethod.push({
