@@ -183,7 +183,8 @@ export function prepareCase(c: Case): PreparedCase {
     return t;
   };
   const truthOf = (top: number, bottom: number) =>
-    c.kind === 'crosshole' ? trueVsAt(c.model, top) : trueIntervalVsMps(c.model, top, bottom);
+    // crosshole: the layer at the test depth (the middle of the span the depth stands for), not at the span's top
+    c.kind === 'crosshole' ? trueVsAt(c.model, (top + bottom) / 2) : trueIntervalVsMps(c.model, top, bottom);
   const onsetTruth = (top: number, bottom: number) =>
     c.kind === 'crosshole' ? null : (bottom - top) / (onsetAt(bottom) - onsetAt(top));
   const perMethod: IntervalResult[] = [];
@@ -273,7 +274,7 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
  * vertical travel time over t* (the path-averaged Q, 1/Q_eff = sum(h/(V Q)) / sum(h/V)).
  */
 function trueQ(c: Case, topM: number, bottomM: number): number {
-  if (c.kind === 'crosshole') return c.model.layers[layerIndexAt(c.model, topM)].qS;
+  if (c.kind === 'crosshole') return c.model.layers[layerIndexAt(c.model, (topM + bottomM) / 2)].qS;
   return verticalTimeS(c.model, topM, bottomM) / verticalTStarS(c.model, topM, bottomM);
 }
 
