@@ -33,7 +33,13 @@ import { layerMethod } from './velocity/layerMethod';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
-import { broadeningCorrected, fieldDamping, layerDamping, type FieldDamping } from './velocity/damping';
+import {
+  broadeningCorrected,
+  fieldDamping,
+  fieldQForDesign,
+  layerDamping,
+  type SurveyDamping,
+} from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
 import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/summary';
 import type { SiteUncertainty } from './site/montecarlo';
@@ -45,7 +51,7 @@ import { designResults, type DesignResults } from './stiffness/design';
 export type { DirectVelocity, TravelTimeRow } from './velocity/direct';
 export type { LayerFit } from './velocity/layers';
 export type { MethodDrift } from './velocity/drift';
-export type { FieldDamping, IntervalDamping, LayerDamping } from './velocity/damping';
+export type { SurveyDamping, IntervalDamping, LayerDamping } from './velocity/damping';
 export type { ProfileRow } from './stiffness/rows';
 export type { SiteSummary } from './site/summary';
 export type { ComparisonResult } from './site/compare';
@@ -105,7 +111,7 @@ export interface Derived {
   layering: { fit: LayeredFit | null; reason: string | null };
   drift: MethodDrift | null;
   /** Field Qs and damping D = 1/(2Q) per same-hit interval and per layer (spectral ratio), or why there is none. */
-  damping: FieldDamping;
+  damping: SurveyDamping;
   site: SiteSummary;
   /** Set-up checks (survey/setup-checks.ts): blocking ones withhold Vs30 and the site classes. */
   setupProblems: SetupProblem[];
@@ -237,7 +243,13 @@ export function derive(
   });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
-  const design = designResults(profile, soil, settings.design, options.fieldQ ?? []);
+  const surveyDamping: SurveyDamping = {
+    ...damping,
+    intervals: damping.intervals.map(({ pulse: _pulse, ...rest }) => rest),
+    layers: layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [],
+  };
+  // Field D beside the laboratory-model Dmin: the Q given by the caller, else the one measured here.
+  const design = designResults(profile, soil, settings.design, options.fieldQ ?? fieldQForDesign(surveyDamping));
   issues.push(...design.issues);
   const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
   const site = siteSummary(
@@ -267,11 +279,7 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     drift,
-    damping: {
-      ...damping,
-      intervals: damping.intervals.map(({ pulse: _pulse, ...rest }) => rest),
-      layers: layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [],
-    },
+    damping: surveyDamping,
     site,
     setupProblems,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,

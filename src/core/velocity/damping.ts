@@ -31,6 +31,8 @@ export interface IntervalDamping {
   dampingSd: number | null;
   /** Common band of the spectral ratio, Hz. */
   bandHz: [number, number] | null;
+  /** Dominant frequency of the nearer pulse (the frequency the Q stands for), Hz. */
+  frequencyHz?: number | null;
   /** The fitted t* (may be <= 0 where noise dominates) and its sd, and the delay it is set against, s. */
   tStarS: number | null;
   tStarSdS: number | null;
@@ -51,7 +53,7 @@ export interface LayerDamping {
   intervals: number;
 }
 
-export interface FieldDamping {
+export interface SurveyDamping {
   intervals: IntervalDamping[];
   layers: LayerDamping[];
   /** Why there is no estimate for the survey (one-receiver surveys), or null. */
@@ -147,6 +149,7 @@ export function pairDamping(
     damping: d.damping,
     dampingSd: d.dampingSd,
     bandHz: r.bandHz,
+    frequencyHz: f,
     tStarS: r.tStarS,
     tStarSdS: r.tStarSdS,
     delayS: delay.delayS,
@@ -218,7 +221,7 @@ export function localInvQ(intervals: readonly IntervalDamping[], i: number, half
  */
 export function broadeningCorrected(
   delays: readonly PairDelay[],
-  damping: FieldDamping,
+  damping: SurveyDamping,
   halfWidthM: number,
 ): PairDelay[] {
   const byKey = new Map(damping.intervals.map((x, i) => [x.intervalKey as string, i]));
@@ -244,7 +247,7 @@ export function fieldDamping(
   delays: readonly PairDelay[],
   layers: readonly FittedLayer[] | null,
   isOnset: (p: Pick) => boolean,
-): FieldDamping {
+): SurveyDamping {
   const sPairs = pairs.filter((p) => p.wave === 'S');
   const sameHit = sPairs.filter((p) => p.kind === 'true' || p.kind === 'crosshole');
   if (!sameHit.length)
@@ -267,4 +270,33 @@ export function fieldDamping(
     reason: null,
     caution: FIELD_DAMPING_CAUTION,
   };
+}
+
+/**
+ * The field Q for the design outputs (stiffness/curves.ts: field D beside the laboratory-model Dmin):
+ * per layer of the layered model where there is one, else per interval; with the mean dominant frequency.
+ */
+export function fieldQForDesign(
+  d: SurveyDamping,
+): { topM: number; bottomM: number; q: number; qSd: number | null; frequencyHz: number }[] {
+  const fs = d.intervals.flatMap((x) => (x.frequencyHz ? [x.frequencyHz] : []));
+  if (!fs.length) return [];
+  const fHz = fs.reduce((a, b) => a + b, 0) / fs.length;
+  const rows = d.layers.length
+    ? d.layers.map((l) => ({ topM: l.topM, bottomM: l.bottomM, damping: l.damping, dampingSd: l.dampingSd }))
+    : d.intervals.map((x) => ({ topM: x.topM, bottomM: x.bottomM, damping: x.damping, dampingSd: x.dampingSd }));
+  return rows.flatMap((r) =>
+    r.damping !== null && r.damping > 0
+      ? [
+          {
+            topM: r.topM,
+            bottomM: r.bottomM,
+            q: 1 / (2 * r.damping),
+            // first order: sd(Q) = sd(D) / (2 D^2)
+            qSd: r.dampingSd === null ? null : r.dampingSd / (2 * r.damping * r.damping),
+            frequencyHz: fHz,
+          },
+        ]
+      : [],
+  );
 }
