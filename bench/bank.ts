@@ -10,10 +10,10 @@
  */
 import type { StationKey } from '../src/core/keys';
 import type { WaveRecord } from '../src/core/model';
-import { autoPick, derive, prepare } from '../src/core/pipeline';
+import { autoPick, broadeningCorrectionDefault, derive, prepare } from '../src/core/pipeline';
 import { defaultSettings, emptyEdits } from '../src/core/settings';
 import { demoCrossholeHoles, synthesizeSurvey, type SynthGeometry, type SynthOptions } from '../src/core/synth';
-import { trueVsAt } from '../src/core/synth/earth';
+import { layerIndexAt, trueVsAt } from '../src/core/synth/earth';
 import { renderArrival } from '../src/core/synth/pulse';
 import { randomEarth, trueIntervalVsMps, verticalTimeS, verticalTStarS } from '../src/core/synth/randomEarth';
 import type { EarthModel } from '../src/core/synth/earth';
@@ -137,10 +137,22 @@ function recordsMap(rs: WaveRecord[]): Map<string, WaveRecord> {
   return new Map(rs.map((r) => [r.id, r]));
 }
 
+/** A field Q (interval or layer of the layered model) against the forward model's Q over the same span. */
+export interface QResult {
+  scope: 'interval' | 'layer';
+  topM: number;
+  bottomM: number;
+  /** null where the spectral ratio gave none (reason in the pipeline's result). */
+  qS: number | null;
+  trueQS: number;
+}
+
 export interface SurveyRun {
   kind: BankKind;
   seed: number;
   intervals: IntervalResult[];
+  /** Field damping of same-hit surveys (two-receiver, crosshole); empty for one-receiver ones. */
+  q: QResult[];
   layerModelNote: string | null;
   layers: number | null;
 }
@@ -171,11 +183,22 @@ export function prepareCase(c: Case): PreparedCase {
     return t;
   };
   const truthOf = (top: number, bottom: number) =>
-    c.kind === 'crosshole' ? trueVsAt(c.model, top) : trueIntervalVsMps(c.model, top, bottom);
+    // crosshole: the layer at the test depth (the middle of the span the depth stands for), not at the span's top
+    c.kind === 'crosshole' ? trueVsAt(c.model, (top + bottom) / 2) : trueIntervalVsMps(c.model, top, bottom);
   const onsetTruth = (top: number, bottom: number) =>
     c.kind === 'crosshole' ? null : (bottom - top) / (onsetAt(bottom) - onsetAt(top));
   const perMethod: IntervalResult[] = [];
-  for (const r of d.intervals) {
+  // Same-hit kinds: xcorr delays the other way round from the default (corrected for pulse broadening
+  // with the field Q, 'xcorr-bc', or as measured, 'xcorr-raw'), to compare the two
+  const bcDefault = broadeningCorrectionDefault(res.survey.kind);
+  const bc =
+    c.kind === 'two-receiver' || c.kind === 'crosshole'
+      ? derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false, broadeningCorrection: !bcDefault })
+      : null;
+  const bcRows = (bc?.intervals ?? [])
+    .filter((r) => r.method === 'xcorr')
+    .map((r) => ({ ...r, method: bcDefault ? 'xcorr-raw' : 'xcorr-bc' }));
+  for (const r of [...d.intervals, ...bcRows]) {
     if (r.wave !== 'S' || r.velocityMps === null) continue;
     perMethod.push({
       method: r.method,
@@ -243,7 +266,36 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
       });
     }
   }
-  return { kind: c.kind, seed: c.seed, intervals: out, layerModelNote: note, layers };
+  return { kind: c.kind, seed: c.seed, intervals: out, q: qResults(p), layerModelNote: note, layers };
+}
+
+/**
+ * True Q over a span: crosshole, the layer's Q at the interval's depth (horizontal rays); downhole, the
+ * vertical travel time over t* (the path-averaged Q, 1/Q_eff = sum(h/(V Q)) / sum(h/V)).
+ */
+function trueQ(c: Case, topM: number, bottomM: number): number {
+  if (c.kind === 'crosshole') return c.model.layers[layerIndexAt(c.model, (topM + bottomM) / 2)].qS;
+  return verticalTimeS(c.model, topM, bottomM) / verticalTStarS(c.model, topM, bottomM);
+}
+
+function qResults(p: PreparedCase): QResult[] {
+  const dmp = p.derived.damping;
+  return [
+    ...dmp.intervals.map((x) => ({
+      scope: 'interval' as const,
+      topM: x.topM,
+      bottomM: x.bottomM,
+      qS: x.qS,
+      trueQS: trueQ(p.c, x.topM, x.bottomM),
+    })),
+    ...dmp.layers.map((x) => ({
+      scope: 'layer' as const,
+      topM: x.topM,
+      bottomM: x.bottomM,
+      qS: x.qS,
+      trueQS: trueQ(p.c, x.topM, x.bottomM),
+    })),
+  ];
 }
 
 /** One survey through the pipeline with default settings: every method as the app gives it. */
@@ -251,7 +303,7 @@ export function runCase(c: Case): SurveyRun {
   const p = prepareCase(c);
   const layers = p.derived.layering.fit?.layers.length ?? null;
   const note = c.kind === 'crosshole' ? null : p.derived.layering.reason;
-  return { kind: c.kind, seed: c.seed, intervals: p.perMethod, layerModelNote: note, layers };
+  return { kind: c.kind, seed: c.seed, intervals: p.perMethod, q: qResults(p), layerModelNote: note, layers };
 }
 
 type Derived = ReturnType<typeof derive>;
@@ -396,6 +448,33 @@ export function figures(runs: SurveyRun[], scales: Record<string, number> = {}):
   return out;
 }
 
+export interface QFigures {
+  /** Estimates made / spans offered. */
+  n: number;
+  made: number;
+  /** |Q - true Q| / true Q over the estimates made, %. */
+  medianErrPct: number | null;
+  p90ErrPct: number | null;
+}
+
+/** Q recovery per scope (interval, layer) over runs. */
+export function qFigures(runs: SurveyRun[]): Record<string, QFigures> {
+  const out: Record<string, QFigures> = {};
+  for (const scope of ['interval', 'layer'] as const) {
+    const all = runs.flatMap((r) => r.q.filter((x) => x.scope === scope));
+    if (!all.length) continue;
+    const err = all.flatMap((x) => (x.qS === null ? [] : [(100 * Math.abs(x.qS - x.trueQS)) / x.trueQS]));
+    const r1 = (x: number) => Math.round(x * 10) / 10;
+    out[scope] = {
+      n: all.length,
+      made: err.length,
+      medianErrPct: err.length ? r1(quantile(err, 0.5)) : null,
+      p90ErrPct: err.length ? r1(quantile(err, 0.9)) : null,
+    };
+  }
+  return out;
+}
+
 export function seeds(split: 'training' | 'held-out', count: number): number[] {
   const base = split === 'training' ? 1000 : 5000;
   return Array.from({ length: count }, (_, i) => base + i);
@@ -411,6 +490,8 @@ export interface BankReport {
   /** Default method per kind: lowest median + P90/2 on training seeds. */
   defaultMethod: Record<string, string>;
   layerModelFailures: Record<string, string[]>;
+  /** Field Q recovery per kind (same-hit kinds) and scope, training and held-out. */
+  qRecovery: Record<string, Record<string, { training: QFigures; heldOut: QFigures }>>;
 }
 
 export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
@@ -421,11 +502,19 @@ export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
     sdScale: {},
     defaultMethod: {},
     layerModelFailures: {},
+    qRecovery: {},
   };
   for (const k of kinds) {
     const train = seeds('training', count).map((s) => runCase(bankCase(k, s)));
     const held = seeds('held-out', count).map((s) => runCase(bankCase(k, s)));
     const scales = sdScales(train);
+    const qt = qFigures(train);
+    const qh = qFigures(held);
+    rep.qRecovery[k] = Object.fromEntries(
+      Object.keys(qt)
+        .filter((sc) => qh[sc])
+        .map((sc) => [sc, { training: qt[sc], heldOut: qh[sc] }]),
+    );
     const ft = figures(train, scales);
     const fh = figures(held, scales);
     rep.sdScale[k] = scales;
@@ -461,5 +550,9 @@ export function printBank(rep: BankReport, log: (s: string) => void): void {
         `    ${m.padEnd(14)} training ${r.training.medianErrPct.toFixed(2).padStart(6)} / ${r.training.p90ErrPct.toFixed(2).padStart(6)}   held-out ${r.heldOut.medianErrPct.toFixed(2).padStart(6)} / ${r.heldOut.p90ErrPct.toFixed(2).padStart(6)}   vs onset velocity ${r.heldOut.medianErrVsOnsetPct?.toFixed(2) ?? '  -  '}   within 1 sd ${r.heldOut.within1Sd ?? '-'}  2 sd ${r.heldOut.within2Sd ?? '-'}  (scale ${rep.sdScale[k][m] ?? 1})  n=${r.heldOut.n}`,
       );
     if (rep.layerModelFailures[k].length) log(`    layer model not made: ${rep.layerModelFailures[k].join('; ')}`);
+    for (const [sc, r] of Object.entries(rep.qRecovery[k] ?? {}))
+      log(
+        `    field Q per ${sc.padEnd(8)} |Q error| median / P90 %: training ${r.training.medianErrPct ?? '-'} / ${r.training.p90ErrPct ?? '-'} (${r.training.made}/${r.training.n})   held-out ${r.heldOut.medianErrPct ?? '-'} / ${r.heldOut.p90ErrPct ?? '-'} (${r.heldOut.made}/${r.heldOut.n})`,
+      );
   }
 }

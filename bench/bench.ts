@@ -7,7 +7,8 @@
  * on (to show onset- and correlation-based delays drifting apart with depth); the demo crosshole set;
  * and a 60-depth downhole survey for the per-edit timings (derive, Monte Carlo).
  * Then the bank of random layered earths (bench/bank.ts): accuracy and calibration per test kind and
- * method on training and held-out seeds (JSON keys `bank` and `calibration`).
+ * method on training and held-out seeds (JSON keys `bank` and `calibration`), and the field Q recovery of
+ * same-hit surveys (JSON key `fieldQ`: per kind, scope interval/layer, training and held-out).
  * Then the command line against a numpy/scipy pipeline (bench/anchor.ts: cliVsScipyRatio) and the
  * browser figures from a Playwright run (bench/browser.ts; `--no-browser` skips them).
  */
@@ -445,7 +446,13 @@ if (browser) {
 if (json && !speed) {
   process.stdout.write(
     JSON.stringify(
-      { bank, calibration: bank.calibration, defaultMethod: bank.defaultMethod, classCalibration: classCal },
+      {
+        bank,
+        calibration: bank.calibration,
+        defaultMethod: bank.defaultMethod,
+        fieldQ: bank.qRecovery,
+        classCalibration: classCal,
+      },
       null,
       1,
     ) + '\n',
@@ -484,6 +491,7 @@ if (json && !speed) {
     bank,
     calibration: bank.calibration,
     defaultMethod: bank.defaultMethod,
+    fieldQ: bank.qRecovery,
     classCalibration: classCal,
     cliVsScipyRatio: anchor?.cliVsScipyRatio ?? null,
     cliVsScipy: anchor

@@ -12,7 +12,16 @@ import { toErrorInfo } from '../core';
 import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core';
 import { patchSettings } from '../core';
 import { runPipeline } from '../core';
-import { directTable, intervalsTable, layersTable, picksTable, profileTable, siteJson, toCsv } from '../core';
+import {
+  directTable,
+  intervalsTable,
+  layersTable,
+  picksTable,
+  profileCautions,
+  profileTable,
+  siteJson,
+  toCsv,
+} from '../core';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core';
 import { hasDirectVelocities } from '../core';
 import { curvesCautions, curvesTable, liquefactionCautions, liquefactionTable } from '../core';
@@ -192,7 +201,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   if (completed) writeFileSync(join(out, 'project.json'), `${JSON.stringify(completed, null, 1)}\n`);
   writeFileSync(join(out, 'picks.csv'), toCsv(picksTable(result.prepared.stations, result.derived, units)));
   writeFileSync(join(out, 'intervals.csv'), toCsv(intervalsTable(result.derived, units)));
-  writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units)));
+  writeFileSync(join(out, 'profile.csv'), toCsv(profileTable(result.derived, units), profileCautions(result.derived)));
   writeFileSync(join(out, 'layers.csv'), toCsv(layersTable(result.derived, units)));
   writeFileSync(join(out, 'curves.csv'), toCsv(curvesTable(result.derived, units), curvesCautions(result.derived)));
   const liq = liquefactionTable(result.derived, units);

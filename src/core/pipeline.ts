@@ -9,7 +9,7 @@
  *   derive()       user edits applied, intervals, profile, stiffness, Vs30, site classes (light; every edit)
  */
 import { toErrorInfo, type ErrorInfo } from './errors';
-import type { PairDelay, Pick, Survey, WaveRecord } from './model';
+import type { PairDelay, Pick, Survey, TestKind, WaveRecord } from './model';
 import type { Settings, UserEdits } from './settings';
 import { stationWaveKey, type IntervalKey, type StationKey } from './keys';
 import { autoPickSurvey, type AutoPickResult } from './picking/autopick';
@@ -33,6 +33,13 @@ import { layerMethod } from './velocity/layerMethod';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
+import {
+  broadeningCorrected,
+  fieldDamping,
+  fieldQForDesign,
+  layerDamping,
+  type SurveyDamping,
+} from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
 import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/summary';
 import type { SiteUncertainty } from './site/montecarlo';
@@ -44,6 +51,7 @@ import { designResults, type DesignResults } from './stiffness/design';
 export type { DirectVelocity, TravelTimeRow } from './velocity/direct';
 export type { LayerFit } from './velocity/layers';
 export type { MethodDrift } from './velocity/drift';
+export type { SurveyDamping, IntervalDamping, LayerDamping } from './velocity/damping';
 export type { ProfileRow } from './stiffness/rows';
 export type { SiteSummary } from './site/summary';
 export type { ComparisonResult } from './site/compare';
@@ -102,6 +110,8 @@ export interface Derived {
   /** Downhole kinds: the layered model behind the 'layer-model' method (automatic or user boundaries), or why there is none. */
   layering: { fit: LayeredFit | null; reason: string | null };
   drift: MethodDrift | null;
+  /** Field Qs and damping D = 1/(2Q) per same-hit interval and per layer (spectral ratio), or why there is none. */
+  damping: SurveyDamping;
   site: SiteSummary;
   /** Set-up checks (survey/setup-checks.ts): blocking ones withhold Vs30 and the site classes. */
   setupProblems: SetupProblem[];
@@ -118,6 +128,8 @@ export interface DeriveOptions {
   comparison?: ComparisonProfile | null;
   /** Field attenuation (Q) per depth range, when estimated from the waveforms; else the field damping is empty. */
   fieldQ?: readonly FieldQ[];
+  /** Correct same-hit xcorr delays for pulse broadening with the field Q (default: broadeningCorrectionDefault). */
+  broadeningCorrection?: boolean;
 }
 
 /**
@@ -128,6 +140,23 @@ export function siteSpread(derived: Derived, settings: Settings): SiteUncertaint
   if (!derived.site.vs30) return null;
   const ivs = [...siteIntervals(derived.profile), ...derived.site.bridged].sort((a, b) => a.topM - b.topM);
   return spreadOf(ivs, settings);
+}
+
+/**
+ * Broadening correction of same-hit xcorr delays with the local Q (inverse-variance 1/Q of the intervals
+ * within halfWidthM). Off by default for every kind: on the bank's training seeds (bench/bank.ts, rows
+ * 'xcorr-bc') the measured delays were closer to the true vertical times (crosshole median / P90
+ * 0.09 / 0.47% as measured against 0.15 / 0.59% corrected; the two-receiver layered model, built on the
+ * same delays, 0.66 / 4.7% against 1.9 / 4.8%).
+ */
+export const BROADENING_CORRECTION: { kinds: readonly TestKind[]; halfWidthM: number } = {
+  kinds: [],
+  halfWidthM: 2,
+};
+
+/** Whether derive corrects same-hit xcorr delays for broadening by default for a test kind. */
+export function broadeningCorrectionDefault(kind: TestKind): boolean {
+  return BROADENING_CORRECTION.kinds.includes(kind);
 }
 
 /** Light stage: everything that follows from the auto picks and the user's edits. */
@@ -147,7 +176,13 @@ export function derive(
     .filter((p) => !excluded.has(stationWaveKey(p.a.key, p.wave)) && !excluded.has(stationWaveKey(p.b.key, p.wave)))
     .concat(bridges.pairs)
     .sort((a, b) => (a.wave === b.wave ? 0 : a.wave === 'S' ? -1 : 1) || a.topM - b.topM || a.bottomM - b.bottomM);
-  const allDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
+  const measuredDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
+  // Field Q of same-hit pairs from the measured delays; then their xcorr delays freed of pulse broadening.
+  const damping = fieldDamping(pairs, picks, measuredDelays, null, isOnsetPick);
+  const allDelays =
+    (options.broadeningCorrection ?? broadeningCorrectionDefault(survey.kind))
+      ? broadeningCorrected(measuredDelays, damping, BROADENING_CORRECTION.halfWidthM)
+      : measuredDelays;
   // Say what an exclusion costs: the intervals that touched the station leave the profile (or are bridged).
   for (const key of edits.excludedStations) {
     const lost = prepared.pairs.filter(
@@ -208,7 +243,13 @@ export function derive(
   });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
-  const design = designResults(profile, soil, settings.design, options.fieldQ ?? []);
+  const surveyDamping: SurveyDamping = {
+    ...damping,
+    intervals: damping.intervals.map(({ pulse: _pulse, ...rest }) => rest),
+    layers: layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [],
+  };
+  // Field D beside the laboratory-model Dmin: the Q given by the caller, else the one measured here.
+  const design = designResults(profile, soil, settings.design, options.fieldQ ?? fieldQForDesign(surveyDamping));
   issues.push(...design.issues);
   const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
   const site = siteSummary(
@@ -238,6 +279,7 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     drift,
+    damping: surveyDamping,
     site,
     setupProblems,
     comparison: options.comparison ? comparisonResult(options.comparison, velocity, settings) : null,

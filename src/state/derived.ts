@@ -116,6 +116,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     layerModel: null,
     layering: { fit: null, reason: null },
     drift: null,
+    damping: { intervals: [], layers: [], reason: 'no result', caution: '' },
     comparison: null,
     site: { vs30: null, classes: [], uncertainty: null, cautions: [], setupIncomplete: null, bridged: [] },
     setupProblems: [],

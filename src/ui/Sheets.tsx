@@ -12,6 +12,7 @@ import {
   layersTable,
   picksTable,
   profileTable,
+  profileCautions,
   siteJson,
   toCsv,
   EXPORT_CAUTIONS,
@@ -233,7 +234,7 @@ export function ExportSheet() {
             : kind === 'direct'
               ? directTable(full, units)
               : profileTable(full, units);
-    download(`${base}-${kind}.csv`, toCsv(table), 'text/csv');
+    download(`${base}-${kind}.csv`, toCsv(table, kind === 'profile' ? profileCautions(full) : undefined), 'text/csv');
   };
   const [paper, setPaper] = useState<Paper>('A4');
   const figure = (id: Figure['id'], f: 'png' | 'svg') => {

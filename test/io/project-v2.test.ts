@@ -55,8 +55,15 @@ describe('version-1 archives open to the same numbers', () => {
       const got = numbers(opened);
       // Cells compared after CSV parsing: the numbers and flags, whatever the quoting rule of the day.
       const cells = (csv: string) => Papa.parse<string[]>(csv.trim(), { skipEmptyLines: true }).data;
-      expect(cells(got.profile)).toEqual(cells(readFileSync(join('test/fixtures/v1', `${kind}.profile.csv`), 'utf8')));
-      expect(got.site).toEqual(JSON.parse(readFileSync(join('test/fixtures/v1', `${kind}.site.json`), 'utf8')));
+      const ref = cells(readFileSync(join('test/fixtures/v1', `${kind}.profile.csv`), 'utf8'));
+      // Columns and site.json keys added after the reference was written (field damping) are left out of the comparison.
+      const mine = cells(got.profile);
+      const pick = ref[0].map((c) => mine[0].indexOf(c));
+      const header = mine[0].length;
+      const projected = mine.map((row) => (row.length === header ? pick.map((i) => row[i]) : row));
+      expect(projected).toEqual(ref);
+      const { fieldDamping: _added, ...site } = got.site as Record<string, unknown>;
+      expect(site).toEqual(JSON.parse(readFileSync(join('test/fixtures/v1', `${kind}.site.json`), 'utf8')));
     });
   }
   it('saved again as version 2 and reopened, the two-receiver survey gives the same numbers', () => {

@@ -208,8 +208,13 @@ export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
     u.name('bulk', 'modulus'),
     u.name('vs1', 'velocity'),
     'stress_exponent',
+    // Field damping of the interval (same-hit pairs only; an upper bound on material damping, see cautions)
+    'qs',
+    'damping_pct',
+    'damping_sd_pct',
     'flags',
   ];
+  const damping = new Map((d.damping?.intervals ?? []).map((x) => [x.intervalKey, x]));
   // Moduli are kPa inside; the 'modulus' unit shows MPa (SI) or ksi (US).
   const rows: Cell[][] = d.profile.map((r: ProfileRow) => [
     u.value('distance', r.topM),
@@ -234,9 +239,21 @@ export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
     u.value('modulus', r.bulkKpa),
     u.value('velocity', r.vs1Mps),
     reported('exponent', r.stressExponent),
+    reported('ratio', damping.get(r.intervalKey)?.qS),
+    reported('ratio', pct(damping.get(r.intervalKey)?.damping)),
+    reported('ratio', pct(damping.get(r.intervalKey)?.dampingSd)),
     r.flags.join('; '),
   ]);
   return { columns, rows };
+}
+
+const pct = (x: number | null | undefined) => (x === null || x === undefined ? null : 100 * x);
+
+/** Cautions of the profile export: the common ones, and the field-damping one where damping is given. */
+export function profileCautions(d: Derived): string[] {
+  return d.damping?.intervals.some((x) => x.damping !== null)
+    ? [...EXPORT_CAUTIONS, d.damping.caution]
+    : EXPORT_CAUTIONS;
 }
 
 /** Layer velocities: straight-line fits of time against slant distance, and the refracted-ray model. */
@@ -355,6 +372,21 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
             vsMps: reported('velocity', x.vsMps),
             comparisonVsMps: reported('velocity', x.comparisonVsMps),
             differencePct: reported('ratio', x.differencePct),
+          })),
+        }
+      : null,
+    // Field Qs and damping D per layer of the layered model (same-hit surveys), or why there is none.
+    fieldDamping: d.damping
+      ? {
+          reason: d.damping.reason,
+          caution: d.damping.caution,
+          layers: d.damping.layers.map((l) => ({
+            topM: reported('distance', l.topM),
+            bottomM: reported('distance', l.bottomM),
+            qs: reported('ratio', l.qS),
+            dampingPct: reported('ratio', pct(l.damping)),
+            dampingSdPct: reported('ratio', pct(l.dampingSd)),
+            intervals: l.intervals,
           })),
         }
       : null,

@@ -29,7 +29,7 @@ export interface SpectralRatioOptions {
 
 export type SpectralRatioResult =
   | { ok: true; q: number; qSd: number; tStarS: number; tStarSdS: number; bandHz: [number, number]; points: number }
-  | { ok: false; reason: string };
+  | { ok: false; reason: string; tStarS?: number; tStarSdS?: number };
 
 function tapered(x: ArrayLike<number>): Float64Array {
   // Hann taper over the outer 10% at each end (common practice against spectral leakage)
@@ -105,7 +105,12 @@ export function spectralRatioQ(
   const tStarSd = slopeSe / Math.PI;
   const band: [number, number] = [xs[0], xs[m - 1]];
   if (!(tStar > 0))
-    return { ok: false, reason: 'the farther pulse is not the more attenuated one over the common band' };
+    return {
+      ok: false,
+      reason: 'the farther pulse is not the more attenuated one over the common band',
+      tStarS: tStar,
+      tStarSdS: tStarSd,
+    };
   const q = o.delayS / tStar;
   return { ok: true, q, qSd: (q * tStarSd) / tStar, tStarS: tStar, tStarSdS: tStarSd, bandHz: band, points: m };
 }

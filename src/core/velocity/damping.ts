@@ -1,0 +1,302 @@
+/**
+ * Field damping: Qs and the small-strain damping ratio D = 1 / (2 Q) per interval of one hit (two
+ * receivers of a probe or cone; crosshole near and far receivers) by the spectral ratio
+ * (src/core/signal/attenuation.ts, after Bath 1974), and per layer of the layered model as the
+ * inverse-variance weighted mean of 1/Q over the intervals inside it.
+ *
+ * One-receiver surveys (a different hit at every depth) are not estimated: the source spectrum changes
+ * from hit to hit and the ratio would carry that change (docs/methods.md, field damping).
+ *
+ * Field attenuation includes scattering and geometric effects that are not removed here, so field D is
+ * an upper bound on material damping (common practice).
+ */
+import type { PairDelay, Pick } from '../model';
+import type { IntervalKey } from '../keys';
+import type { StationPair } from './intervals';
+import type { FittedLayer } from './layering';
+import { realSpectrum, nextPow2 } from '../signal/fft';
+import { broadeningCorrectedDelay, dampingFromQ, spectralRatioQ } from '../signal/attenuation';
+
+export const FIELD_DAMPING_CAUTION =
+  'Field damping from the spectral ratio includes scattering and geometric effects that are not removed: it is an upper bound on material damping.';
+
+export interface IntervalDamping {
+  intervalKey: IntervalKey;
+  topM: number;
+  bottomM: number;
+  qS: number | null;
+  qSdS: number | null;
+  /** D = 1 / (2 Q), ratio (not %). */
+  damping: number | null;
+  dampingSd: number | null;
+  /** Common band of the spectral ratio, Hz. */
+  bandHz: [number, number] | null;
+  /** Dominant frequency of the nearer pulse (the frequency the Q stands for), Hz. */
+  frequencyHz?: number | null;
+  /** The fitted t* (may be <= 0 where noise dominates) and its sd, and the delay it is set against, s. */
+  tStarS: number | null;
+  tStarSdS: number | null;
+  delayS: number | null;
+  reason: string | null;
+  /** Correlation-delay bias from pulse broadening removed from this interval's xcorr delay, s (null: none applied). */
+  biasS?: number | null;
+  /** Nearer pulse window and reference (dominant) frequency, kept for the broadening correction. */
+  pulse?: { a: Float64Array; dtS: number; fRefHz: number };
+}
+
+export interface LayerDamping {
+  topM: number;
+  bottomM: number;
+  qS: number | null;
+  damping: number | null;
+  dampingSd: number | null;
+  intervals: number;
+}
+
+export interface SurveyDamping {
+  intervals: IntervalDamping[];
+  layers: LayerDamping[];
+  /** Why there is no estimate for the survey (one-receiver surveys), or null. */
+  reason: string | null;
+  caution: string;
+}
+
+/** Dominant frequency of x from the peak of its amplitude spectrum (Hz). */
+export function dominantHz(x: ArrayLike<number>, dtS: number): number | null {
+  const nfft = nextPow2(4 * x.length);
+  const s = realSpectrum(x, nfft);
+  let best = 0;
+  let bestK = 0;
+  for (let k = 1; k <= nfft / 2; k++) {
+    const a = Math.hypot(s[2 * k], s[2 * k + 1]);
+    if (a > best) {
+      best = a;
+      bestK = k;
+    }
+  }
+  return bestK > 0 ? bestK / (nfft * dtS) : null;
+}
+
+function slice(x: Float64Array, start: number, len: number): Float64Array | null {
+  if (start < 0 || start + len > x.length) return null;
+  return x.slice(start, start + len);
+}
+
+export interface PairDampingOptions {
+  /** Window length in dominant periods (from half a period before the onset). */
+  periods: number;
+}
+
+export const DEFAULT_PAIR_DAMPING: PairDampingOptions = { periods: 3 };
+
+/**
+ * Q of one same-hit pair: windows of `periods` dominant periods from T/2 before the nearer trace's
+ * onset, the farther window shifted by the measured delay (so both hold the same part of the pulse).
+ */
+export function pairDamping(
+  pair: StationPair,
+  onsetA: Pick | undefined,
+  delay: PairDelay | undefined,
+  o: PairDampingOptions = DEFAULT_PAIR_DAMPING,
+): IntervalDamping {
+  const base = {
+    intervalKey: pair.key,
+    topM: pair.topM,
+    bottomM: pair.bottomM,
+    qS: null,
+    qSdS: null,
+    damping: null,
+    dampingSd: null,
+    bandHz: null,
+    tStarS: null,
+    tStarSdS: null,
+    delayS: null,
+  };
+  if (!onsetA) return { ...base, reason: 'no onset on the nearer receiver' };
+  if (!delay || !(delay.delayS > 0)) return { ...base, reason: 'no positive delay between the receivers' };
+  const ta = pair.a.working;
+  const tb = pair.b.working;
+  const dt = ta.sampleIntervalS;
+  if (Math.abs(tb.sampleIntervalS - dt) > 1e-9 * dt) return { ...base, reason: 'different sample intervals' };
+  const i0 = Math.round((onsetA.timeS - ta.delayS) / dt);
+  const probe = slice(ta.samples, Math.max(0, i0), Math.min(ta.samples.length - Math.max(0, i0), 1024));
+  const f = probe && probe.length >= 16 ? dominantHz(probe, dt) : null;
+  if (!f) return { ...base, reason: 'no dominant frequency after the onset' };
+  const periodS = 1 / f;
+  const len = Math.max(16, Math.round((o.periods * periodS) / dt));
+  const startA = i0 - Math.round((0.5 * periodS) / dt);
+  const startB = Math.round((onsetA.timeS + delay.delayS - tb.delayS) / dt) - Math.round((0.5 * periodS) / dt);
+  const wa = slice(ta.samples, startA, len);
+  const wb = slice(tb.samples, startB, len);
+  if (!wa || !wb) return { ...base, reason: 'the pulse window runs off the trace' };
+  const pulse = { a: wa, dtS: dt, fRefHz: f };
+  // The whole common band: limiting it to 0.3-3 times the dominant frequency was worse on the bank's training seeds.
+  const r = spectralRatioQ(wa, wb, dt, { delayS: delay.delayS });
+  if (!r.ok)
+    return {
+      ...base,
+      tStarS: r.tStarS ?? null,
+      tStarSdS: r.tStarSdS ?? null,
+      delayS: r.tStarS === undefined ? null : delay.delayS,
+      reason: r.reason,
+      pulse,
+    };
+  const d = dampingFromQ(r.q, r.qSd);
+  return {
+    ...base,
+    qS: r.q,
+    qSdS: r.qSd,
+    damping: d.damping,
+    dampingSd: d.dampingSd,
+    bandHz: r.bandHz,
+    frequencyHz: f,
+    tStarS: r.tStarS,
+    tStarSdS: r.tStarSdS,
+    delayS: delay.delayS,
+    reason: null,
+    pulse,
+  };
+}
+
+/**
+ * Inverse-variance weighted 1/Q = t-star / dt (hence D) over the intervals whose mid-depth lies in each layer.
+ * Intervals whose own t-star came out <= 0 (noise over a short path) count with their signed value, so
+ * dropping them does not bias the layer towards stronger attenuation.
+ */
+export function layerDamping(intervals: readonly IntervalDamping[], layers: readonly FittedLayer[]): LayerDamping[] {
+  return layers.map((l) => {
+    let sw = 0;
+    let swd = 0;
+    let n = 0;
+    const parts: { d: number; w: number }[] = [];
+    for (const iv of intervals) {
+      const mid = (iv.topM + iv.bottomM) / 2;
+      if (mid < l.topM || mid >= l.bottomM) continue;
+      if (iv.tStarS === null || iv.delayS === null || !(iv.tStarSdS! > 0)) continue;
+      const invQ = iv.tStarS / iv.delayS;
+      const w = 1 / (iv.tStarSdS! / iv.delayS) ** 2;
+      sw += w;
+      swd += (w * invQ) / 2;
+      parts.push({ d: invQ / 2, w: 4 * w });
+      n++;
+    }
+    if (!n) return { topM: l.topM, bottomM: l.bottomM, qS: null, damping: null, dampingSd: null, intervals: 0 };
+    const d = swd / sw;
+    // Birge ratio: where the intervals scatter more than their fit sds say, the layer sd grows with it (common practice)
+    const chi2 = parts.reduce((acc, x) => acc + x.w * (x.d - d) ** 2, 0);
+    const inflate = n > 1 ? Math.max(1, Math.sqrt(chi2 / (n - 1))) : 1;
+    if (!(d > 0)) return { topM: l.topM, bottomM: l.bottomM, qS: null, damping: null, dampingSd: null, intervals: n };
+    return {
+      topM: l.topM,
+      bottomM: l.bottomM,
+      qS: 1 / (2 * d),
+      damping: d,
+      dampingSd: (inflate * Math.sqrt(1 / sw)) / 2,
+      intervals: n,
+    };
+  });
+}
+
+/**
+ * Local 1/Q for the broadening correction: inverse-variance weighted t-star / dt of the intervals whose
+ * mid-depth lies within halfWidthM of this one's (signed values kept; null when the mean is not positive).
+ */
+export function localInvQ(intervals: readonly IntervalDamping[], i: number, halfWidthM: number): number | null {
+  const mid = (intervals[i].topM + intervals[i].bottomM) / 2;
+  let sw = 0;
+  let s = 0;
+  for (const iv of intervals) {
+    if (Math.abs((iv.topM + iv.bottomM) / 2 - mid) > halfWidthM + 1e-9) continue;
+    if (iv.tStarS === null || iv.delayS === null || !(iv.tStarSdS! > 0)) continue;
+    const w = (iv.delayS / iv.tStarSdS!) ** 2;
+    sw += w;
+    s += (w * iv.tStarS) / iv.delayS;
+  }
+  return sw > 0 && s / sw > 0 ? s / sw : null;
+}
+
+/**
+ * Cross-correlation delays of same-hit S pairs freed of pulse broadening (attenuation.ts,
+ * broadeningCorrectedDelay) with the local Q; the intervals get the bias applied. Other delays pass.
+ */
+export function broadeningCorrected(
+  delays: readonly PairDelay[],
+  damping: SurveyDamping,
+  halfWidthM: number,
+): PairDelay[] {
+  const byKey = new Map(damping.intervals.map((x, i) => [x.intervalKey as string, i]));
+  return delays.map((d) => {
+    if (d.method !== 'xcorr' || d.wave !== 'S') return d;
+    const i = byKey.get(d.pairKey);
+    if (i === undefined) return d;
+    const iv = damping.intervals[i];
+    const invQ = localInvQ(damping.intervals, i, halfWidthM);
+    if (invQ === null || !iv.pulse || !(d.delayS > 0)) return d;
+    const c = broadeningCorrectedDelay(iv.pulse.a, iv.pulse.dtS, d.delayS, 1 / invQ, iv.pulse.fRefHz);
+    // a correction larger than a fifth of the delay is not broadening: leave the delay as measured
+    if (!(Math.abs(c.biasS) < 0.2 * d.delayS)) return d;
+    iv.biasS = c.biasS;
+    return { ...d, delayS: c.delayS };
+  });
+}
+
+/** Field damping for the S intervals of a survey (same-hit pairs only). */
+export function fieldDamping(
+  pairs: readonly StationPair[],
+  picks: readonly Pick[],
+  delays: readonly PairDelay[],
+  layers: readonly FittedLayer[] | null,
+  isOnset: (p: Pick) => boolean,
+): SurveyDamping {
+  const sPairs = pairs.filter((p) => p.wave === 'S');
+  const sameHit = sPairs.filter((p) => p.kind === 'true' || p.kind === 'crosshole');
+  if (!sameHit.length)
+    return {
+      intervals: [],
+      layers: [],
+      reason: sPairs.length
+        ? 'one receiver per hit: the source spectrum changes from hit to hit, so Q is not estimated per interval'
+        : 'no S intervals',
+      caution: FIELD_DAMPING_CAUTION,
+    };
+  const onsets = new Map<string, Pick>();
+  for (const p of picks) if (p.wave === 'S' && p.origin !== 'excluded' && isOnset(p)) onsets.set(p.stationKey, p);
+  const xcorr = new Map<string, PairDelay>();
+  for (const d of delays) if (d.method === 'xcorr') xcorr.set(d.pairKey, d);
+  const intervals = sameHit.map((p) => pairDamping(p, onsets.get(p.a.key), xcorr.get(p.key)));
+  return {
+    intervals,
+    layers: layers ? layerDamping(intervals, layers) : [],
+    reason: null,
+    caution: FIELD_DAMPING_CAUTION,
+  };
+}
+
+/**
+ * The field Q for the design outputs (stiffness/curves.ts: field D beside the laboratory-model Dmin):
+ * per layer of the layered model where there is one, else per interval; with the mean dominant frequency.
+ */
+export function fieldQForDesign(
+  d: SurveyDamping,
+): { topM: number; bottomM: number; q: number; qSd: number | null; frequencyHz: number }[] {
+  const fs = d.intervals.flatMap((x) => (x.frequencyHz ? [x.frequencyHz] : []));
+  if (!fs.length) return [];
+  const fHz = fs.reduce((a, b) => a + b, 0) / fs.length;
+  const rows = d.layers.length
+    ? d.layers.map((l) => ({ topM: l.topM, bottomM: l.bottomM, damping: l.damping, dampingSd: l.dampingSd }))
+    : d.intervals.map((x) => ({ topM: x.topM, bottomM: x.bottomM, damping: x.damping, dampingSd: x.dampingSd }));
+  return rows.flatMap((r) =>
+    r.damping !== null && r.damping > 0
+      ? [
+          {
+            topM: r.topM,
+            bottomM: r.bottomM,
+            q: 1 / (2 * r.damping),
+            // first order: sd(Q) = sd(D) / (2 D^2)
+            qSd: r.dampingSd === null ? null : r.dampingSd / (2 * r.damping * r.damping),
+            frequencyHz: fHz,
+          },
+        ]
+      : [],
+  );
+}
