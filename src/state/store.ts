@@ -62,8 +62,17 @@ export interface ViewState {
   tool: TraceTool;
   snap: boolean;
   fill: boolean;
-  normalise: 'trace' | 'common';
+  /** Trace board amplitude: peak of each trace, one common peak, automatic gain control, or t-power gain. */
+  normalise: 'trace' | 'common' | 'agc' | 'tvg';
   gain: number;
+  /** Automatic gain control window, ms. */
+  agcMs: number;
+  /** Clip level, in trace spacings (a wiggle never swings further than this). */
+  clip: number;
+  /** Trace board time window chosen by the user, ms ([from, to]); null = fitted to the arrivals. */
+  timeWindowMs: [number, number] | null;
+  /** Profile: draw the Vp column. */
+  showVp: boolean;
   hitView: HitView;
   /** Trace board drawing: WebGL for many traces on a GPU ('auto'), or forced. */
   renderer: 'auto' | 'svg' | 'webgl';
@@ -122,6 +131,10 @@ export function initialView(): ViewState {
     fill: true,
     normalise: 'trace',
     gain: 1,
+    agcMs: 20,
+    clip: 1,
+    timeWindowMs: null,
+    showVp: true,
     hitView: 'working',
     renderer: 'auto',
     recordsOpen: true,
