@@ -71,6 +71,7 @@ export function ProfilePlot() {
   const units = useUnits();
   const hoveredKey = useApp((s) => s.view.hoveredInterval);
   const comparison = useApp((s) => s.comparison);
+  const showVp = useApp((s) => s.view.showVp);
   // Memoised on the profile array itself: the late Vs30 spread (same profile) does not redraw the plot.
   const profile = d?.profile;
   const intervals = d?.intervals;
@@ -116,6 +117,8 @@ export function ProfilePlot() {
         name: 'Vp',
         x: vp.x,
         y: vp.y,
+        xaxis: 'x4',
+        visible: showVp,
         line: { color: COLOURS.P, width: 1.6, dash: 'dash' },
         hoverinfo: 'skip',
       },
@@ -123,6 +126,8 @@ export function ProfilePlot() {
         type: 'scatter',
         mode: 'none',
         name: 'Vp ± 1 sd',
+        xaxis: 'x4',
+        visible: showVp,
         x: withVp.map((r) => disp('velocity', units, r.vpMps!)),
         y: withVp.map((r) => disp('depth', units, r.midM)),
         error_x: {
@@ -187,7 +192,7 @@ export function ProfilePlot() {
       });
     }
     return out;
-  }, [rows, units, comparison]);
+  }, [rows, units, comparison, showVp]);
 
   const [bandTopM, bandBottomM] = hoveredBand(intervals, hoveredKey);
   const layout = useMemo(() => {
@@ -196,15 +201,24 @@ export function ProfilePlot() {
       ...BASE_LAYOUT,
       uirevision: 'profile',
       margin: { l: 48, r: 10, t: 44, b: 8 },
-      xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})`, standoff: 4 }, ...TOP_AXIS },
+      // Vs and Vp on their own axes: a noisy Vp (thousands of m/s) never squeezes the Vs column.
+      xaxis: { domain: showVp ? [0, 0.32] : [0, 0.5], title: { text: `Vs (${v})`, standoff: 4 }, ...TOP_AXIS },
+      xaxis4: {
+        domain: [0.38, 0.6],
+        title: { text: `Vp (${v})`, standoff: 4 },
+        ...TOP_AXIS,
+        nticks: 3,
+        anchor: 'y',
+        visible: showVp,
+      },
       xaxis2: {
-        domain: [0.56, 0.77],
+        domain: showVp ? [0.66, 0.81] : [0.56, 0.77],
         title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 },
         ...TOP_AXIS,
         nticks: 3,
         anchor: 'y',
       },
-      xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
+      xaxis3: { domain: showVp ? [0.86, 1] : [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
       yaxis: {
         title: { text: `Depth (${label('depth', units)})` },
         autorange: 'reversed',
@@ -229,7 +243,7 @@ export function ProfilePlot() {
             ]
           : [],
     };
-  }, [bandTopM, bandBottomM, units]);
+  }, [bandTopM, bandBottomM, units, showVp]);
 
   const wave = useApp((s) => s.view.wave);
   const onMove = (ev: React.MouseEvent<HTMLDivElement>) => {
@@ -324,7 +338,9 @@ const IntervalRow = memo(
             {p.compare?.diff ?? '–'}
           </td>
         )}
-        <td className="flags">{p.flags}</td>
+        <td className="flags" title={p.flags}>
+          {p.flags}
+        </td>
         {p.cells.map((c) => (
           <td key={c.method} className={c.chosen ? 'chosen' : ''} data-method={c.method}>
             {c.chosen ? '● ' : ''}
@@ -605,6 +621,7 @@ export function ComparisonControl() {
 
 export function ProfilePane() {
   const d = useDerived();
+  const showVp = useApp((s) => s.view.showVp);
   const units = useUnits();
   const vs30 = d?.site.vs30;
   return (
@@ -624,7 +641,11 @@ export function ProfilePane() {
       </div>
       <ComparisonControl />
       <div className="pane-note" aria-label="Profile legend">
-        <span style={{ color: COLOURS.S }}>━ Vs</span> · <span style={{ color: COLOURS.P }}>╍ Vp</span>
+        <span style={{ color: COLOURS.S }}>━ Vs</span> ·{' '}
+        <label title="Show or hide the Vp column">
+          <input type="checkbox" checked={showVp} onChange={(e) => setView({ showVp: e.target.checked })} />{' '}
+          <span style={{ color: COLOURS.P }}>╍ Vp</span>
+        </label>
         {d?.comparison ? (
           <>
             {' '}

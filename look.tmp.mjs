@@ -1,0 +1,16 @@
+import { chromium } from '@playwright/test';
+const [w, h, url, tag] = [Number(process.argv[2]||1366), Number(process.argv[3]||768), process.argv[4]||'http://127.0.0.1:4192/', process.argv[5]||'a'];
+const b = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--headless','--no-sandbox','--disable-gpu'] });
+const p = await b.newPage({ viewport: { width: w, height: h } });
+const errs = [];
+p.on('console', (m) => { if (m.type() === 'error' || m.type()==='warning') errs.push(m.type()+': '+m.text()); });
+p.on('pageerror', (e) => errs.push('pageerror: ' + e.message));
+await p.goto(url);
+await p.locator('button[data-demo="downhole"]').click();
+await p.waitForSelector('[data-testid="process-status"][data-state="done"]', { timeout: 90000 });
+await p.waitForTimeout(800);
+await p.screenshot({ path: `test-results/screens/${tag}-whole.png` });
+const ov = await p.evaluate(() => [document.documentElement.scrollWidth, window.innerWidth, document.querySelector('header, .topbar')?.getBoundingClientRect().height]);
+console.log('overflow', ov);
+console.log(errs.join('\n'));
+await b.close();
