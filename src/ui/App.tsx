@@ -3,6 +3,7 @@
  * visible) with the Site and Export sheets over it, and the bottom strip with Pair check and Travel time.
  */
 import { memo, useDeferredValue, useEffect, useRef, useState } from 'react';
+import { unitText } from './unitText';
 import type { Derived } from '../core';
 import type { UnitSystem } from '../core';
 import type { Station, Survey, Wave } from '../core';
@@ -340,6 +341,7 @@ function RestoreBanner() {
 function Messages() {
   const messages = useApp((s) => s.messages);
   const d = useDerived();
+  const units = useUnits();
   const issues = d?.issues ?? [];
   const [open, setOpen] = useState(false);
   if (!messages.length && !issues.length) return null;
@@ -352,16 +354,16 @@ function Messages() {
         </button>
       )}
       {messages.map((m, i) => (
-        <div key={`m${i}`} className="error" title={m.message}>
-          {m.message}{' '}
+        <div key={`m${i}`} className="error" title={unitText(m.message, units)}>
+          {unitText(m.message, units)}{' '}
           <button className="link" onClick={() => dismissMessage(i)}>
             dismiss
           </button>
         </div>
       ))}
       {issues.slice(0, 4).map((m, i) => (
-        <div key={`i${i}`} className="warn" title={m.message}>
-          {m.message}
+        <div key={`i${i}`} className="warn" title={unitText(m.message, units)}>
+          {unitText(m.message, units)}
         </div>
       ))}
       {issues.length > 4 && <div className="warn">…and {issues.length - 4} more problems.</div>}
@@ -471,7 +473,19 @@ const PrintBody = memo(function PrintBody({
  * A drag handle that resizes a pane: sets a CSS size variable on the app (--left-w, --right-w,
  * --strip-h) in px, within limits that keep every pane usable.
  */
-function Splitter({ cssVar, axis, sign, min, max }: { cssVar: string; axis: 'col' | 'row'; sign: 1 | -1; min: number; max: number }) {
+function Splitter({
+  cssVar,
+  axis,
+  sign,
+  min,
+  max,
+}: {
+  cssVar: string;
+  axis: 'col' | 'row';
+  sign: 1 | -1;
+  min: number;
+  max: number;
+}) {
   const [dragging, setDragging] = useState(false);
   const onDown = (ev: React.MouseEvent<HTMLDivElement>) => {
     const app = ev.currentTarget.closest('.app') as HTMLElement | null;

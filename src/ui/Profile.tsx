@@ -3,6 +3,7 @@
  * comparison table (every method's interval velocity, the one used, flags as short words).
  */
 import { CurrentSetupProblems } from './Setup';
+import { unitText } from './unitText';
 import { memo, useMemo, useRef, useState } from 'react';
 import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core';
 import type { IntervalKey, StationKey } from '../core';
@@ -218,7 +219,13 @@ export function ProfilePlot() {
         nticks: 3,
         anchor: 'y',
       },
-      xaxis3: { domain: showVp ? [0.86, 1] : [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
+      xaxis3: {
+        domain: showVp ? [0.86, 1] : [0.83, 1],
+        title: { text: `Vs1 (${v})`, standoff: 4 },
+        ...TOP_AXIS,
+        nticks: 3,
+        anchor: 'y',
+      },
       yaxis: {
         title: { text: `Depth (${label('depth', units)})` },
         autorange: 'reversed',
@@ -422,6 +429,7 @@ export function IntervalsTable() {
             }
           : null;
         const flags = [...new Set([...(g.chosen?.flags ?? []), ...(excluded ? ['omitted'] : [])])].join(', ');
+        const flagText = unitText(flags, units);
         const top = fmt('depth', units, g.topM);
         const bottom = fmt('depth', units, g.bottomM);
         const stationB = g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null;
@@ -437,7 +445,7 @@ export function IntervalsTable() {
           stationB,
           compare,
           showCompare,
-          flags,
+          flagText,
         ]);
         return {
           sig,
@@ -453,7 +461,7 @@ export function IntervalsTable() {
           stationB,
           compare,
           showCompare,
-          flags,
+          flags: flagText,
         };
       }),
     [list, methods, edits.chosenMethod, edits.excludedIntervals, units, cmp, showCompare, profileMethod, dep],

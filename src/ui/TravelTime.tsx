@@ -141,8 +141,8 @@ export function TravelTime() {
         {receiver !== '*' && receiverSlots(survey).length > 1
           ? `, ${receiverLabel(survey, receiver as ReceiverSlot)}`
           : ''}
-        : ○ time after trigger · ● slant-corrected · lines: layer fits, velocity per layer: line fit = straight
-        line through the slant-corrected times
+        : ○ time after trigger · ● slant-corrected · lines: layer fits, velocity per layer: line fit = straight line
+        through the slant-corrected times
         {layerModel && wave === 'S' && method === 'onset'
           ? `; ray fit = layer model with rays refracted at each boundary (RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)`
           : ''}
