@@ -499,7 +499,6 @@ function Splitter({
       const pos = axis === 'col' ? e.clientX : e.clientY;
       const size = Math.max(min, Math.min(max, size0 + sign * (pos - start)));
       app.style.setProperty(cssVar, `${Math.round(size)}px`);
-      window.dispatchEvent(new Event('resize'));
     };
     const onUp = () => {
       setDragging(false);

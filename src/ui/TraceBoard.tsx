@@ -744,8 +744,8 @@ export function TraceBoard() {
             onChange={(e) => setView({ wave: e.target.value as Wave, selectedStation: null })}
             aria-label="Wave"
           >
-            <option value="S">S (shear)</option>
-            <option value="P">P (compression)</option>
+            <option value="S">S</option>
+            <option value="P">P</option>
           </select>
         </label>
         {receivers.length > 1 && (

@@ -107,7 +107,20 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
     const l = life.current;
     l.mounted = true;
     plotRegistry.set(name, div);
+    // Follow the container's size (pane splitters, a message line appearing), not only the window's.
+    let frame = 0;
+    const ro = new ResizeObserver(() => {
+      cancelAnimationFrame(frame);
+      frame = requestAnimationFrame(() => {
+        const gd = div as unknown as { _fullLayout?: unknown };
+        if (l.mounted && div.isConnected && gd._fullLayout && div.clientWidth > 0 && div.clientHeight > 0)
+          void Promise.resolve(Plotly.Plots.resize(div as never) as unknown).catch(() => undefined);
+      });
+    });
+    ro.observe(div);
     return () => {
+      ro.disconnect();
+      cancelAnimationFrame(frame);
       l.mounted = false;
       if (plotRegistry.get(name) === div) plotRegistry.delete(name);
       void l.pending
