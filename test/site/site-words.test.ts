@@ -4,7 +4,7 @@
  * not checked against the standard's text, a plain request to verify it (RULES: originality section).
  */
 import { describe, expect, it } from 'vitest';
-import { SITE_CAUTIONS, SITE_STANDARDS, siteClass, siteQuestions } from '../../src/core/stiffness/site';
+import { SITE_CAUTIONS, SITE_STANDARDS, siteClass, siteQuestions } from '../../src/core/site/classes';
 import { STRESS_EXPONENT_CHOICES } from '../../src/core/stiffness/normalise';
 
 describe('site-class text a user sees', () => {
