@@ -37,7 +37,17 @@ const GREYED_TRACE = '#b8c2cc';
 // station), so the drawn traces are always decimated for the window on screen.
 const BOARD_CONFIG = {
   doubleClick: false,
-  modeBarButtonsToRemove: ['lasso2d', 'select2d', 'toImage', 'sendDataToCloud', 'autoScale2d', 'resetScale2d'],
+  // Zoom and pan are the board's own tools (Pick / Zoom / Pan), so the mode bar keeps only zoom in/out.
+  modeBarButtonsToRemove: [
+    'lasso2d',
+    'select2d',
+    'toImage',
+    'sendDataToCloud',
+    'autoScale2d',
+    'resetScale2d',
+    'zoom2d',
+    'pan2d',
+  ],
 };
 const OVERLAY_CONFIG = { staticPlot: true, responsive: true };
 
@@ -360,7 +370,11 @@ export function TraceBoard() {
       times,
     );
   }, [stations, wave, hasPicks]);
-  const shown: Range | null = xMs ? { t0S: xMs[0] / 1000, t1S: xMs[1] / 1000 } : (fitted ?? full);
+  // Memoised: a new object on every render would decimate and draw again after every draw.
+  const shown: Range | null = useMemo(
+    () => (xMs ? { t0S: xMs[0] / 1000, t1S: xMs[1] / 1000 } : (fitted ?? full)),
+    [xMs, fitted, full],
+  );
   const excludedKeys = useMemo(() => {
     const out = new Set<string>();
     const ex = new Set(edits.excludedStations);
@@ -618,6 +632,7 @@ export function TraceBoard() {
     setYR(null);
   };
   const seeAllRef = useRef(seeAll);
+  const lastPress = useRef<{ t: number; x: number; y: number } | null>(null);
   seeAllRef.current = seeAll;
   const onRelayout = (e: Record<string, unknown>) => {
     if (e['xaxis.autorange'] || e['yaxis.autorange']) {
@@ -656,6 +671,16 @@ export function TraceBoard() {
       const s = nearest(p.y);
       if (!s) return;
       if (st.tool !== 'pick') {
+        // A second press within 400 ms at the same place: "see all" (Plotly's drag cover takes the
+        // browser's dblclick event, so the two presses are timed here).
+        const now = performance.now();
+        const last = lastPress.current;
+        lastPress.current = { t: now, x: ev.clientX, y: ev.clientY };
+        if (last && now - last.t < 400 && Math.abs(last.x - ev.clientX) < 6 && Math.abs(last.y - ev.clientY) < 6) {
+          lastPress.current = null;
+          seeAllRef.current();
+          return;
+        }
         // Zoom and pan: select on a click that did not move (a re-render during Plotly's drag would end it).
         const x0 = ev.clientX;
         const y0 = ev.clientY;
@@ -713,15 +738,10 @@ export function TraceBoard() {
       if (key !== useApp.getState().view.hoveredInterval) setView({ hoveredInterval: key });
     };
     const onLeave = () => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null });
-    const onDouble = () => {
-      if (useApp.getState().view.tool !== 'pick') seeAllRef.current();
-    };
-    div.addEventListener('dblclick', onDouble);
     div.addEventListener('mousedown', onDown, true);
     div.addEventListener('mousemove', onHover);
     div.addEventListener('mouseleave', onLeave);
     return () => {
-      div.removeEventListener('dblclick', onDouble);
       div.removeEventListener('mousedown', onDown, true);
       div.removeEventListener('mousemove', onHover);
       div.removeEventListener('mouseleave', onLeave);
