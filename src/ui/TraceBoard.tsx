@@ -576,7 +576,7 @@ export function TraceBoard() {
     return {
       ...BASE_LAYOUT,
       margin: { l: 56, r: 12, t: 8, b: 40 },
-      dragmode: view.tool === 'pick' ? false : view.tool,
+      dragmode: view.tool === 'zoom' ? 'zoom' : false,
       xaxis: {
         title: { text: 'Time after trigger (ms)' },
         range: shown ? [shown.t0S * 1000, shown.t1S * 1000] : undefined,
@@ -681,7 +681,54 @@ export function TraceBoard() {
           seeAllRef.current();
           return;
         }
-        // Zoom and pan: select on a click that did not move (a re-render during Plotly's drag would end it).
+        if (st.tool === 'pan') {
+          // Pan is the board's own drag: the traces are decimated and drawn again for the window as it moves.
+          ev.preventDefault();
+          ev.stopPropagation();
+          const fl = (
+            plotDiv as unknown as {
+              _fullLayout: {
+                xaxis: { range: number[]; _length: number };
+                yaxis: { range: number[]; _length: number };
+              };
+            }
+          )._fullLayout;
+          const xr = [...fl.xaxis.range];
+          const yr = [...fl.yaxis.range];
+          const vx = (xr[1] - xr[0]) / fl.xaxis._length;
+          const vy = (yr[0] - yr[1]) / fl.yaxis._length;
+          let frame = 0;
+          let last = { x: ev.clientX, y: ev.clientY };
+          const apply = () => {
+            const dx = (ev.clientX - last.x) * vx;
+            const dy = (last.y - ev.clientY) * vy;
+            setXMs([xr[0] + dx, xr[1] + dx]);
+            setYR([yr[0] - dy, yr[1] - dy]);
+          };
+          const onMove = (e: MouseEvent) => {
+            last = { x: e.clientX, y: e.clientY };
+            if (!frame)
+              frame = requestAnimationFrame(() => {
+                frame = 0;
+                apply();
+              });
+          };
+          const onUp = (e: MouseEvent) => {
+            if (frame) cancelAnimationFrame(frame);
+            window.removeEventListener('mousemove', onMove, true);
+            window.removeEventListener('mouseup', onUp, true);
+            if (Math.abs(e.clientX - ev.clientX) < 3 && Math.abs(e.clientY - ev.clientY) < 3)
+              setView({ selectedStation: s.key, selectedInterval: null });
+            else {
+              last = { x: e.clientX, y: e.clientY };
+              apply();
+            }
+          };
+          window.addEventListener('mousemove', onMove, true);
+          window.addEventListener('mouseup', onUp, true);
+          return;
+        }
+        // Zoom: select on a click that did not move (a re-render during Plotly's drag would end it).
         const x0 = ev.clientX;
         const y0 = ev.clientY;
         const onClickUp = (e: MouseEvent) => {
@@ -738,10 +785,19 @@ export function TraceBoard() {
       if (key !== useApp.getState().view.hoveredInterval) setView({ hoveredInterval: key });
     };
     const onLeave = () => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null });
+    // The browser's double-click may land on Plotly's drag cover (over the whole page): matched by place.
+    const onDouble = (ev: MouseEvent) => {
+      if (useApp.getState().view.tool === 'pick') return;
+      const b = div.getBoundingClientRect();
+      if (ev.clientX >= b.left && ev.clientX <= b.right && ev.clientY >= b.top && ev.clientY <= b.bottom)
+        seeAllRef.current();
+    };
+    window.addEventListener('dblclick', onDouble, true);
     div.addEventListener('mousedown', onDown, true);
     div.addEventListener('mousemove', onHover);
     div.addEventListener('mouseleave', onLeave);
     return () => {
+      window.removeEventListener('dblclick', onDouble, true);
       div.removeEventListener('mousedown', onDown, true);
       div.removeEventListener('mousemove', onHover);
       div.removeEventListener('mouseleave', onLeave);
