@@ -62,7 +62,7 @@ for (const size of SIZES) {
 
     // Zoom: a box in the middle of the board.
     await tool(page, 'Zoom').click();
-    const box = (await page.locator('[data-plot="trace-board"]').boundingBox())!;
+    let box = (await page.locator('[data-plot="trace-board"]').boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.4, box.y + box.height * 0.3);
     await page.mouse.down();
     await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.45, { steps: 4 });
@@ -88,6 +88,8 @@ for (const size of SIZES) {
     expect(all.axis[0]).toBeLessThanOrEqual(0.001);
 
     // Zoom again, then Pan: a drag to the left moves the range to later times; the traces follow.
+    // (The double-click selected a station: its magnified hits now sit beside a narrower board.)
+    box = (await page.locator('[data-plot="trace-board"]').boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.3, box.y + box.height * 0.3);
     await page.mouse.down();
     await page.mouse.move(box.x + box.width * 0.45, box.y + box.height * 0.6, { steps: 6 });
@@ -155,7 +157,7 @@ for (const size of SIZES) {
     await page.screenshot({ path: `${SCREENS}/site-sheet-${tag}.png` });
     await page.getByRole('button', { name: 'Export…' }).click();
     await expect(page.locator('.sheet')).toContainText('Site summary (JSON)');
-    await page.getByRole('button', { name: 'Close' }).click();
+    await page.getByRole('button', { name: 'Close', exact: true }).click();
 
     // A station with reversed hits, selected: magnified beside the board.
     await tool(page, 'Pick').click();

@@ -48,7 +48,7 @@ test('a full session has no console errors', async ({ page }) => {
     await download(page, /^Picks \(CSV\)/);
     await download(page, /^Site summary/);
     await download(page, 'PNG');
-    await page.getByRole('button', { name: 'Close' }).click();
+    await page.getByRole('button', { name: 'Close', exact: true }).click();
     await page.getByRole('button', { name: 'SI', exact: true }).click();
     await page.waitForTimeout(300);
   }
