@@ -80,9 +80,9 @@ for (const size of SIZES) {
 
     // See all (double-click): the whole record on the axis, and the traces drawn over all of it.
     await page.mouse.dblclick(box.x + box.width * 0.5, box.y + box.height * 0.5);
-    await expect.poll(async () => (await boardRanges(page)).axis[1] - (await boardRanges(page)).axis[0]).toBeGreaterThan(
-      (fitted.axis[1] - fitted.axis[0]) * 0.99,
-    );
+    await expect
+      .poll(async () => (await boardRanges(page)).axis[1] - (await boardRanges(page)).axis[0])
+      .toBeGreaterThan((fitted.axis[1] - fitted.axis[0]) * 0.99);
     const all = await boardRanges(page);
     expectSpans(all);
     expect(all.axis[0]).toBeLessThanOrEqual(0.001);
@@ -94,9 +94,9 @@ for (const size of SIZES) {
     await page.mouse.down();
     await page.mouse.move(box.x + box.width * 0.45, box.y + box.height * 0.6, { steps: 6 });
     await page.mouse.up();
-    await expect.poll(async () => (await boardRanges(page)).axis[1] - (await boardRanges(page)).axis[0]).toBeLessThan(
-      0.5 * (all.axis[1] - all.axis[0]),
-    );
+    await expect
+      .poll(async () => (await boardRanges(page)).axis[1] - (await boardRanges(page)).axis[0])
+      .toBeLessThan(0.5 * (all.axis[1] - all.axis[0]));
     const before = await boardRanges(page);
     await tool(page, 'Pan').click();
     await page.mouse.move(box.x + box.width * 0.6, box.y + box.height * 0.5);
@@ -110,9 +110,9 @@ for (const size of SIZES) {
 
     // "Fit" returns to the window fitted to the arrivals.
     await tool(page, 'Fit').click();
-    await expect.poll(async () => (await boardRanges(page)).axis.map((v) => Math.round(v))).toEqual(
-      fitted.axis.map((v) => Math.round(v)),
-    );
+    await expect
+      .poll(async () => (await boardRanges(page)).axis.map((v) => Math.round(v)))
+      .toEqual(fitted.axis.map((v) => Math.round(v)));
 
     // Layout: no horizontal overflow, a one-line top bar.
     const layout = await page.evaluate(() => ({
@@ -195,11 +195,10 @@ test('display gains, clip and style redraw the board; excluded traces are greyed
   await page.keyboard.press('x');
   await expect
     .poll(() =>
-      page.evaluate(
-        () =>
-          (document.querySelector('[data-plot="trace-board"]') as HTMLElement & { data: { name?: string }[] }).data.some(
-            (t) => t.name === 'excluded traces',
-          ),
+      page.evaluate(() =>
+        (document.querySelector('[data-plot="trace-board"]') as HTMLElement & { data: { name?: string }[] }).data.some(
+          (t) => t.name === 'excluded traces',
+        ),
       ),
     )
     .toBe(true);

@@ -10,7 +10,10 @@ import { waitProcessed } from './helpers';
 async function download(page: Page, name: RegExp | string) {
   const [dl] = await Promise.all([
     page.waitForEvent('download'),
-    page.getByRole('button', { name, exact: typeof name === 'string' }).first().click(),
+    page
+      .getByRole('button', { name, exact: typeof name === 'string' })
+      .first()
+      .click(),
   ]);
   expect(dl.suggestedFilename().length).toBeGreaterThan(0);
 }

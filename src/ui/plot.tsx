@@ -113,8 +113,8 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
       cancelAnimationFrame(frame);
       frame = requestAnimationFrame(() => {
         const gd = div as unknown as { _fullLayout?: unknown };
-        if (l.mounted && div.isConnected && gd._fullLayout && div.clientWidth > 0 && div.clientHeight > 0)
-          void Promise.resolve(Plotly.Plots.resize(div as never) as unknown).catch(() => undefined);
+        if (plotly && l.mounted && div.isConnected && gd._fullLayout && div.clientWidth > 0 && div.clientHeight > 0)
+          void Promise.resolve(plotly.Plots.resize(div as never) as unknown).catch(() => undefined);
       });
     });
     ro.observe(div);
