@@ -286,7 +286,9 @@ function TopBar() {
         ) : status.state === 'failed' ? (
           <span className="error">processing failed: {status.error?.message}</span>
         ) : status.state === 'done' ? (
-          <>picks up to date{status.elapsedMs ? ` (${(status.elapsedMs / 1000).toFixed(1)} s)` : ''}</>
+          <span title={status.elapsedMs ? `processed in ${(status.elapsedMs / 1000).toFixed(1)} s` : undefined}>
+            picks up to date
+          </span>
         ) : status.state === 'cancelled' ? (
           'auto-pick stopped'
         ) : null}

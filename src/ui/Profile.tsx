@@ -663,7 +663,10 @@ export function ProfilePane() {
         · bars ±1 sd
       </div>
       <CurrentSetupProblems />
-      <div className={d?.site.setupIncomplete ? 'blocked-results' : undefined} data-blocked={!!d?.site.setupIncomplete}>
+      <div
+        className={`profile-plot-box ${d?.site.setupIncomplete ? 'blocked-results' : ''}`}
+        data-blocked={!!d?.site.setupIncomplete}
+      >
         <ProfilePlot />
       </div>
       <IntervalsTable />
