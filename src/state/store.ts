@@ -69,8 +69,6 @@ export interface ViewState {
   agcMs: number;
   /** Clip level, in trace spacings (a wiggle never swings further than this). */
   clip: number;
-  /** Trace board time window chosen by the user, ms ([from, to]); null = fitted to the arrivals. */
-  timeWindowMs: [number, number] | null;
   /** Profile: draw the Vp column. */
   showVp: boolean;
   hitView: HitView;
@@ -133,7 +131,6 @@ export function initialView(): ViewState {
     gain: 1,
     agcMs: 20,
     clip: 1,
-    timeWindowMs: null,
     showVp: true,
     hitView: 'working',
     renderer: 'auto',
