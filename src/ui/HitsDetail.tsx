@@ -86,8 +86,8 @@ export function HitsDetail({ station, picks, kind, depthLabel, onClose }: Props)
         <strong>
           {station.key} · {depthLabel}
         </strong>
-        <button className="link" onClick={onClose} aria-label="Close the magnified hits">
-          close
+        <button className="link" onClick={onClose} aria-label="Hide the magnified hits">
+          hide
         </button>
       </div>
       <div className="hits-legend small muted">
