@@ -33,8 +33,11 @@ test('a full session has no console errors', async ({ page }) => {
     await button.click();
     await waitProcessed(page);
     for (let i = 0; i < 3; i++) {
-      await page.getByRole('tab', { name: 'Geometry' }).click();
-      await expect(page.getByRole('tab', { name: 'Geometry' })).toHaveAttribute('aria-selected', 'true');
+      const geometry = page.getByRole('tab', { name: 'Geometry' });
+      await expect(async () => {
+        await geometry.click();
+        await expect(geometry).toHaveAttribute('aria-selected', 'true', { timeout: 1000 });
+      }).toPass({ timeout: 15_000 });
       await page.getByRole('tab', { name: 'Trace board' }).click();
       await expect(page.locator('[data-plot="trace-board"]')).toBeVisible();
     }
