@@ -4,9 +4,9 @@
  * trace under them, in a window fitted to the station's pulse.
  */
 import { useMemo } from 'react';
-import { reversedDirections } from '../core/catalogue/testKinds';
-import type { Pick as WavePick, TestKind } from '../core/model';
-import type { Station } from '../core/survey/stations';
+import { reversedDirections } from '../core';
+import type { Pick as WavePick, TestKind } from '../core';
+import type { Station } from '../core';
 import { rawRecords } from '../state/raw';
 import { normalisedLine, tracePulseWindow } from './PairCheck';
 import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';

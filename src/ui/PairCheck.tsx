@@ -12,7 +12,7 @@ import { useApp, useResults } from '../state/store';
 import { decimateMinMax, mean, peakAbs } from './decimate';
 import { focusInterval, pickFor } from './picks';
 import { pulseWindow } from './traceDisplay';
-import type { WorkingTrace } from '../core/model';
+import type { WorkingTrace } from '../core';
 
 /** How far after an onset the pulse's main peak is looked for, s (common practice for 20–200 Hz pulses). */
 const PEAK_LOOK_S = 0.03;

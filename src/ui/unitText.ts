@@ -3,7 +3,7 @@
  * On screen in US units they are rewritten with the same conversions as every table (core/units):
  * lengths in ft, velocities in ft/s. Station keys (d12.0) are identifiers, not lengths, and stay as they are.
  */
-import { toDisplay, unitSpec, type UnitSystem } from '../core/units';
+import { toDisplay, unitSpec, type UnitSystem } from '../core';
 
 const VELOCITY = /(-?\d+(?:\.\d+)?) ?m\/s\b/g;
 // A length: a number, a space and "m" not followed by a letter, digit, slash or power (m/s, ms, m², m³).
