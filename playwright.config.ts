@@ -27,8 +27,11 @@ export default defineConfig({
       ],
     },
   },
+  // E2E_DEV=1: the same tests against the dev server (`vite`), e.g. for the console-error check.
   webServer: {
-    command: `npx vite build && npx vite build --mode single && npx vite preview --host 127.0.0.1 --port ${port} --strictPort`,
+    command: process.env.E2E_DEV
+      ? `npx vite --host 127.0.0.1 --port ${port} --strictPort`
+      : `npx vite build && npx vite build --mode single && npx vite preview --host 127.0.0.1 --port ${port} --strictPort`,
     url: `http://127.0.0.1:${port}`,
     reuseExistingServer: false,
     timeout: 180_000,

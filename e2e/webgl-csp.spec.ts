@@ -48,6 +48,7 @@ test('the Trace board draws scattergl traces on a WebGL canvas with no CSP viola
   expect(webgl).toBe(true);
   await page.locator('button[data-demo="downhole"]').click();
   await waitProcessed(page);
+  await page.locator('.board-display summary').click();
   await page.getByLabel('Renderer').selectOption('webgl');
   const board = page.locator('[data-plot="trace-board"]');
   await expect

@@ -29,6 +29,14 @@ export function addScriptSources(html: string, sources: string[]): string {
   );
 }
 
+/**
+ * The dev server's policy (never shipped): inline scripts for its preamble, and connections back to the
+ * page's own origin including the live-reload WebSocket. The production pages keep connect-src 'none'.
+ */
+export function devCsp(html: string): string {
+  return addScriptSources(html, ["'unsafe-inline'"]).replace(/connect-src 'none'/, "connect-src 'self' ws: wss:");
+}
+
 export function cspHashes(): Plugin {
   return {
     name: 'borewave-csp-hashes',
@@ -36,8 +44,8 @@ export function cspHashes(): Plugin {
     transformIndexHtml: {
       order: 'post',
       handler(html, ctx) {
-        // Dev server only: its injected preamble changes per session.
-        return ctx.server ? addScriptSources(html, ["'unsafe-inline'"]) : html;
+        // Dev server only: its injected preamble changes per session, and its live-reload socket must connect.
+        return ctx.server ? devCsp(html) : html;
       },
     },
     generateBundle: {

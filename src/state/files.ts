@@ -34,8 +34,22 @@ const ZIP_NAME = /\.zip$/i;
 
 /** A new session starts with a fresh selection but keeps how the user likes to look at traces. */
 function keepViewPrefs(v: ViewState): ViewState {
-  const { recordsOpen, fill, normalise, gain, hitView, tool, snap, renderer } = v;
-  return { ...initialView(), recordsOpen, fill, normalise, gain, hitView, tool, snap, renderer };
+  const { recordsOpen, fill, normalise, gain, hitView, tool, snap, renderer, agcMs, clip, showVp } = v;
+  const d = initialView();
+  return {
+    ...d,
+    recordsOpen,
+    fill,
+    normalise,
+    gain,
+    hitView,
+    tool,
+    snap,
+    renderer,
+    agcMs: agcMs ?? d.agcMs,
+    clip: clip ?? d.clip,
+    showVp: showVp ?? d.showVp,
+  };
 }
 
 /** "time column Time (us), unit us; sample interval from time column" for text files. */

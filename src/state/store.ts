@@ -62,8 +62,15 @@ export interface ViewState {
   tool: TraceTool;
   snap: boolean;
   fill: boolean;
-  normalise: 'trace' | 'common';
+  /** Trace board amplitude: peak of each trace, one common peak, automatic gain control, or t-power gain. */
+  normalise: 'trace' | 'common' | 'agc' | 'tvg';
   gain: number;
+  /** Automatic gain control window, ms. */
+  agcMs: number;
+  /** Clip level, in trace spacings (a wiggle never swings further than this). */
+  clip: number;
+  /** Profile: draw the Vp column. */
+  showVp: boolean;
   hitView: HitView;
   /** Trace board drawing: WebGL for many traces on a GPU ('auto'), or forced. */
   renderer: 'auto' | 'svg' | 'webgl';
@@ -122,6 +129,9 @@ export function initialView(): ViewState {
     fill: true,
     normalise: 'trace',
     gain: 1,
+    agcMs: 20,
+    clip: 1,
+    showVp: true,
     hitView: 'working',
     renderer: 'auto',
     recordsOpen: true,

@@ -2,7 +2,8 @@
  * The one window: top bar, Records (left), Trace board or Geometry (centre), Profile (right, always
  * visible) with the Site and Export sheets over it, and the bottom strip with Pair check and Travel time.
  */
-import { memo, useDeferredValue, useEffect, useRef } from 'react';
+import { memo, useDeferredValue, useEffect, useRef, useState } from 'react';
+import { unitText } from './unitText';
 import type { Derived } from '../core';
 import type { UnitSystem } from '../core';
 import type { Station, Survey, Wave } from '../core';
@@ -285,7 +286,9 @@ function TopBar() {
         ) : status.state === 'failed' ? (
           <span className="error">processing failed: {status.error?.message}</span>
         ) : status.state === 'done' ? (
-          <>picks up to date{status.elapsedMs ? ` (${(status.elapsedMs / 1000).toFixed(1)} s)` : ''}</>
+          <span title={status.elapsedMs ? `processed in ${(status.elapsedMs / 1000).toFixed(1)} s` : undefined}>
+            picks up to date
+          </span>
         ) : status.state === 'cancelled' ? (
           'auto-pick stopped'
         ) : null}
@@ -340,21 +343,29 @@ function RestoreBanner() {
 function Messages() {
   const messages = useApp((s) => s.messages);
   const d = useDerived();
+  const units = useUnits();
   const issues = d?.issues ?? [];
+  const [open, setOpen] = useState(false);
   if (!messages.length && !issues.length) return null;
+  const count = messages.length + Math.min(issues.length, 4);
   return (
-    <div className="messages" role="status">
+    <div className={`messages ${open ? 'open' : ''}`} role="status">
+      {(count > 1 || open) && (
+        <button className="link messages-toggle" onClick={() => setOpen(!open)} aria-expanded={open}>
+          {open ? 'fewer lines' : 'show in full'}
+        </button>
+      )}
       {messages.map((m, i) => (
-        <div key={`m${i}`} className="error">
-          {m.message}{' '}
+        <div key={`m${i}`} className="error" title={unitText(m.message, units)}>
+          {unitText(m.message, units)}{' '}
           <button className="link" onClick={() => dismissMessage(i)}>
             dismiss
           </button>
         </div>
       ))}
       {issues.slice(0, 4).map((m, i) => (
-        <div key={`i${i}`} className="warn">
-          {m.message}
+        <div key={`i${i}`} className="warn" title={unitText(m.message, units)}>
+          {unitText(m.message, units)}
         </div>
       ))}
       {issues.length > 4 && <div className="warn">…and {issues.length - 4} more problems.</div>}
@@ -460,6 +471,57 @@ const PrintBody = memo(function PrintBody({
   );
 });
 
+/**
+ * A drag handle that resizes a pane: sets a CSS size variable on the app (--left-w, --right-w,
+ * --strip-h) in px, within limits that keep every pane usable.
+ */
+function Splitter({
+  cssVar,
+  axis,
+  sign,
+  min,
+  max,
+}: {
+  cssVar: string;
+  axis: 'col' | 'row';
+  sign: 1 | -1;
+  min: number;
+  max: number;
+}) {
+  const [dragging, setDragging] = useState(false);
+  const onDown = (ev: React.MouseEvent<HTMLDivElement>) => {
+    const app = ev.currentTarget.closest('.app') as HTMLElement | null;
+    const pane = ev.currentTarget.parentElement;
+    if (!app || !pane) return;
+    ev.preventDefault();
+    const start = axis === 'col' ? ev.clientX : ev.clientY;
+    const size0 = axis === 'col' ? pane.getBoundingClientRect().width : pane.getBoundingClientRect().height;
+    setDragging(true);
+    const onMove = (e: MouseEvent) => {
+      const pos = axis === 'col' ? e.clientX : e.clientY;
+      const size = Math.max(min, Math.min(max, size0 + sign * (pos - start)));
+      app.style.setProperty(cssVar, `${Math.round(size)}px`);
+    };
+    const onUp = () => {
+      setDragging(false);
+      window.removeEventListener('mousemove', onMove);
+      window.removeEventListener('mouseup', onUp);
+    };
+    window.addEventListener('mousemove', onMove);
+    window.addEventListener('mouseup', onUp);
+  };
+  return (
+    <div
+      className={`splitter ${axis} ${dragging ? 'dragging' : ''}`}
+      role="separator"
+      aria-orientation={axis === 'col' ? 'vertical' : 'horizontal'}
+      aria-label="Drag to resize"
+      style={axis === 'col' ? (sign === 1 ? { right: -3 } : { left: -3 }) : undefined}
+      onMouseDown={onDown}
+    />
+  );
+}
+
 export function App() {
   // Only the fields the frame needs: the panes read the rest themselves, so an edit does not re-render all.
   const recordsOpen = useApp((s) => s.view.recordsOpen);
@@ -515,12 +577,14 @@ export function App() {
           {view.centre === 'traces' ? <TraceBoard /> : view.centre === 'geometry' ? <GeometryPane /> : <DesignPane />}
         </div>
         <div className="right">
+          <Splitter cssVar="--right-w" axis="col" sign={-1} min={380} max={900} />
           <ProfilePane />
           {view.sheet === 'site' && <SiteSheet />}
           {view.sheet === 'export' && <ExportSheet />}
         </div>
       </main>
       <footer className="strip">
+        <Splitter cssVar="--strip-h" axis="row" sign={-1} min={120} max={520} />
         <PairCheck />
         <TravelTime />
       </footer>

@@ -10,7 +10,23 @@ import { useDerived } from '../state/derived';
 import { rawRecords } from '../state/raw';
 import { useApp, useResults } from '../state/store';
 import { decimateMinMax, mean, peakAbs } from './decimate';
-import { focusInterval } from './picks';
+import { focusInterval, pickFor } from './picks';
+import { pulseWindow } from './traceDisplay';
+import type { WorkingTrace } from '../core';
+
+/** How far after an onset the pulse's main peak is looked for, s (common practice for 20–200 Hz pulses). */
+const PEAK_LOOK_S = 0.03;
+
+/** The window fitted to a working trace's pulse from its onset pick, else from its search window. */
+export function tracePulseWindow(
+  w: WorkingTrace,
+  onsetS: number | undefined,
+  shiftS = 0,
+): { t0S: number; t1S: number } {
+  const onset = onsetS ?? w.searchStartS;
+  const r = pulseWindow(w.samples, w.delayS, w.sampleIntervalS, onset, PEAK_LOOK_S);
+  return { t0S: r.t0S - shiftS, t1S: r.t1S - shiftS };
+}
 import { BASE_LAYOUT, COLOURS, Plot, type PlotData } from './plot';
 import { fmt, label, useUnits } from './units';
 
@@ -53,6 +69,8 @@ function normalisedLine(
   };
 }
 
+export { normalisedLine };
+
 export function PairCheck() {
   const prepared = useResults((s) => s.prepared);
   const view = useApp((s) => s.view);
@@ -70,9 +88,12 @@ export function PairCheck() {
     if (pair && chosen && chosen.dtS !== null) {
       const a = pair.a.working;
       const b = pair.b.working;
-      const centre = a.searchStartS;
-      const t0 = Math.max(a.delayS, centre - 0.3 * (a.searchEndS - a.searchStartS) - 0.005);
-      const t1 = Math.min(a.delayS + (a.samples.length - 1) * a.sampleIntervalS, a.searchEndS + 0.01);
+      // Fitted to the two pulses: the upper trace's pulse and the lower one's, shifted back by Δt.
+      const picks = d?.picks ?? [];
+      const wa = tracePulseWindow(a, pickFor(picks, pair.a.key, pair.wave, 'onset')?.timeS);
+      const wb = tracePulseWindow(b, pickFor(picks, pair.b.key, pair.wave, 'onset')?.timeS, chosen.dtS);
+      const t0 = Math.min(wa.t0S, wb.t0S);
+      const t1 = Math.max(wa.t1S, wb.t1S);
       const colour = pair.wave === 'S' ? COLOURS.S : COLOURS.P;
       out.push(
         normalisedLine(a.samples, a.delayS, a.sampleIntervalS, 0, t0, t1, undefined, COLOURS.ink, 'upper trace'),
@@ -94,8 +115,10 @@ export function PairCheck() {
     if (station && station.hits.length > 1) {
       const [first] = reversedDirections(kind);
       const w = station.working;
-      const t0 = Math.max(w.delayS, w.searchStartS - 0.005);
-      const t1 = Math.min(w.delayS + (w.samples.length - 1) * w.sampleIntervalS, w.searchEndS + 0.01);
+      const { t0S: t0, t1S: t1 } = tracePulseWindow(
+        w,
+        pickFor(d?.picks ?? [], station.key, station.wave, 'onset')?.timeS,
+      );
       for (const h of station.hits) {
         const tr = rawRecords.get(h.recordId)?.traces.find((t) => t.channel === h.channel);
         if (!tr) continue;
@@ -117,7 +140,7 @@ export function PairCheck() {
       }
     }
     return out;
-  }, [pair, chosen, station, kind]);
+  }, [pair, chosen, station, kind, d?.picks]);
 
   const layout = useMemo(
     () => ({

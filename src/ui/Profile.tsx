@@ -3,6 +3,7 @@
  * comparison table (every method's interval velocity, the one used, flags as short words).
  */
 import { CurrentSetupProblems } from './Setup';
+import { unitText } from './unitText';
 import { memo, useMemo, useRef, useState } from 'react';
 import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core';
 import type { IntervalKey, StationKey } from '../core';
@@ -71,6 +72,7 @@ export function ProfilePlot() {
   const units = useUnits();
   const hoveredKey = useApp((s) => s.view.hoveredInterval);
   const comparison = useApp((s) => s.comparison);
+  const showVp = useApp((s) => s.view.showVp);
   // Memoised on the profile array itself: the late Vs30 spread (same profile) does not redraw the plot.
   const profile = d?.profile;
   const intervals = d?.intervals;
@@ -116,6 +118,8 @@ export function ProfilePlot() {
         name: 'Vp',
         x: vp.x,
         y: vp.y,
+        xaxis: 'x4',
+        visible: showVp,
         line: { color: COLOURS.P, width: 1.6, dash: 'dash' },
         hoverinfo: 'skip',
       },
@@ -123,6 +127,8 @@ export function ProfilePlot() {
         type: 'scatter',
         mode: 'none',
         name: 'Vp ± 1 sd',
+        xaxis: 'x4',
+        visible: showVp,
         x: withVp.map((r) => disp('velocity', units, r.vpMps!)),
         y: withVp.map((r) => disp('depth', units, r.midM)),
         error_x: {
@@ -187,7 +193,7 @@ export function ProfilePlot() {
       });
     }
     return out;
-  }, [rows, units, comparison]);
+  }, [rows, units, comparison, showVp]);
 
   const [bandTopM, bandBottomM] = hoveredBand(intervals, hoveredKey);
   const layout = useMemo(() => {
@@ -196,15 +202,30 @@ export function ProfilePlot() {
       ...BASE_LAYOUT,
       uirevision: 'profile',
       margin: { l: 48, r: 10, t: 44, b: 8 },
-      xaxis: { domain: [0, 0.5], title: { text: `Vs, Vp (${v})`, standoff: 4 }, ...TOP_AXIS },
+      // Vs and Vp on their own axes: a noisy Vp (thousands of m/s) never squeezes the Vs column.
+      xaxis: { domain: showVp ? [0, 0.32] : [0, 0.5], title: { text: `Vs (${v})`, standoff: 4 }, ...TOP_AXIS },
+      xaxis4: {
+        domain: [0.38, 0.6],
+        title: { text: `Vp (${v})`, standoff: 4 },
+        ...TOP_AXIS,
+        nticks: 3,
+        anchor: 'y',
+        visible: showVp,
+      },
       xaxis2: {
-        domain: [0.56, 0.77],
+        domain: showVp ? [0.66, 0.81] : [0.56, 0.77],
         title: { text: `Gmax (${label('modulus', units)})`, standoff: 4 },
         ...TOP_AXIS,
         nticks: 3,
         anchor: 'y',
       },
-      xaxis3: { domain: [0.83, 1], title: { text: `Vs1 (${v})`, standoff: 4 }, ...TOP_AXIS, nticks: 3, anchor: 'y' },
+      xaxis3: {
+        domain: showVp ? [0.86, 1] : [0.83, 1],
+        title: { text: `Vs1 (${v})`, standoff: 4 },
+        ...TOP_AXIS,
+        nticks: 3,
+        anchor: 'y',
+      },
       yaxis: {
         title: { text: `Depth (${label('depth', units)})` },
         autorange: 'reversed',
@@ -229,7 +250,7 @@ export function ProfilePlot() {
             ]
           : [],
     };
-  }, [bandTopM, bandBottomM, units]);
+  }, [bandTopM, bandBottomM, units, showVp]);
 
   const wave = useApp((s) => s.view.wave);
   const onMove = (ev: React.MouseEvent<HTMLDivElement>) => {
@@ -324,7 +345,9 @@ const IntervalRow = memo(
             {p.compare?.diff ?? '–'}
           </td>
         )}
-        <td className="flags">{p.flags}</td>
+        <td className="flags" title={p.flags}>
+          {p.flags}
+        </td>
         {p.cells.map((c) => (
           <td key={c.method} className={c.chosen ? 'chosen' : ''} data-method={c.method}>
             {c.chosen ? '● ' : ''}
@@ -406,6 +429,7 @@ export function IntervalsTable() {
             }
           : null;
         const flags = [...new Set([...(g.chosen?.flags ?? []), ...(excluded ? ['omitted'] : [])])].join(', ');
+        const flagText = unitText(flags, units);
         const top = fmt('depth', units, g.topM);
         const bottom = fmt('depth', units, g.bottomM);
         const stationB = g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null;
@@ -421,7 +445,7 @@ export function IntervalsTable() {
           stationB,
           compare,
           showCompare,
-          flags,
+          flagText,
         ]);
         return {
           sig,
@@ -437,7 +461,7 @@ export function IntervalsTable() {
           stationB,
           compare,
           showCompare,
-          flags,
+          flags: flagText,
         };
       }),
     [list, methods, edits.chosenMethod, edits.excludedIntervals, units, cmp, showCompare, profileMethod, dep],
@@ -605,6 +629,7 @@ export function ComparisonControl() {
 
 export function ProfilePane() {
   const d = useDerived();
+  const showVp = useApp((s) => s.view.showVp);
   const units = useUnits();
   const vs30 = d?.site.vs30;
   return (
@@ -624,7 +649,11 @@ export function ProfilePane() {
       </div>
       <ComparisonControl />
       <div className="pane-note" aria-label="Profile legend">
-        <span style={{ color: COLOURS.S }}>━ Vs</span> · <span style={{ color: COLOURS.P }}>╍ Vp</span>
+        <span style={{ color: COLOURS.S }}>━ Vs</span> ·{' '}
+        <label title="Show or hide the Vp column">
+          <input type="checkbox" checked={showVp} onChange={(e) => setView({ showVp: e.target.checked })} />{' '}
+          <span style={{ color: COLOURS.P }}>╍ Vp</span>
+        </label>
         {d?.comparison ? (
           <>
             {' '}
@@ -634,7 +663,10 @@ export function ProfilePane() {
         · bars ±1 sd
       </div>
       <CurrentSetupProblems />
-      <div className={d?.site.setupIncomplete ? 'blocked-results' : undefined} data-blocked={!!d?.site.setupIncomplete}>
+      <div
+        className={`profile-plot-box ${d?.site.setupIncomplete ? 'blocked-results' : ''}`}
+        data-blocked={!!d?.site.setupIncomplete}
+      >
         <ProfilePlot />
       </div>
       <IntervalsTable />

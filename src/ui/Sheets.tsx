@@ -3,6 +3,7 @@
  * questions each standard asks beyond Vs30, cautions) and Export (tables from core/report, plots as
  * images, the project archive, a printable summary).
  */
+import { unitText } from './unitText';
 import { hasDirectVelocities } from '../core';
 import { CurrentSetupProblems } from './Setup';
 import { siteQuestions, STANDARD_NAMES, type SiteStandard } from '../core';
@@ -84,7 +85,7 @@ export function SiteSheet() {
             averaged over {fmt('depth', units, vs30.toDepthM)} {label('depth', units)}
             {vs30.extended ? ' (deepest velocity extended to 30 m)' : ''}; profile to{' '}
             {fmt('depth', units, vs30.profileDepthM)} {label('depth', units)}
-            {vs30.flags.length ? ` · ${vs30.flags.join(', ')}` : ''}
+            {vs30.flags.length ? ` · ${unitText(vs30.flags.join(', '), units)}` : ''}
           </p>
           {spreadPending && !u && (
             <p className="muted" data-testid="spread-updating">
@@ -99,13 +100,15 @@ export function SiteSheet() {
             </p>
           )}
           <label>
-            Profile shorter than 30 m{' '}
+            Profile shorter than {fmt('depth', units, 30)} {label('depth', units)}{' '}
             <select
               value={settings.site.vs30Rule}
               onChange={(e) => updateSettings({ site: { vs30Rule: e.target.value as Vs30RuleSetting } })}
             >
               <option value="no-extrapolation">average over the measured depth only</option>
-              <option value="extend-deepest">extend the deepest velocity to 30 m</option>
+              <option value="extend-deepest">
+                extend the deepest velocity to {fmt('depth', units, 30)} {label('depth', units)}
+              </option>
             </select>
           </label>
           <table className="num site-classes">

@@ -18,9 +18,11 @@ import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
 import { setView, useApp, useResults } from '../state/store';
 import { decimateMinMax, dropFlatRuns, mean, medianStep, peakAbs } from './decimate';
-import { boardStations, effectiveReceiver, pickFor, receiversOf } from './picks';
+import { boardStations, effectiveReceiver, isMethod, pickFor, receiversOf, workingTraceLabel } from './picks';
+import { HitsDetail } from './HitsDetail';
+import { agc, fittedWindow, timeVariantGain } from './traceDisplay';
 import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
-import { disp, label, useUnits } from './units';
+import { disp, fmt, label, useUnits } from './units';
 import { hardwareWebgl } from './gl';
 
 /** Above this many traces the wiggles are drawn with WebGL (scattergl) when the GPU does the drawing. */
@@ -28,8 +30,25 @@ export const WEBGL_TRACE_THRESHOLD = 40;
 
 /** Excluded-pick cross: a grey dark enough to see on the wiggles, still clearly not a pick colour. */
 const EXCLUDED_GREY = '#616e7c';
+/** An excluded station's trace. */
+const GREYED_TRACE = '#b8c2cc';
 
-const BOARD_CONFIG = { doubleClick: 'reset' };
+// Double-click and the axis buttons are handled by the board itself ("see all" = whole record, every
+// station), so the drawn traces are always decimated for the window on screen.
+const BOARD_CONFIG = {
+  doubleClick: false,
+  // Zoom and pan are the board's own tools (Pick / Zoom / Pan), so the mode bar keeps only zoom in/out.
+  modeBarButtonsToRemove: [
+    'lasso2d',
+    'select2d',
+    'toImage',
+    'sendDataToCloud',
+    'autoScale2d',
+    'resetScale2d',
+    'zoom2d',
+    'pan2d',
+  ],
+};
 const OVERLAY_CONFIG = { staticPlot: true, responsive: true };
 
 interface Range {
@@ -55,8 +74,14 @@ interface WiggleInput {
   columns: number;
   stepDisp: number;
   depthOf: (s: Station) => number;
-  normalise: 'trace' | 'common';
+  normalise: 'trace' | 'common' | 'agc' | 'tvg';
+  /** Samples after the display gain (AGC or t-power) per station key, when that mode is on. */
+  gained: ReadonlyMap<string, Float64Array> | null;
+  /** Station keys whose pick is excluded: drawn greyed. */
+  excluded: ReadonlySet<string>;
   gain: number;
+  /** Clip level in trace spacings. */
+  clip: number;
   fill: boolean;
   hitView: 'working' | 'both';
   kind: TestKind;
@@ -70,11 +95,17 @@ interface WiggleInput {
 function wiggles(inp: WiggleInput): PlotData[] {
   const { stations, range, columns, stepDisp, gain } = inp;
   const halfAmp = 0.5 * stepDisp * gain;
-  const clip = 0.95 * stepDisp;
+  const clip = inp.clip * stepDisp;
   const type = inp.gl ? 'scattergl' : 'scatter';
   const commonPeak =
     inp.normalise === 'common' ? Math.max(1e-30, ...stations.map((s) => peakAbs(s.working.samples))) : 0;
-  const parts = { solid: [] as number[][], dashed: [] as number[][], lobes: [] as number[][], hatch: [] as number[][] };
+  const parts = {
+    solid: [] as number[][],
+    dashed: [] as number[][],
+    lobes: [] as number[][],
+    hatch: [] as number[][],
+    greyed: [] as number[][],
+  };
   const push = (arr: number[][], t: Float64Array, y: Float64Array, n: number) => {
     const xs: number[] = new Array(n + 1);
     const ys: number[] = new Array(n + 1);
@@ -109,13 +140,15 @@ function wiggles(inp: WiggleInput): PlotData[] {
       continue;
     }
     const w = s.working;
-    const peak = inp.normalise === 'common' ? commonPeak : Math.max(1e-30, peakAbs(w.samples));
-    const dec = decimateMinMax(w.samples, w.delayS, w.sampleIntervalS, range.t0S, range.t1S, columns);
+    const samples = inp.gained?.get(s.key) ?? w.samples;
+    const peak = inp.normalise === 'common' ? commonPeak : Math.max(1e-30, peakAbs(samples));
+    const dec = decimateMinMax(samples, w.delayS, w.sampleIntervalS, range.t0S, range.t1S, columns);
     const y = new Float64Array(dec.length);
     for (let i = 0; i < dec.length; i++) y[i] = base - Math.max(-clip, Math.min(clip, (dec.v[i] / peak) * halfAmp));
     const d = { t: dec.t, length: dropFlatRuns(dec.t, y, dec.length, inp.flatTolY) };
-    push(parts.solid, d.t, y, d.length);
-    if (inp.fill && d.length > 1) {
+    const greyed = inp.excluded.has(s.key);
+    push(greyed ? parts.greyed : parts.solid, d.t, y, d.length);
+    if (inp.fill && !greyed && d.length > 1) {
       if (inp.gl) {
         // WebGL: the positive lobes as one short vertical stroke per pixel column (reads as a fill;
         // a 'toself' fill of hundreds of segments is very slow in the WebGL renderer).
@@ -201,6 +234,19 @@ function wiggles(inp: WiggleInput): PlotData[] {
     name: 'wiggles',
     connectgaps: false,
   });
+  if (parts.greyed.length) {
+    // Traces whose pick is excluded: pale grey, no fill (still readable, clearly out of the result).
+    out.push({
+      type,
+      mode: 'lines',
+      x: flat(parts.greyed, 0),
+      y: flat(parts.greyed, 1),
+      line: { width: 1, color: GREYED_TRACE },
+      hoverinfo: 'skip',
+      name: 'excluded traces',
+      connectgaps: false,
+    });
+  }
   if (parts.dashed.length) {
     out.push({
       type,
@@ -248,6 +294,33 @@ function intervalAtDepth(
   return null;
 }
 
+/** A number input that commits on Enter or leaving the field (typing does not redraw at every key). */
+function NumberBox({ value, label, onCommit }: { value: number; label: string; onCommit: (v: number) => void }) {
+  const [text, setText] = useState<string | null>(null);
+  const commitText = () => {
+    if (text === null) return;
+    const v = Number(text);
+    setText(null);
+    if (Number.isFinite(v)) onCommit(v);
+  };
+  return (
+    <input
+      className="num"
+      type="text"
+      inputMode="decimal"
+      size={5}
+      aria-label={label}
+      value={text ?? value.toFixed(value >= 100 ? 0 : 1)}
+      onChange={(e) => setText(e.target.value)}
+      onBlur={commitText}
+      onKeyDown={(e) => {
+        if (e.key === 'Enter') commitText();
+        if (e.key === 'Escape') setText(null);
+      }}
+    />
+  );
+}
+
 export function TraceBoard() {
   const prepared = useResults((s) => s.prepared);
   const status = useResults((s) => s.status);
@@ -259,7 +332,13 @@ export function TraceBoard() {
   // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw the board.
   const picks = derived?.picks;
   const intervals = derived?.intervals;
-  const [range, setRange] = useState<Range | null>(null);
+  // The user's view: time range (ms) and depth range (display units, [bottom, top]); null = the default
+  // (time fitted to the arrivals, every station). Always applied as explicit axis ranges, so the traces
+  // are decimated for exactly the window on screen.
+  const [xMs, setXMs] = useState<[number, number] | null>(null);
+  const [yR, setYR] = useState<[number, number] | null>(null);
+  const [hitsOpen, setHitsOpen] = useState(true);
+  useEffect(() => setHitsOpen(true), [view.selectedStation]);
   const [width, setWidth] = useState(900);
   const [height, setHeight] = useState(600);
   const wrapRef = useRef<HTMLDivElement>(null);
@@ -272,15 +351,64 @@ export function TraceBoard() {
   const receiver = effectiveReceiver(allStations, wave, view.receiver);
   const stations = useMemo(() => boardStations(allStations, wave, receiver), [allStations, wave, receiver]);
   const full = useMemo(() => fullRange(stations), [stations]);
-  const shown = range ?? full;
+  // Fitted once per board (wave, receiver, records) and when the first picks arrive, not on every edit.
+  const picksRef = useRef(picks);
+  picksRef.current = picks;
+  const hasPicks = !!picks;
+  const fitted = useMemo(() => {
+    const keys = new Set(stations.map((s) => s.key));
+    const times = (picksRef.current ?? [])
+      .filter((p) => keys.has(p.stationKey) && p.wave === wave && isMethod(p, 'onset'))
+      .map((p) => p.timeS);
+    return fittedWindow(
+      stations.map((s) => ({
+        startS: s.working.delayS,
+        endS: s.working.delayS + (s.working.samples.length - 1) * s.working.sampleIntervalS,
+        searchStartS: s.working.searchStartS,
+        searchEndS: s.working.searchEndS,
+      })),
+      times,
+    );
+  }, [stations, wave, hasPicks]);
+  // Memoised: a new object on every render would decimate and draw again after every draw.
+  const shown: Range | null = useMemo(
+    () => (xMs ? { t0S: xMs[0] / 1000, t1S: xMs[1] / 1000 } : (fitted ?? full)),
+    [xMs, fitted, full],
+  );
+  const excludedKeys = useMemo(() => {
+    const out = new Set<string>();
+    const ex = new Set(edits.excludedStations);
+    for (const s of stations) if (ex.has(stationWaveKey(s.key, wave))) out.add(s.key);
+    return out;
+  }, [stations, wave, edits.excludedStations]);
+  const gained = useMemo(() => {
+    if (view.normalise !== 'agc' && view.normalise !== 'tvg') return null;
+    const out = new Map<string, Float64Array>();
+    for (const s of stations) {
+      const w = s.working;
+      out.set(
+        s.key,
+        view.normalise === 'agc'
+          ? agc(w.samples, w.sampleIntervalS, view.agcMs / 1000)
+          : timeVariantGain(w.samples, w.delayS, w.sampleIntervalS, 1),
+      );
+    }
+    return out;
+  }, [stations, view.normalise, view.agcMs]);
   const depthOf = useMemo(() => (s: Station) => disp('depth', units, s.depthM), [units]);
   const stepDisp = useMemo(() => medianStep(stations.map(depthOf), 1), [stations, depthOf]);
   const gl =
     view.renderer === 'webgl' ||
     (view.renderer === 'auto' && stations.length > WEBGL_TRACE_THRESHOLD && hardwareWebgl());
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
+  // "Both directions" only when a station on the board has more than one hit.
+  const reversible = stations.some((s) => s.hits.length > 1);
+  const hitView = reversible ? view.hitView : 'working';
 
-  useEffect(() => setRange(null), [wave, receiver, prepared]);
+  useEffect(() => {
+    setXMs(null);
+    setYR(null);
+  }, [wave, receiver, prepared]);
 
   useEffect(() => {
     const el = wrapRef.current;
@@ -308,9 +436,12 @@ export function TraceBoard() {
       stepDisp,
       depthOf,
       normalise: view.normalise,
+      gained,
+      excluded: excludedKeys,
+      clip: view.clip,
       gain: view.gain,
-      fill: view.fill && view.hitView === 'working' && !gl,
-      hitView: view.hitView,
+      fill: view.fill && hitView === 'working' && !gl,
+      hitView,
       kind: survey.kind,
       gl,
       colour,
@@ -325,31 +456,54 @@ export function TraceBoard() {
     stepDisp,
     depthOf,
     view.normalise,
+    gained,
+    excludedKeys,
+    view.clip,
     view.gain,
     view.fill,
-    view.hitView,
+    hitView,
     survey.kind,
     gl,
     colour,
   ]);
 
+  // Pick markers (shape first): a short tick across the trace at the pick time, so the onset itself
+  // stays visible, and the symbol set just above the trace (auto = hollow circle, edited = filled with
+  // a dark rim, excluded = small grey cross; the excluded trace is also greyed).
   const pickData = useMemo(() => {
     if (!picks) return [];
-    const groups = {
-      auto: { x: [] as number[], y: [] as number[], text: [] as string[] },
-      edited: { x: [] as number[], y: [] as number[], text: [] as string[] },
-      excluded: { x: [] as number[], y: [] as number[], text: [] as string[] },
-    };
-    const excludedSet = new Set(edits.excludedStations);
+    type Group = { x: number[]; y: number[]; tx: number[]; ty: number[]; text: string[] };
+    const g = (): Group => ({ x: [], y: [], tx: [], ty: [], text: [] });
+    const groups = { auto: g(), edited: g(), excluded: g() };
+    const tick = 0.28 * stepDisp;
+    const above = 0.5 * stepDisp;
     for (const s of stations) {
       const p = pickFor(picks, s.key, wave, view.editMethod);
       if (!p) continue;
-      const origin = excludedSet.has(stationWaveKey(s.key, wave)) ? 'excluded' : p.origin;
-      groups[origin].x.push(p.timeS * 1000);
-      groups[origin].y.push(depthOf(s));
-      groups[origin].text.push(s.key);
+      const origin = excludedKeys.has(s.key) ? 'excluded' : p.origin;
+      const t = p.timeS * 1000;
+      const y = depthOf(s);
+      const gr = groups[origin];
+      gr.x.push(t);
+      gr.y.push(y - above);
+      gr.text.push(s.key);
+      gr.tx.push(t, t, NaN);
+      gr.ty.push(y - tick, y + tick, NaN);
     }
+    const ticks = (gr: Group, color: string, name: string) => ({
+      type: 'scatter',
+      mode: 'lines',
+      name,
+      x: gr.tx,
+      y: gr.ty,
+      line: { width: 2, color },
+      hoverinfo: 'skip',
+      connectgaps: false,
+    });
     return [
+      ticks(groups.auto, colour, 'auto pick ticks'),
+      ticks(groups.edited, COLOURS.rim, 'edited pick ticks'),
+      ticks(groups.excluded, EXCLUDED_GREY, 'excluded pick ticks'),
       {
         type: 'scatter',
         mode: 'markers',
@@ -357,7 +511,7 @@ export function TraceBoard() {
         x: groups.auto.x,
         y: groups.auto.y,
         customdata: groups.auto.text,
-        marker: { symbol: 'circle-open', size: 10, color: colour, line: { width: 2, color: colour } },
+        marker: { symbol: 'circle-open', size: 8, color: colour, line: { width: 2, color: colour } },
         hoverinfo: 'skip',
       },
       {
@@ -367,7 +521,7 @@ export function TraceBoard() {
         x: groups.edited.x,
         y: groups.edited.y,
         customdata: groups.edited.text,
-        marker: { symbol: 'circle', size: 10, color: colour, line: { width: 2, color: COLOURS.rim } },
+        marker: { symbol: 'circle', size: 8, color: colour, line: { width: 1.5, color: COLOURS.rim } },
         hoverinfo: 'skip',
       },
       {
@@ -377,11 +531,11 @@ export function TraceBoard() {
         x: groups.excluded.x,
         y: groups.excluded.y,
         customdata: groups.excluded.text,
-        marker: { symbol: 'x-thin-open', size: 9, color: EXCLUDED_GREY, line: { width: 2, color: EXCLUDED_GREY } },
+        marker: { symbol: 'x-thin-open', size: 7, color: EXCLUDED_GREY, line: { width: 2, color: EXCLUDED_GREY } },
         hoverinfo: 'skip',
       },
     ] as PlotData[];
-  }, [picks, stations, wave, view.editMethod, depthOf, colour, edits.excludedStations]);
+  }, [picks, stations, wave, view.editMethod, depthOf, colour, excludedKeys, stepDisp]);
 
   const [bandTopM, bandBottomM] = hoveredBand(intervals, view.hoveredInterval);
   const layout = useMemo(() => {
@@ -421,37 +575,25 @@ export function TraceBoard() {
     const yMax = depths.length ? Math.max(...depths) + stepDisp : 1;
     return {
       ...BASE_LAYOUT,
-      uirevision: `${wave}|${receiver}|${stations.length}`,
       margin: { l: 56, r: 12, t: 8, b: 40 },
-      dragmode: view.tool === 'pick' ? false : view.tool,
+      dragmode: view.tool === 'zoom' ? 'zoom' : false,
       xaxis: {
         title: { text: 'Time after trigger (ms)' },
         range: shown ? [shown.t0S * 1000, shown.t1S * 1000] : undefined,
+        autorange: false,
         zeroline: false,
         gridcolor: COLOURS.grid,
       },
       yaxis: {
         title: { text: `Depth (${label('depth', units)})` },
-        range: [yMax, yMin],
+        range: yR ?? [yMax, yMin],
+        autorange: false,
         zeroline: false,
         gridcolor: COLOURS.grid,
       },
       shapes,
     };
-  }, [
-    bandTopM,
-    bandBottomM,
-    view.selectedStation,
-    view.tool,
-    stations,
-    depthOf,
-    stepDisp,
-    units,
-    shown,
-    wave,
-    receiver,
-    colour,
-  ]);
+  }, [bandTopM, bandBottomM, view.selectedStation, view.tool, stations, depthOf, stepDisp, units, shown, yR, colour]);
 
   // The pick markers sit on an overlay plot with the same axes: a pick edit redraws only the markers,
   // never the wiggles (Plotly recomputes every trace of a plot when any trace's data changes).
@@ -481,6 +623,36 @@ export function TraceBoard() {
     };
   }, [axes, layout]);
 
+  const seeAll = () => {
+    setXMs(full ? [full.t0S * 1000, full.t1S * 1000] : null);
+    setYR(null);
+  };
+  const fitArrivals = () => {
+    setXMs(null);
+    setYR(null);
+  };
+  const seeAllRef = useRef(seeAll);
+  const lastPress = useRef<{ t: number; x: number; y: number } | null>(null);
+  seeAllRef.current = seeAll;
+  const onRelayout = (e: Record<string, unknown>) => {
+    if (e['xaxis.autorange'] || e['yaxis.autorange']) {
+      seeAll();
+      return;
+    }
+    const pair = (ax: 'xaxis' | 'yaxis'): [number, number] | null => {
+      const a = e[`${ax}.range[0]`];
+      const b = e[`${ax}.range[1]`];
+      if (typeof a === 'number' && typeof b === 'number') return [a, b];
+      const r = e[`${ax}.range`];
+      return Array.isArray(r) && typeof r[0] === 'number' && typeof r[1] === 'number' ? [r[0], r[1]] : null;
+    };
+    const x = pair('xaxis');
+    const y = pair('yaxis');
+    if (x) setXMs(x[0] < x[1] ? x : [x[1], x[0]]);
+    if (y) setYR(y);
+    syncAxes();
+  };
+
   // Pick tool: click places a pick on the nearest trace, dragging moves it; one undo step per gesture.
   useEffect(() => {
     const div = wrapRef.current;
@@ -498,8 +670,76 @@ export function TraceBoard() {
       if (!p || !p.inside) return;
       const s = nearest(p.y);
       if (!s) return;
+      if (st.tool !== 'pick') {
+        // A second press within 400 ms at the same place: "see all" (Plotly's drag cover takes the
+        // browser's dblclick event, so the two presses are timed here).
+        const now = performance.now();
+        const last = lastPress.current;
+        lastPress.current = { t: now, x: ev.clientX, y: ev.clientY };
+        if (last && now - last.t < 400 && Math.abs(last.x - ev.clientX) < 6 && Math.abs(last.y - ev.clientY) < 6) {
+          lastPress.current = null;
+          seeAllRef.current();
+          return;
+        }
+        if (st.tool === 'pan') {
+          // Pan is the board's own drag: the traces are decimated and drawn again for the window as it moves.
+          ev.preventDefault();
+          ev.stopPropagation();
+          const fl = (
+            plotDiv as unknown as {
+              _fullLayout: {
+                xaxis: { range: number[]; _length: number };
+                yaxis: { range: number[]; _length: number };
+              };
+            }
+          )._fullLayout;
+          const xr = [...fl.xaxis.range];
+          const yr = [...fl.yaxis.range];
+          const vx = (xr[1] - xr[0]) / fl.xaxis._length;
+          const vy = (yr[0] - yr[1]) / fl.yaxis._length;
+          let frame = 0;
+          let last = { x: ev.clientX, y: ev.clientY };
+          const apply = () => {
+            const dx = (ev.clientX - last.x) * vx;
+            const dy = (last.y - ev.clientY) * vy;
+            setXMs([xr[0] + dx, xr[1] + dx]);
+            setYR([yr[0] - dy, yr[1] - dy]);
+          };
+          const onMove = (e: MouseEvent) => {
+            last = { x: e.clientX, y: e.clientY };
+            if (!frame)
+              frame = requestAnimationFrame(() => {
+                frame = 0;
+                apply();
+              });
+          };
+          const onUp = (e: MouseEvent) => {
+            if (frame) cancelAnimationFrame(frame);
+            window.removeEventListener('mousemove', onMove, true);
+            window.removeEventListener('mouseup', onUp, true);
+            if (Math.abs(e.clientX - ev.clientX) < 3 && Math.abs(e.clientY - ev.clientY) < 3)
+              setView({ selectedStation: s.key, selectedInterval: null });
+            else {
+              last = { x: e.clientX, y: e.clientY };
+              apply();
+            }
+          };
+          window.addEventListener('mousemove', onMove, true);
+          window.addEventListener('mouseup', onUp, true);
+          return;
+        }
+        // Zoom: select on a click that did not move (a re-render during Plotly's drag would end it).
+        const x0 = ev.clientX;
+        const y0 = ev.clientY;
+        const onClickUp = (e: MouseEvent) => {
+          window.removeEventListener('mouseup', onClickUp, true);
+          if (Math.abs(e.clientX - x0) < 3 && Math.abs(e.clientY - y0) < 3)
+            setView({ selectedStation: s.key, selectedInterval: null });
+        };
+        window.addEventListener('mouseup', onClickUp, true);
+        return;
+      }
       setView({ selectedStation: s.key, selectedInterval: null });
-      if (st.tool !== 'pick') return;
       ev.preventDefault();
       ev.stopPropagation();
       const method = st.editMethod;
@@ -545,10 +785,19 @@ export function TraceBoard() {
       if (key !== useApp.getState().view.hoveredInterval) setView({ hoveredInterval: key });
     };
     const onLeave = () => useApp.getState().view.hoveredInterval && setView({ hoveredInterval: null });
+    // The browser's double-click may land on Plotly's drag cover (over the whole page): matched by place.
+    const onDouble = (ev: MouseEvent) => {
+      if (useApp.getState().view.tool === 'pick') return;
+      const b = div.getBoundingClientRect();
+      if (ev.clientX >= b.left && ev.clientX <= b.right && ev.clientY >= b.top && ev.clientY <= b.bottom)
+        seeAllRef.current();
+    };
+    window.addEventListener('dblclick', onDouble, true);
     div.addEventListener('mousedown', onDown, true);
     div.addEventListener('mousemove', onHover);
     div.addEventListener('mouseleave', onLeave);
     return () => {
+      window.removeEventListener('dblclick', onDouble, true);
       div.removeEventListener('mousedown', onDown, true);
       div.removeEventListener('mousemove', onHover);
       div.removeEventListener('mouseleave', onLeave);
@@ -556,6 +805,9 @@ export function TraceBoard() {
   }, [stations, depthOf]);
 
   const receivers = receiversOf(allStations, wave);
+  const selectedOnBoard = stations.find((s) => s.key === view.selectedStation);
+  const detailStation = hitsOpen && selectedOnBoard && selectedOnBoard.hits.length > 1 ? selectedOnBoard : null;
+  const workingLabel = workingTraceLabel(stations);
   const running = status.state === 'running';
 
   return (
@@ -568,8 +820,8 @@ export function TraceBoard() {
             onChange={(e) => setView({ wave: e.target.value as Wave, selectedStation: null })}
             aria-label="Wave"
           >
-            <option value="S">S (shear)</option>
-            <option value="P">P (compression)</option>
+            <option value="S">S</option>
+            <option value="P">P</option>
           </select>
         </label>
         {receivers.length > 1 && (
@@ -628,101 +880,164 @@ export function TraceBoard() {
         <label title="Snap a placed pick to the nearest peak, trough, zero crossing or onset of the chosen method (s)">
           <input type="checkbox" checked={view.snap} onChange={(e) => setView({ snap: e.target.checked })} /> Snap
         </label>
-        <label>
-          <input
-            type="checkbox"
-            checked={view.fill}
-            disabled={gl}
-            onChange={(e) => setView({ fill: e.target.checked })}
-          />{' '}
-          Fill lobes{gl ? ' (not with WebGL)' : ''}
-        </label>
-        <label>
-          Scale{' '}
-          <select
-            value={view.normalise}
-            onChange={(e) => setView({ normalise: e.target.value as 'trace' | 'common' })}
-            aria-label="Amplitude scaling"
-          >
-            <option value="trace">each trace</option>
-            <option value="common">common</option>
-          </select>
-        </label>
-        <label>
-          Gain{' '}
-          <input
-            type="range"
-            min={0.25}
-            max={6}
-            step={0.25}
-            value={view.gain}
-            onChange={(e) => setView({ gain: Number(e.target.value) })}
-            aria-label="Gain"
-          />
-        </label>
-        <label title="How the traces are drawn: auto = WebGL above 40 traces when the graphics processor draws it, else SVG">
-          Draw{' '}
-          <select
-            value={view.renderer}
-            onChange={(e) => setView({ renderer: e.target.value as 'auto' | 'svg' | 'webgl' })}
-            aria-label="Renderer"
-          >
-            <option value="auto">auto</option>
-            <option value="svg">SVG</option>
-            <option value="webgl">WebGL</option>
-          </select>
-        </label>
-        <label title="Reversed hits: the working (difference) trace alone, or both directions (first solid, second dashed)">
+        <span className="seg" role="group" aria-label="Time window">
+          <label title="Time window shown, ms (type to change; Fit = fitted to the arrivals)">
+            <NumberBox
+              value={shown ? shown.t0S * 1000 : 0}
+              label="Window from (ms)"
+              onCommit={(v) => shown && v < shown.t1S * 1000 && setXMs([v, shown.t1S * 1000])}
+            />
+            –
+            <NumberBox
+              value={shown ? shown.t1S * 1000 : 0}
+              label="Window to (ms)"
+              onCommit={(v) => shown && v > shown.t0S * 1000 && setXMs([shown.t0S * 1000, v])}
+            />{' '}
+            ms
+          </label>
+          <button onClick={fitArrivals} title="Time window fitted to the arrivals, every station">
+            Fit
+          </button>
+          <button onClick={seeAll} title="The whole record, every station (double-click with Zoom or Pan)">
+            See all
+          </button>
+        </span>
+        <details className="board-display">
+          <summary>Display</summary>
+          <div className="board-display-panel">
+            <label>
+              Gain{' '}
+              <select
+                value={view.normalise}
+                onChange={(e) => setView({ normalise: e.target.value as typeof view.normalise })}
+                aria-label="Amplitude scaling"
+              >
+                <option value="trace">each trace</option>
+                <option value="common">common</option>
+                <option value="agc">automatic (AGC)</option>
+                <option value="tvg">time-variant (× t)</option>
+              </select>
+            </label>
+            {view.normalise === 'agc' && (
+              <label title="Automatic gain control window length">
+                window{' '}
+                <select
+                  value={view.agcMs}
+                  onChange={(e) => setView({ agcMs: Number(e.target.value) })}
+                  aria-label="AGC window (ms)"
+                >
+                  {[5, 10, 20, 40, 80].map((v) => (
+                    <option key={v} value={v}>
+                      {v} ms
+                    </option>
+                  ))}
+                </select>
+              </label>
+            )}
+            <label>
+              Amplitude{' '}
+              <input
+                type="range"
+                min={0.25}
+                max={6}
+                step={0.25}
+                value={view.gain}
+                onChange={(e) => setView({ gain: Number(e.target.value) })}
+                aria-label="Gain"
+              />
+            </label>
+            <label title="Clip level: a wiggle never swings further than this many trace spacings">
+              Clip{' '}
+              <select value={view.clip} onChange={(e) => setView({ clip: Number(e.target.value) })} aria-label="Clip">
+                {[0.5, 1, 1.5, 2, 3].map((v) => (
+                  <option key={v} value={v}>
+                    {v} spacing{v === 1 ? '' : 's'}
+                  </option>
+                ))}
+              </select>
+            </label>
+            <label>
+              Style{' '}
+              <select
+                value={view.fill && !gl ? 'area' : 'wiggle'}
+                onChange={(e) => setView({ fill: e.target.value === 'area' })}
+                aria-label="Trace style"
+              >
+                <option value="wiggle">wiggle</option>
+                <option value="area" disabled={gl}>
+                  variable area{gl ? ' (not with WebGL)' : ''}
+                </option>
+              </select>
+            </label>
+            <label title="How the traces are drawn: auto = WebGL above 40 traces when the graphics processor draws it, else SVG">
+              Draw{' '}
+              <select
+                value={view.renderer}
+                onChange={(e) => setView({ renderer: e.target.value as 'auto' | 'svg' | 'webgl' })}
+                aria-label="Renderer"
+              >
+                <option value="auto">auto</option>
+                <option value="svg">SVG</option>
+                <option value="webgl">WebGL</option>
+              </select>
+            </label>
+          </div>
+        </details>
+        <label title="The working trace of each station, or both directions of a reversed pair (first solid, second dashed)">
           Hits{' '}
           <select
-            value={view.hitView}
+            value={reversible ? view.hitView : 'working'}
             onChange={(e) => setView({ hitView: e.target.value as 'working' | 'both' })}
             aria-label="Reversed hits"
           >
-            <option value="working">difference trace</option>
-            <option value="both">both directions</option>
+            <option value="working">{workingLabel}</option>
+            <option value="both" disabled={!reversible}>
+              both directions
+            </option>
           </select>
         </label>
       </div>
-      <div className="board-plot" ref={wrapRef} data-tool={view.tool}>
-        {stations.length ? (
-          <>
-            <Plot
-              name="trace-board"
-              data={wiggleData}
-              layout={layout}
-              config={BOARD_CONFIG}
-              onReady={(d) => (divRef.current = d)}
-              onDrawn={(ms) => {
-                setDrawMs(ms);
-                syncAxes();
-              }}
-              onRelayout={(e) => {
-                if (e['xaxis.autorange']) setRange(null);
-                else if (typeof e['xaxis.range[0]'] === 'number' && typeof e['xaxis.range[1]'] === 'number') {
-                  setRange({
-                    t0S: (e['xaxis.range[0]'] as number) / 1000,
-                    t1S: (e['xaxis.range[1]'] as number) / 1000,
-                  });
-                }
-                syncAxes();
-              }}
-            />
-            <Plot
-              name="trace-board-picks"
-              data={pickData}
-              layout={overlayLayout}
-              config={OVERLAY_CONFIG}
-              className="plot overlay"
-              defer="data"
-            />
-          </>
-        ) : (
-          <div className="empty">
-            {running
-              ? 'Preparing the working traces…'
-              : 'No traces yet: load waveform files or open the demo survey, then give each record a depth in Geometry.'}
-          </div>
+      <div className="board-row">
+        <div className="board-plot" ref={wrapRef} data-tool={view.tool}>
+          {stations.length ? (
+            <>
+              <Plot
+                name="trace-board"
+                data={wiggleData}
+                layout={layout}
+                config={BOARD_CONFIG}
+                onReady={(d) => (divRef.current = d)}
+                onDrawn={(ms) => {
+                  setDrawMs(ms);
+                  syncAxes();
+                }}
+                onRelayout={onRelayout}
+              />
+              <Plot
+                name="trace-board-picks"
+                data={pickData}
+                layout={overlayLayout}
+                config={OVERLAY_CONFIG}
+                className="plot overlay"
+                defer="data"
+              />
+            </>
+          ) : (
+            <div className="empty">
+              {running
+                ? 'Preparing the working traces…'
+                : 'No traces yet: load waveform files or open the demo survey, then give each record a depth in Geometry.'}
+            </div>
+          )}
+        </div>
+        {detailStation && (
+          <HitsDetail
+            station={detailStation}
+            picks={picks}
+            kind={survey.kind}
+            depthLabel={`${fmt('depth', units, detailStation.depthM)} ${label('depth', units)}`}
+            onClose={() => setHitsOpen(false)}
+          />
         )}
       </div>
       <div className="board-foot" aria-live="polite">

@@ -116,8 +116,8 @@ export function TravelTime() {
             ? layerModel?.layers.find((l) => Math.abs(l.topM - f.topM) < 1e-6 && Math.abs(l.bottomM - f.bottomM) < 1e-6)
             : undefined;
         const text = ray
-          ? `line ${fmt('velocity', units, f.velocityMps)} · ray ${fmt('velocity', units, ray.velocityMps)} ${label('velocity', units)}`
-          : `${fmt('velocity', units, f.velocityMps)} ${label('velocity', units)}`;
+          ? `V${wave.toLowerCase()} ${fmt('velocity', units, f.velocityMps)} (line fit) · ${fmt('velocity', units, ray.velocityMps)} (ray fit) ${label('velocity', units)}`
+          : `V${wave.toLowerCase()} ${fmt('velocity', units, f.velocityMps)} ${label('velocity', units)} (line fit)`;
         return {
           xref: 'paper',
           x: late ? 0.01 : 0.99,
@@ -141,9 +141,10 @@ export function TravelTime() {
         {receiver !== '*' && receiverSlots(survey).length > 1
           ? `, ${receiverLabel(survey, receiver as ReceiverSlot)}`
           : ''}
-        : ○ time after trigger · ● slant-corrected · lines: layer fits
+        : ○ time after trigger · ● slant-corrected · lines: layer fits, velocity per layer: line fit = straight line
+        through the slant-corrected times
         {layerModel && wave === 'S' && method === 'onset'
-          ? ` (line = straight slant paths; ray = refracted rays, RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)`
+          ? `; ray fit = layer model with rays refracted at each boundary (RMS misfit ${(layerModel.rmsMisfitS * 1000).toFixed(2)} ms)`
           : ''}
       </div>
       {wave === 'S' && d?.layering && (d.layering.fit || d.layering.reason) && (

@@ -54,3 +54,17 @@ export function focusInterval(
   }
   return d.intervals.find((x) => x.wave === wave && x.chosen)?.key ?? null;
 }
+
+/** What the working trace of the board's stations is, in words that match what is drawn. */
+export function workingTraceLabel(stations: readonly { workingKind: Station['workingKind'] }[]): string {
+  const kinds = new Set(stations.map((s) => s.workingKind));
+  const words: Record<Station['workingKind'], string> = {
+    difference: 'difference of reversed hits',
+    sum: 'sum of hits',
+    stack: 'stack of hits',
+    single: 'single hit',
+  };
+  if (kinds.size === 1) return words[[...kinds][0]];
+  if (kinds.size === 0) return 'working trace';
+  return `working trace (${[...kinds].map((k) => words[k]).join(' / ')})`;
+}

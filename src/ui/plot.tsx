@@ -97,18 +97,44 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
   const relayoutRef = useRef(onRelayout);
   relayoutRef.current = onRelayout;
   const drawnLayout = useRef<PlotLayout | null>(null);
+  // Plot lifecycle: a draw may still be running (Plotly finishes some steps, e.g. auto-margins, after
+  // its promise starts) when the component unmounts (a tab switch) or remounts (React's strict mode).
+  // Purging then leaves that step a plot without its layout, so the purge waits for the last draw and
+  // is skipped when the component came back meanwhile.
+  const life = useRef<{ pending: Promise<unknown>; mounted: boolean }>({ pending: Promise.resolve(), mounted: false });
   useEffect(() => {
     const div = ref.current!;
+    const l = life.current;
+    l.mounted = true;
     plotRegistry.set(name, div);
+    // Follow the container's size (pane splitters, a message line appearing), not only the window's.
+    let frame = 0;
+    const ro = new ResizeObserver(() => {
+      cancelAnimationFrame(frame);
+      frame = requestAnimationFrame(() => {
+        const gd = div as unknown as { _fullLayout?: unknown };
+        if (plotly && l.mounted && div.isConnected && gd._fullLayout && div.clientWidth > 0 && div.clientHeight > 0)
+          void Promise.resolve(plotly.Plots.resize(div as never) as unknown).catch(() => undefined);
+      });
+    });
+    ro.observe(div);
     return () => {
-      plotRegistry.delete(name);
-      plotly?.purge(div);
+      ro.disconnect();
+      cancelAnimationFrame(frame);
+      l.mounted = false;
+      if (plotRegistry.get(name) === div) plotRegistry.delete(name);
+      void l.pending
+        .catch(() => undefined)
+        .then(() => {
+          if (!l.mounted) plotly?.purge(div);
+        });
     };
   }, [name]);
   useEffect(() => {
     const div = ref.current!;
     let alive = true;
     const draw = () => {
+      if (!alive || !div.isConnected) return;
       if (!plotly) {
         void loadPlotly().then(() => {
           if (alive) draw();
@@ -118,6 +144,7 @@ export function Plot({ name, data, layout, config, className, onReady, onRelayou
       const Plotly = plotly;
       const t0 = performance.now();
       const drawing = Plotly.react(div, data as never, layout as never, { ...PLOT_CONFIG, ...(config ?? {}) } as never);
+      life.current.pending = drawing;
       div.dataset.startedAt = t0.toFixed(1);
       div.dataset.syncMs = (performance.now() - t0).toFixed(1);
       // The frame that shows this draw (its callback runs just before that frame is painted).

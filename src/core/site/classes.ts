@@ -170,7 +170,8 @@ const QUESTIONS: SiteQuestion[] = [
     text: 'Are there soils vulnerable to failure or collapse under seismic loading (liquefiable soils, quick or highly sensitive clays, collapsible weakly cemented soils)?',
     consequence:
       'Site class F: a site response analysis is required (ASCE 7 allows exceptions for some short-period structures).',
-    source: 'ASCE 7-16 section 20.3.1; ASCE 7-22 section 20.2.1 (criteria list from memory)',
+    // Provenance: docs/site-class-sources.md (list checked against a published reproduction).
+    source: 'ASCE 7-16 section 20.3.1; ASCE 7-22 section 20.2.1. Verify against the standard’s current edition.',
   },
   {
     id: 'asce_peat',
@@ -179,7 +180,7 @@ const QUESTIONS: SiteQuestion[] = [
     yesClass: 'F',
     text: 'Is there more than 10 ft (3 m) of peat or highly organic clay?',
     consequence: 'Site class F.',
-    source: 'ASCE 7-16 section 20.3.1 (from memory; ASCE 7-22 taken as the same)',
+    source: 'ASCE 7-16 section 20.3.1; ASCE 7-22 taken as the same. Verify against the standard’s current edition.',
   },
   {
     id: 'asce_high_pi',
@@ -188,7 +189,7 @@ const QUESTIONS: SiteQuestion[] = [
     yesClass: 'F',
     text: 'Is there more than 25 ft (7.6 m) of very high plasticity clay (PI > 75)?',
     consequence: 'Site class F.',
-    source: 'ASCE 7-16 section 20.3.1 (from memory; ASCE 7-22 taken as the same)',
+    source: 'ASCE 7-16 section 20.3.1; ASCE 7-22 taken as the same. Verify against the standard’s current edition.',
   },
   {
     id: 'asce_thick_clay',
@@ -197,7 +198,7 @@ const QUESTIONS: SiteQuestion[] = [
     yesClass: 'F',
     text: 'Is there more than 120 ft (37 m) of soft or medium-stiff clay?',
     consequence: 'Site class F.',
-    source: 'ASCE 7-16 section 20.3.1 (from memory; ASCE 7-22 taken as the same)',
+    source: 'ASCE 7-16 section 20.3.1; ASCE 7-22 taken as the same. Verify against the standard’s current edition.',
   },
   {
     id: 'asce_soft_clay',
@@ -317,11 +318,11 @@ export function siteClass(standard: SiteStandard, vs30Mps: number, answers: Site
     notes.push('Ground type A also requires at most 5 m of weaker material at the surface.');
   if (standard === 'asce7_16' && (cls === 'A' || cls === 'B'))
     notes.push(
-      'ASCE 7 limits classes A and B where soil lies between the rock surface and the foundation (from memory).',
+      'ASCE 7 limits classes A and B where more than a thin layer of soil lies between the rock surface and the foundation: verify against the standard’s current edition.',
     );
   if (standard === 'asce7_22')
     notes.push(
-      'ASCE 7-22 evaluates a range of classes when Vs is estimated rather than measured (from memory); this result uses measured Vs.',
+      'ASCE 7-22 asks for a range of classes when Vs is estimated rather than measured (verify against the standard’s current edition); this result uses measured Vs.',
     );
   return { standard, siteClass: cls, basis, notes };
 }

@@ -35,7 +35,8 @@ export const STRESS_EXPONENT_CHOICES: { label: string; n: number; source: string
     label: 'Sand, gravel',
     n: 0.25,
     source:
-      'Robertson et al. (1992), Can. Geotech. J. 29; Andrus & Stokoe (2000), JGGE 126(11) (citations from memory)',
+      // Provenance: citations recalled, not checked against the papers (docs/site-class-sources.md).
+      'Robertson et al. (1992), Can. Geotech. J. 29; Andrus & Stokoe (2000), JGGE 126(11)',
   },
   { label: 'Silt, low-plasticity clay', n: 0.35, source: 'common practice: between the sand and clay values' },
   { label: 'Clay', n: 0.5, source: 'common practice: upper end of values used for clays' },
