@@ -3,22 +3,33 @@
  * one, set once into the core (core/version.ts), which saved projects and reports read.
  */
 import { execFileSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { formatSoftwareVersion, setSoftwareVersion, softwareVersion } from '../core';
 
+/**
+ * The checkout's folder: the first one up from this file holding package.json. The bundle
+ * (dist-cli/borewave.cjs, CommonJS) has no import.meta.url but has __dirname; the sources have the URL.
+ */
+function packageRoot(): string {
+  let dir = typeof __dirname === 'string' ? __dirname : dirname(fileURLToPath(import.meta.url));
+  for (let i = 0; i < 4 && !existsSync(join(dir, 'package.json')); i++) dir = dirname(dir);
+  return dir;
+}
+
 function detectVersion(): string {
+  const root = packageRoot();
   let pkgVersion = 'unknown';
   try {
-    pkgVersion = String(
-      (JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string }).version,
-    );
+    pkgVersion = String((JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { version: string }).version);
   } catch {
     // keep 'unknown'
   }
   let commit: string | null = null;
   try {
     commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], {
-      cwd: new URL('../..', import.meta.url).pathname,
+      cwd: root,
       stdio: ['ignore', 'pipe', 'ignore'],
     })
       .toString()
