@@ -62,6 +62,11 @@ async function waitDown(): Promise<void> {
   throw new Error('preview server still answers');
 }
 
+interface BorewaveHandles {
+  useAutosave: { getState: () => { status: string; savedRevision: number | null } };
+  useApp: { getState: () => { revision: number } };
+}
+
 async function controlled(page: Page): Promise<boolean> {
   return page.evaluate(() => !!navigator.serviceWorker?.controller);
 }
@@ -128,6 +133,13 @@ test('after one visit the app opens, computes and exports with the server stoppe
     await page.locator('button[data-demo="downhole"]').click();
     await waitProcessed(page);
 
+    // Autosave has stored this session (it saves within a second of a change; a reload before that
+    // would find nothing to restore).
+    await page.waitForFunction(() => {
+      const b = (window as unknown as { __borewave: BorewaveHandles }).__borewave;
+      const a = b.useAutosave.getState();
+      return a.status === 'saved' && a.savedRevision === b.useApp.getState().revision;
+    });
     // Server gone.
     await stop(server);
     await waitDown();
