@@ -53,6 +53,8 @@ export async function buildCli() {
     target: 'node20',
     legalComments: 'none',
     logLevel: 'warning',
+    // src/cli/version.ts reads import.meta.url only outside the bundle (it uses __dirname here).
+    logOverride: { 'empty-import-meta': 'silent' },
   });
 }
 

@@ -4,6 +4,7 @@ import { App } from './ui/App';
 import './ui/app.css';
 import { watchProcessing } from './state/processing';
 import { checkForSavedSession, useAutosave } from './state/autosave';
+import { registerOfflineApp } from './state/update';
 import { useApp, useResults } from './state/store';
 import { currentDerived, lastDeriveMs, lastSpreadMs } from './state/derived';
 import { ioLane, processLane } from './worker/client';
@@ -23,6 +24,9 @@ void checkForSavedSession();
   /** Resolves once Plotly is loaded (it loads after the first paint). */
   plotlyLoaded: () => loadPlotly().then(() => true),
 };
+
+// After first paint: the service worker (installable, offline after one visit) in the production build.
+window.addEventListener('load', () => void registerOfflineApp());
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

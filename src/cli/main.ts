@@ -18,6 +18,10 @@ const COMMANDS: Record<string, Command> = {
 async function main(argv: string[]): Promise<number> {
   cliSoftwareVersion();
   const [name, ...rest] = argv;
+  if (name === '--version' || name === 'version') {
+    process.stdout.write(`borewave ${cliSoftwareVersion()}\n`);
+    return 0;
+  }
   const usage = `usage: borewave <${Object.keys(COMMANDS).join('|')}> ...\n`;
   if (name === 'help' || name === '--help' || name === '-h') {
     process.stdout.write(usage);

@@ -149,6 +149,27 @@ function schedule(): void {
   }, DEBOUNCE_MS);
 }
 
+/**
+ * Saves now if a save is pending or running (or the last save is older than the store), and resolves
+ * when the browser's storage holds the latest state. Does nothing while autosave is off (a restore
+ * question is pending): the caller says so to the user.
+ */
+export async function flushAutosave(): Promise<void> {
+  if (!enabled) return;
+  if (timer) {
+    clearTimeout(timer);
+    timer = null;
+  }
+  if (saving) await saving;
+  if (timer || useAutosave.getState().savedRevision !== useApp.getState().revision) {
+    if (timer) clearTimeout(timer);
+    timer = null;
+    saving = saveNow();
+    await saving;
+    saving = null;
+  }
+}
+
 /** Starts watching the store (after the restore question is settled). */
 export function enableAutosave(): void {
   if (enabled) return;

@@ -5,6 +5,7 @@
 import { memo, useDeferredValue, useEffect, useRef, useState } from 'react';
 import { unitText } from './unitText';
 import type { Derived } from '../core';
+import { softwareVersion } from '../core';
 import type { UnitSystem } from '../core';
 import type { Station, Survey, Wave } from '../core';
 import type { Settings } from '../core';
@@ -27,6 +28,7 @@ import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
 import { TravelTime } from './TravelTime';
+import { UpdateBanner } from './UpdateBanner';
 import { warmHardwareWebgl } from './gl';
 import { fmt, label, useUnits } from './units';
 
@@ -193,6 +195,9 @@ function KeyboardHelp() {
     <div className="modal" role="dialog" aria-label="Keyboard" onClick={() => setView({ helpOpen: false })}>
       <div className="modal-box" onClick={(e) => e.stopPropagation()}>
         <h2>Keyboard and mouse</h2>
+        <p className="muted">
+          Borewave {softwareVersion()} · MIT licence · third-party licences in THIRD-PARTY-NOTICES.txt
+        </p>
         <table className="plain">
           <tbody>
             {rows.map(([k, v]) => (
@@ -544,6 +549,7 @@ export function App() {
     <div className={`app ${view.recordsOpen ? '' : 'records-closed'}`}>
       <TopBar />
       <RestoreBanner />
+      <UpdateBanner />
       <Messages />
       <main className="main">
         <RecordsPane />

@@ -19,7 +19,7 @@ describe('CSV export safety (OWASP "CSV Injection": cells starting with = + - @ 
       },
       [],
     );
-    const rows = Papa.parse<string[]>(csv.trim(), { skipEmptyLines: true }).data;
+    const rows = Papa.parse<string[]>(csv.trim(), { comments: '#', skipEmptyLines: true }).data;
     expect(rows[0]).toEqual(['name', 'vs_mps']);
     expect(rows.slice(1).map((r) => r[0])).toEqual([
       '\'=HYPERLINK("http://x")',

@@ -4,6 +4,7 @@
  * cell: they become empty cells and the row carries a flag. Cells a spreadsheet would run as a formula
  * are neutralised in toCsv(). Every export carries the cautions.
  */
+import { softwareVersion } from '../version';
 import type { Flag } from '../flags';
 import Papa from 'papaparse';
 import type { Station } from '../survey/stations';
@@ -68,15 +69,19 @@ export function unneutraliseText(s: string): string {
 /** Text that must be quoted in CSV: any separator a reader may use, a quote or a line break (RFC 4180). */
 const MUST_QUOTE = /[,;\t"\r\n]/;
 
-/** CSV text: header row, data rows, then the cautions as '#' comment lines. Numbers stay numbers. */
+/** CSV text: header row, data rows, then the software version and the cautions as '#' comment lines. Numbers stay numbers. */
 export function toCsv(t: Table, cautions: string[] = EXPORT_CAUTIONS): string {
   const rows = t.rows.map((r) => r.map((c) => (typeof c === 'string' ? neutraliseText(c) : c)));
   const body = Papa.unparse(
     { fields: t.columns.map(neutraliseText), data: rows },
     { newline: '\n', quotes: (value: unknown) => typeof value === 'string' && MUST_QUOTE.test(value) },
   );
-  const notes = cautions.map((c) => `# CAUTION: ${c.replace(/[\r\n]+/g, ' ')}`).join('\n');
-  return `${body}\n${notes}\n`;
+  // The program that made it, then the cautions (last), all as '#' comment lines after the table.
+  const notes = [
+    `# SOFTWARE: Borewave ${softwareVersion()}`,
+    ...cautions.map((c) => `# CAUTION: ${c.replace(/[\r\n]+/g, ' ')}`),
+  ];
+  return `${body}\n${notes.join('\n')}\n`;
 }
 
 /** Times in ms, rounded by the reporting rule (docs/significant-digits.md). */
@@ -391,5 +396,6 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
         }
       : null,
     cautions: EXPORT_CAUTIONS,
+    softwareVersion: softwareVersion(),
   };
 }
