@@ -82,16 +82,19 @@ export function PairCheck() {
   const pair = prepared?.pairs.find((p) => p.key === key);
   const xcorr = d?.delays.find((x) => x.pairKey === key && x.method === 'xcorr');
   const station = prepared?.stations.find((s) => s.key === view.selectedStation && s.wave === view.wave) ?? pair?.b;
+  // A model method (layered model) has no delay between the two traces: the overlay uses the
+  // cross-correlation delay instead, and the note says so.
+  const overlayDtS = chosen?.dtS ?? xcorr?.delayS ?? null;
 
   const data = useMemo(() => {
     const out: PlotData[] = [];
-    if (pair && chosen && chosen.dtS !== null) {
+    if (pair && chosen && overlayDtS !== null) {
       const a = pair.a.working;
       const b = pair.b.working;
       // Fitted to the two pulses: the upper trace's pulse and the lower one's, shifted back by Δt.
       const picks = d?.picks ?? [];
       const wa = tracePulseWindow(a, pickFor(picks, pair.a.key, pair.wave, 'onset')?.timeS);
-      const wb = tracePulseWindow(b, pickFor(picks, pair.b.key, pair.wave, 'onset')?.timeS, chosen.dtS);
+      const wb = tracePulseWindow(b, pickFor(picks, pair.b.key, pair.wave, 'onset')?.timeS, overlayDtS);
       const t0 = Math.min(wa.t0S, wb.t0S);
       const t1 = Math.max(wa.t1S, wb.t1S);
       const colour = pair.wave === 'S' ? COLOURS.S : COLOURS.P;
@@ -103,7 +106,7 @@ export function PairCheck() {
           b.samples,
           b.delayS,
           b.sampleIntervalS,
-          chosen.dtS,
+          overlayDtS,
           t0,
           t1,
           'dash',
@@ -140,7 +143,7 @@ export function PairCheck() {
       }
     }
     return out;
-  }, [pair, chosen, station, kind, d?.picks]);
+  }, [pair, chosen, station, kind, d?.picks, overlayDtS]);
 
   const layout = useMemo(
     () => ({
@@ -184,8 +187,10 @@ export function PairCheck() {
         {pair && chosen ? (
           <>
             {fmt('depth', units, pair.topM)}–{fmt('depth', units, pair.bottomM)} {label('depth', units)} ·{' '}
-            {methodInfo(chosen.method).label} Δt = {chosen.dtS !== null ? (chosen.dtS * 1000).toFixed(3) : '–'} ms ·
-            cross-correlation r = {xcorr ? xcorr.coefficient.toFixed(3) : '–'}
+            {chosen.dtS !== null
+              ? `${methodInfo(chosen.method).label} Δt = ${(chosen.dtS * 1000).toFixed(3)} ms`
+              : `${methodInfo(chosen.method).label} (no trace delay; overlay shifted by the cross-correlation Δt = ${xcorr ? (xcorr.delayS * 1000).toFixed(3) : '–'} ms)`}{' '}
+            · cross-correlation r = {xcorr ? xcorr.coefficient.toFixed(3) : '–'}
           </>
         ) : (
           'Select a trace or an interval.'
