@@ -16,6 +16,7 @@ import { runPipeline } from '../src/core/pipeline';
 import { intervalsTable, picksTable, profileTable, toCsv } from '../src/core/report/tables';
 import { intervalKey, pickEditKey, stationKey } from '../src/core/keys';
 import { reported } from '../src/core/report/digits';
+import { setSoftwareVersion } from '../src/core/version';
 import type { WaveRecord } from '../src/core/model';
 import { appState, boardPixel, derivedState, SCREENS, waitProcessed } from './helpers';
 
@@ -172,6 +173,10 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   const intervalsCsv = await download(page, /^Intervals, every method/);
   const profileCsv = await download(page, /^Profile with stiffness/);
   const siteJsonText = await download(page, /^Site summary/);
+  // The app's exports name the build that made them; the core run here names the same build.
+  const appVersion = /^# SOFTWARE: Borewave (.+)$/m.exec(intervalsCsv)?.[1];
+  expect(appVersion).toMatch(/^\d+\.\d+\.\d+/);
+  setSoftwareVersion(appVersion!);
   const ref = coreRun(st);
   expect(intervalsCsv).toBe(toCsv(intervalsTable(ref.derived)));
   expect(picksCsv).toBe(toCsv(picksTable(ref.prepared.stations, ref.derived)));
