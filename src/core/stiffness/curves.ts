@@ -207,7 +207,7 @@ export function darendeliDampingPct(strainPct: number, p: DarendeliParams): numb
 
 // ------------------------------------------------------------------ Ishibashi & Zhang (1993)
 
-/** n(PI) of Ishibashi & Zhang (1993) (from memory: check against the paper). */
+// n(PI) of Ishibashi & Zhang (1993); recalled (from memory): check against the paper.
 export function ishibashiZhangN(piPct: number): number {
   if (piPct <= 0) return 0;
   if (piPct <= 15) return 3.37e-6 * piPct ** 1.404;
@@ -230,7 +230,7 @@ export function ishibashiZhangModulusRatio(strainPct: number, piPct: number, sig
   return Math.min(1, k * sigmaMKpa ** m);
 }
 
-/** D (%) = 100 * 0.333 (1 + exp(-0.0145 PI^1.3))/2 [0.586 (G/Gmax)^2 - 1.547 G/Gmax + 1] (from memory). */
+// D (%) = 100 * 0.333 (1 + exp(-0.0145 PI^1.3))/2 [0.586 (G/Gmax)^2 - 1.547 G/Gmax + 1]; recalled (from memory).
 export function ishibashiZhangDampingPct(modulusRatio: number, piPct: number): number {
   const r = modulusRatio;
   return 100 * ((0.333 * (1 + Math.exp(-0.0145 * piPct ** 1.3))) / 2) * (0.586 * r * r - 1.547 * r + 1);
