@@ -21,7 +21,6 @@ export * from './io/text';
 export * from './picking/autopick';
 export * from './picking/snap';
 export * from './picking/edits';
-export * from './survey/assign';
 export * from './survey/paste';
 export * from './survey/stations';
 export * from './velocity/intervals';
@@ -32,6 +31,7 @@ export * from './stiffness/normalise';
 export * from './synth/demo';
 export * from './io/recordlog';
 export { decodeUtf8 } from './io/bytes';
+export { DEFAULT_NAME_PATTERN } from './setup/depth';
 export * from './setup/infer';
 export * from './setup/legacy';
 export {

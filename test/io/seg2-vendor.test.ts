@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readSeg2 } from '../../src/core/io/seg2';
-import { placeFromHeaders } from '../../src/core/survey/assign';
+import { hitFromHeaders } from '../../src/core/setup/depth';
 import { errorOf } from '../helpers/errors';
 import { buildSeg2, int16Hex, sampleBytes, spreadRecord24, type Order } from './seg2-fixtures';
 
@@ -98,14 +98,14 @@ describe('repeated keywords are all kept', () => {
     const r = readSeg2(f, 'n.sg2');
     expect(r.notes).toEqual(['operator: crew B', 'hit left']);
     expect(r.fileStringLists?.NOTE).toEqual(['operator: crew B', 'hit left']);
-    expect(placeFromHeaders(r).hit).toBe('left');
+    expect(hitFromHeaders(r)?.value).toBe('left');
   });
 
   it('a trace keyword written twice keeps both values, and a hit word in the first one is found', () => {
     const r = readSeg2(oneTrace(['SAMPLE_INTERVAL 0.001', 'COMMENT hit right', 'COMMENT stack 4']), 'c.sg2');
     expect(r.traces[0].stringLists?.COMMENT).toEqual(['hit right', 'stack 4']);
     expect(r.traces[0].strings.COMMENT).toBe('stack 4');
-    expect(placeFromHeaders(r).hit).toBe('right');
+    expect(hitFromHeaders(r)?.value).toBe('right');
   });
 });
 
@@ -120,7 +120,7 @@ describe('a 24-trace spread record', () => {
     for (const t of r.traces) expect(t.delayS).toBeCloseTo(-2 * 0.000125 - 0.00006, 15);
     expect(r.traces[0].strings.SCALE_UNIT).toBe('MV');
     expect(r.notes).toEqual(['operator: crew B, calm wind', 'hit left']);
-    expect(placeFromHeaders(r).hit).toBe('left');
+    expect(hitFromHeaders(r)?.value).toBe('left');
   });
 });
 

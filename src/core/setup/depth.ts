@@ -13,6 +13,8 @@ import type { HitDirection, WaveRecord } from '../model';
 import type { Placed, PlacementSettings, ReceiverSlot, RejectedValue, SetupGeometry } from './types';
 
 export const FT_TO_M = 0.3048;
+/** The app's starting file-name pattern: `..._d12.5_L.sg2` (our own convention; the user edits it). */
+export const DEFAULT_NAME_PATTERN = '*d{depth}_{hit}.*';
 /** Two positions within this distance are the same, m (1 mm: depth keys are whole millimetres). */
 const SAME_M = 0.0015;
 /** A trace is at a hole's collar when its x y lie within this distance, m (common practice: a hole is a few cm wide; positions are written to cm). */
@@ -106,10 +108,11 @@ export function hitWordInFileName(file: string): Placed<HitDirection> | null {
 
 /** Hit from NOTE lines and trace/file strings: "HIT left", "hit=R", "blow: up", "direction down". */
 export function hitFromHeaders(rec: WaveRecord): Placed<HitDirection> | null {
+  // Every value of a repeated keyword is searched (two NOTE strings: an operator note and "hit left").
   const texts = [
     ...rec.notes,
-    rec.fileStrings.SOURCE ?? '',
-    ...rec.traces.flatMap((t) => [t.strings.NOTE ?? '', t.strings.SOURCE ?? '']),
+    ...(rec.fileStringLists?.SOURCE ?? [rec.fileStrings.SOURCE ?? '']),
+    ...rec.traces.flatMap((t) => [...Object.values(t.strings), ...Object.values(t.stringLists ?? {}).flat()]),
   ];
   for (const s of texts) {
     const m = /\b(?:hit|blow|direction|strike)\s*[:=]?\s*(left|right|up|down|l|r|u|d)\b/i.exec(s);

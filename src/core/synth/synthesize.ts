@@ -294,7 +294,7 @@ interface ShotSpec {
   receivers: ReceiverSpec[];
 }
 
-/** Components recorded per receiver: downhole H1 H2 V; crosshole V then H1 (the channel layout survey/assign.ts expects). */
+/** Components recorded per receiver: downhole H1 H2 V; crosshole V then H1 (the test kinds' default channel layout, catalogue/testKinds.ts). */
 function componentsFor(kind: TestKind): Component[] {
   return kind === 'crosshole' ? ['V', 'H1'] : ['H1', 'H2', 'V'];
 }
