@@ -28,6 +28,7 @@ import { filesFromList, RecordsPane } from './Records';
 import { ExportSheet, SiteSheet } from './Sheets';
 import { TraceBoard } from './TraceBoard';
 import { TravelTime } from './TravelTime';
+import { Splitter } from './Splitter';
 import { UpdateBanner } from './UpdateBanner';
 import { warmHardwareWebgl } from './gl';
 import { fmt, label, useUnits } from './units';
@@ -476,57 +477,6 @@ const PrintBody = memo(function PrintBody({
   );
 });
 
-/**
- * A drag handle that resizes a pane: sets a CSS size variable on the app (--left-w, --right-w,
- * --strip-h) in px, within limits that keep every pane usable.
- */
-function Splitter({
-  cssVar,
-  axis,
-  sign,
-  min,
-  max,
-}: {
-  cssVar: string;
-  axis: 'col' | 'row';
-  sign: 1 | -1;
-  min: number;
-  max: number;
-}) {
-  const [dragging, setDragging] = useState(false);
-  const onDown = (ev: React.MouseEvent<HTMLDivElement>) => {
-    const app = ev.currentTarget.closest('.app') as HTMLElement | null;
-    const pane = ev.currentTarget.parentElement;
-    if (!app || !pane) return;
-    ev.preventDefault();
-    const start = axis === 'col' ? ev.clientX : ev.clientY;
-    const size0 = axis === 'col' ? pane.getBoundingClientRect().width : pane.getBoundingClientRect().height;
-    setDragging(true);
-    const onMove = (e: MouseEvent) => {
-      const pos = axis === 'col' ? e.clientX : e.clientY;
-      const size = Math.max(min, Math.min(max, size0 + sign * (pos - start)));
-      app.style.setProperty(cssVar, `${Math.round(size)}px`);
-    };
-    const onUp = () => {
-      setDragging(false);
-      window.removeEventListener('mousemove', onMove);
-      window.removeEventListener('mouseup', onUp);
-    };
-    window.addEventListener('mousemove', onMove);
-    window.addEventListener('mouseup', onUp);
-  };
-  return (
-    <div
-      className={`splitter ${axis} ${dragging ? 'dragging' : ''}`}
-      role="separator"
-      aria-orientation={axis === 'col' ? 'vertical' : 'horizontal'}
-      aria-label="Drag to resize"
-      style={axis === 'col' ? (sign === 1 ? { right: -3 } : { left: -3 }) : undefined}
-      onMouseDown={onDown}
-    />
-  );
-}
-
 export function App() {
   // Only the fields the frame needs: the panes read the rest themselves, so an edit does not re-render all.
   const recordsOpen = useApp((s) => s.view.recordsOpen);
@@ -583,14 +533,14 @@ export function App() {
           {view.centre === 'traces' ? <TraceBoard /> : view.centre === 'geometry' ? <GeometryPane /> : <DesignPane />}
         </div>
         <div className="right">
-          <Splitter cssVar="--right-w" axis="col" sign={-1} min={380} max={900} />
+          <Splitter cssVar="--right-w" axis="col" sign={-1} min={380} max={900} label="Resize the Profile pane" />
           <ProfilePane />
           {view.sheet === 'site' && <SiteSheet />}
           {view.sheet === 'export' && <ExportSheet />}
         </div>
       </main>
       <footer className="strip">
-        <Splitter cssVar="--strip-h" axis="row" sign={-1} min={120} max={520} />
+        <Splitter cssVar="--strip-h" axis="row" sign={-1} min={120} max={520} label="Resize the bottom strip" />
         <PairCheck />
         <TravelTime />
       </footer>

@@ -555,7 +555,7 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
         <td className="text">
           <Field
             value={hole.id}
-            width={10}
+            width={7}
             ariaLabel={`Name of hole ${hole.id}`}
             onCommit={(t) => setRenameErr(renameHole(hole.id, t))}
           />
@@ -579,40 +579,42 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
             ariaLabel={`${hole.id} collar north`}
           />
         </td>
-        <td>
+        <td className="text wrap">
           {hole.deviation.length
             ? `${hole.deviation.length} stations to ${fmt('depth', units, hole.deviation[hole.deviation.length - 1].depthAlongM)} ${label('depth', units)}`
             : 'vertical'}
           {devFile ? <span className="muted"> ({devFile})</span> : null}
-        </td>
-        <td>
-          <label className="btn-like">
-            Load CSV…
-            <input
-              type="file"
-              accept=".csv,.txt,.tsv"
-              hidden
-              onChange={async (e) => {
-                const f = e.target.files?.[0];
-                e.target.value = '';
-                if (!f) return;
-                const problem = loadDeviation(hole.id, f.name, await f.text());
-                setErr(problem ? problem.message : null);
-              }}
-            />
-          </label>{' '}
-          <button onClick={() => setPaste(!paste)}>Paste…</button>{' '}
-          {hole.deviation.length > 0 && <button onClick={() => setHole({ deviation: [] })}>Clear</button>}
+          <span className="cell-actions">
+            <label className="btn-like">
+              Load CSV…
+              <input
+                type="file"
+                accept=".csv,.txt,.tsv"
+                hidden
+                onChange={async (e) => {
+                  const f = e.target.files?.[0];
+                  e.target.value = '';
+                  if (!f) return;
+                  const problem = loadDeviation(hole.id, f.name, await f.text());
+                  setErr(problem ? problem.message : null);
+                }}
+              />
+            </label>
+            <button onClick={() => setPaste(!paste)} aria-expanded={paste}>
+              Paste…
+            </button>
+            {hole.deviation.length > 0 && <button onClick={() => setHole({ deviation: [] })}>Clear</button>}
+          </span>
         </td>
       </tr>
       {(paste || err) && (
         <tr>
-          <td colSpan={5}>
+          <td colSpan={4} className="text wrap">
             {paste && (
               <div className="paste-box">
                 <textarea
                   rows={5}
-                  cols={50}
+                  cols={40}
                   value={text}
                   onChange={(e) => setText(e.target.value)}
                   placeholder="depth_along_m, east_m, north_m (header with units, one station a line)"
@@ -642,80 +644,112 @@ function SoilTable({ units }: { units: UnitSystem }) {
   const setLayer = (i: number, patch: Partial<SoilLayer>) =>
     setLayers(soil.layers.map((l, j) => (j === i ? { ...l, ...patch } : l)));
   const dep = label('depth', units);
+  // Rows where the user chose to type n (its field shows; otherwise the menu says it all).
+  const [ownN, setOwnN] = useState<ReadonlySet<number>>(new Set());
   return (
     <>
-      <table className="num">
-        <thead>
-          <tr>
-            <th>Top ({dep})</th>
-            <th>Bottom ({dep})</th>
-            <th>Name</th>
-            <th>Unit weight ({label('unitWeight', units)})</th>
-            <th>n for Vs1</th>
-            <th>Poisson's ratio</th>
-            <th />
-          </tr>
-        </thead>
-        <tbody>
-          {soil.layers.map((l, i) => (
-            <tr key={i}>
-              <td>
-                <QtyField kind="depth" units={units} si={l.topM} onCommit={(v) => setLayer(i, { topM: v ?? 0 })} />
-              </td>
-              <td>
-                <QtyField
-                  kind="depth"
-                  units={units}
-                  si={l.bottomM}
-                  onCommit={(v) => setLayer(i, { bottomM: v ?? l.bottomM })}
-                />
-              </td>
-              <td>
-                <Field value={l.name} width={18} onCommit={(t) => setLayer(i, { name: t })} />
-              </td>
-              <td>
-                <QtyField
-                  kind="unitWeight"
-                  units={units}
-                  si={l.unitWeightKnM3}
-                  onCommit={(v) => v !== null && setLayer(i, { unitWeightKnM3: v })}
-                />
-              </td>
-              <td>
-                <select
-                  value={
-                    STRESS_EXPONENT_CHOICES.some((c) => c.n === l.stressExponent) ? String(l.stressExponent) : 'other'
-                  }
-                  onChange={(e) =>
-                    e.target.value !== 'other' && setLayer(i, { stressExponent: Number(e.target.value) })
-                  }
-                  title={STRESS_EXPONENT_CHOICES.find((c) => c.n === l.stressExponent)?.source}
-                >
-                  {STRESS_EXPONENT_CHOICES.map((c) => (
-                    <option key={c.label} value={String(c.n)}>
-                      {c.n} {c.label}
-                    </option>
-                  ))}
-                  <option value="other">other…</option>
-                </select>{' '}
-                <NumField value={l.stressExponent} onCommit={(v) => setLayer(i, { stressExponent: v })} ariaLabel="n" />
-              </td>
-              <td>
-                <NumField
-                  value={l.poissonRatio}
-                  onCommit={(v) => setLayer(i, { poissonRatio: v })}
-                  ariaLabel="Poisson's ratio"
-                />
-              </td>
-              <td>
-                <button className="link" onClick={() => setLayers(soil.layers.filter((_, j) => j !== i))}>
-                  remove
-                </button>
-              </td>
+      <div className="table-wrap">
+        <table className="num soil">
+          <thead>
+            <tr>
+              <th>Top ({dep})</th>
+              <th>Bottom ({dep})</th>
+              <th className="text">Name</th>
+              <th>Unit weight ({label('unitWeight', units)})</th>
+              <th className="text">n for Vs1</th>
+              <th>Poisson's ratio</th>
+              <th />
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {soil.layers.map((l, i) => (
+              <tr key={i}>
+                <td>
+                  <QtyField kind="depth" units={units} si={l.topM} onCommit={(v) => setLayer(i, { topM: v ?? 0 })} />
+                </td>
+                <td>
+                  <QtyField
+                    kind="depth"
+                    units={units}
+                    si={l.bottomM}
+                    onCommit={(v) => setLayer(i, { bottomM: v ?? l.bottomM })}
+                  />
+                </td>
+                <td className="name">
+                  <Field
+                    value={l.name}
+                    width={14}
+                    onCommit={(t) => setLayer(i, { name: t })}
+                    ariaLabel={`Name of layer ${i + 1}`}
+                  />
+                </td>
+                <td>
+                  <QtyField
+                    kind="unitWeight"
+                    units={units}
+                    si={l.unitWeightKnM3}
+                    onCommit={(v) => v !== null && setLayer(i, { unitWeightKnM3: v })}
+                  />
+                </td>
+                <td className="text">
+                  {(() => {
+                    const listed = STRESS_EXPONENT_CHOICES.some((c) => c.n === l.stressExponent);
+                    const typed = !listed || ownN.has(i);
+                    return (
+                      <>
+                        <select
+                          aria-label={`n for Vs1, layer ${i + 1}`}
+                          value={typed ? 'other' : String(l.stressExponent)}
+                          onChange={(e) => {
+                            const other = e.target.value === 'other';
+                            setOwnN((o) => {
+                              const next = new Set(o);
+                              if (other) next.add(i);
+                              else next.delete(i);
+                              return next;
+                            });
+                            if (!other) setLayer(i, { stressExponent: Number(e.target.value) });
+                          }}
+                          title={STRESS_EXPONENT_CHOICES.find((c) => c.n === l.stressExponent)?.source}
+                        >
+                          {STRESS_EXPONENT_CHOICES.map((c) => (
+                            <option key={c.label} value={String(c.n)}>
+                              {c.n} {c.label}
+                            </option>
+                          ))}
+                          <option value="other">other n…</option>
+                        </select>
+                        {typed && (
+                          <>
+                            {' '}
+                            <NumField
+                              value={l.stressExponent}
+                              onCommit={(v) => setLayer(i, { stressExponent: v })}
+                              ariaLabel="n"
+                            />
+                          </>
+                        )}
+                      </>
+                    );
+                  })()}
+                </td>
+                <td>
+                  <NumField
+                    value={l.poissonRatio}
+                    onCommit={(v) => setLayer(i, { poissonRatio: v })}
+                    ariaLabel="Poisson's ratio"
+                  />
+                </td>
+                <td>
+                  <button className="link" onClick={() => setLayers(soil.layers.filter((_, j) => j !== i))}>
+                    remove
+                  </button>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
       <button
         onClick={() => {
           const last = soil.layers[soil.layers.length - 1];
@@ -1097,14 +1131,13 @@ export function GeometryPane() {
       </div>
       <RecordsTable units={units} />
       <h3>Boreholes</h3>
-      <table className="num">
+      <table className="num boreholes">
         <thead>
           <tr>
             <th>Hole</th>
             <th>Collar east ({label('depth', units)})</th>
             <th>Collar north ({label('depth', units)})</th>
-            <th>Deviation survey</th>
-            <th />
+            <th className="text">Deviation survey</th>
           </tr>
         </thead>
         <tbody>

@@ -8,6 +8,7 @@ import type { NamedBytes } from '../worker/protocol';
 import { setView, useApp, type RecordMeta } from '../state/store';
 import { kindInfo } from '../core';
 import { DEMO_KINDS } from '../core';
+import { Splitter } from './Splitter';
 import { fmt, useUnits } from './units';
 
 export async function filesFromList(list: FileList | File[]): Promise<NamedBytes[]> {
@@ -149,6 +150,7 @@ export function RecordsPane() {
         void filesFromDrop(e.dataTransfer).then(loadFiles);
       }}
     >
+      <Splitter cssVar="--left-w" axis="col" sign={1} min={180} max={520} label="Resize the Records pane" />
       <div className="pane-head">
         <h2>Records</h2>
         <span className="spacer" />
