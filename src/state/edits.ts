@@ -120,6 +120,14 @@ export function updateSettings(patch: SettingsPatch): void {
   commit((s) => ({ settings: patchSettings(s.settings, patch) }));
 }
 
+/**
+ * The layered model's boundaries set by the user (one undo step, saved with the project); null = back
+ * to the boundaries chosen from the travel times (the user's list is kept for the Geometry pane's menu).
+ */
+export function setLayerBoundaries(boundariesM: number[] | null): void {
+  updateSettings({ layering: boundariesM === null ? { mode: 'auto' } : { mode: 'user', boundariesM } });
+}
+
 export function updateSurvey(change: (s: Snapshot['survey']) => Snapshot['survey']): void {
   commit((s) => ({ survey: change(s.survey) }));
 }

@@ -20,6 +20,11 @@ export function disp(kind: QuantityKind, u: UnitSystem, si: number): number {
   return toDisplay(kind, u, si);
 }
 
+/** Display value back to SI. */
+export function undisp(kind: QuantityKind, u: UnitSystem, value: number): number {
+  return fromDisplay(kind, u, value);
+}
+
 /** Parses a number typed in display units back to SI; null when it is not a number. */
 export function parseDisplay(kind: QuantityKind, u: UnitSystem, text: string): number | null {
   const t = text.trim().replace(',', '.');
