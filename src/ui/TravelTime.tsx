@@ -289,7 +289,7 @@ export function TravelTime() {
       <div className="pane-head tt-head">
         <h2>Travel time</h2>
         {editable && (
-          <span className="tt-tools" role="group" aria-label="Layer boundaries">
+          <span className="tt-tools" role="group" aria-label="Layer boundary tools">
             <span className="small muted tt-legend" aria-hidden="true">
               boundaries: <span className="bnd-key auto" /> from the travel times <span className="bnd-key user" />{' '}
               yours
