@@ -86,17 +86,20 @@ for (const demo of ['downhole', 'downhole-pair', 'crosshole']) {
     await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'SI', exact: true }).click();
     // The borehole's deviation actions and the soil table's last column, named in the issue.
     const pane = page.locator('.geometry-pane');
-    for (const name of ['Paste…', 'Add borehole', 'Add layer']) {
-      const b = pane.getByRole('button', { name, exact: true });
+    for (const b of [
+      pane.getByText('Load CSV…').first(),
+      pane.getByRole('button', { name: 'Paste…', exact: true }).first(),
+      pane.getByRole('button', { name: 'Add borehole', exact: true }),
+      pane.getByRole('button', { name: 'Add layer', exact: true }),
+    ]) {
       await b.scrollIntoViewIfNeeded();
       await expect(b).toBeInViewport({ ratio: 1 });
     }
-    await expect(pane.getByText('Load CSV…')).toBeInViewport({ ratio: 1 });
     if (demo === 'downhole') {
       const remove = pane.getByRole('button', { name: 'remove' }).last();
       await remove.scrollIntoViewIfNeeded();
       await expect(remove).toBeInViewport({ ratio: 1 });
-      await pane.getByRole('button', { name: 'Paste…' }).click();
+      await pane.getByRole('button', { name: 'Paste…' }).first().click();
       await pane.locator('.paste-box').scrollIntoViewIfNeeded();
       await page.locator('.centre').screenshot({ path: `${SCREENS}/geometry-1366-${demo}-boreholes.png` });
       expect((await outsidePane(page)).problems, 'with the paste box open').toEqual([]);

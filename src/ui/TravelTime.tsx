@@ -370,7 +370,7 @@ export function TravelTime() {
               return (
                 // biome-ignore lint/a11y/useSemanticElements: a draggable handle on the plot (WAI-ARIA slider), no native element fits
                 <div
-                  key={`${i}-${m.depthM}`}
+                  key={i}
                   className={`bnd-handle ${style}${drag?.index === i ? ' dragging' : ''}`}
                   role="slider"
                   tabIndex={0}
