@@ -1,7 +1,7 @@
 /**
  * A full session without a single console error or uncaught exception: each demo survey, every pane
  * (Trace board <-> Geometry back and forth, Site and Export sheets, US units), a pick edit and
- * undo, and downloads (CSV, site summary, a plot image). Runs on the production build by default and on
+ * undo, a layer boundary added, nudged and given back to the automatic layering, a splitter moved, and downloads (CSV, site summary, a plot image). Runs on the production build by default and on
  * the dev server with E2E_DEV=1 (its live-reload socket must pass the page's CSP).
  */
 import { test, expect, type Page } from '@playwright/test';
@@ -45,6 +45,17 @@ test('a full session has no console errors', async ({ page }) => {
     await page.keyboard.press('ArrowDown');
     await page.keyboard.press('ArrowRight');
     await page.keyboard.press('z');
+    // Layer boundaries on the Travel time plot (downhole kinds): add one, nudge it, back to automatic.
+    const add = page.getByRole('button', { name: 'Add boundary' });
+    if (await add.isVisible()) {
+      await add.click();
+      await page.locator('section[aria-label="Travel time"]').getByRole('slider').first().focus();
+      await page.keyboard.press('ArrowDown');
+      await page.getByRole('button', { name: 'Automatic boundaries' }).click();
+    }
+    // The panes' splitters, by keyboard.
+    await page.getByRole('separator', { name: 'Resize the Records pane' }).focus();
+    await page.keyboard.press('ArrowRight');
     await page.getByLabel('Wave').selectOption('P');
     await page.getByLabel('Wave').selectOption('S');
     await page.getByRole('button', { name: 'US', exact: true }).click();
