@@ -69,6 +69,12 @@ interface Binding {
 export const BINDINGS: readonly Binding[] = [
   { keys: 'click (Pick tool)', help: 'place the pick of the method being edited on the nearest trace' },
   { keys: 'drag (Pick tool)', help: 'move it; one undo step per drag' },
+  { keys: 'click on the Travel time depth axis', help: 'add a layer boundary there (S waves, downhole surveys)' },
+  { keys: 'drag a boundary handle', help: 'move the boundary; double-click removes it; one undo step each' },
+  {
+    keys: '↑ ↓  Delete  on a boundary handle',
+    help: 'move it 0.1 m or ft (with shift: 1) / remove it; Tab reaches the handles',
+  },
   {
     keys: 'z  or  ctrl+z',
     help: 'undo',

@@ -271,7 +271,8 @@ export function TravelTime() {
       : ''
   }`;
   const layeredText =
-    wave === 'S' && (layeredFit || layeringReason)
+    // Only where the layered model applies (a crosshole survey has none to explain).
+    wave === 'S' && methodApplies('layer-model', survey.kind) && (layeredFit || layeringReason)
       ? layeredFit
         ? `Layered model (${settingsMode === 'user' ? (marks.length ? 'your boundaries' : 'one layer: no boundaries set') : 'boundaries from the travel times'}): ${layeredFit.layers
             .map(
