@@ -290,7 +290,7 @@ export function TravelTime() {
       <div className="pane-head tt-head">
         <h2>Travel time</h2>
         {editable && (
-          <span className="tt-tools" role="group" aria-label="Layer boundary tools">
+          <fieldset className="tt-tools" aria-label="Layer boundary tools">
             <span className="small muted tt-legend" aria-hidden="true">
               boundaries: <span className="bnd-key auto" /> from the travel times <span className="bnd-key user" />{' '}
               yours
@@ -314,7 +314,7 @@ export function TravelTime() {
             >
               Automatic boundaries
             </button>
-          </span>
+          </fieldset>
         )}
       </div>
       <div className="pane-note tt-note" title={legendText}>
@@ -323,6 +323,7 @@ export function TravelTime() {
       {layeredText && (
         <div
           className="pane-note tt-note"
+          role="note"
           aria-label="Layered model"
           data-testid="layered-model-note"
           title={layeredText}
@@ -345,7 +346,9 @@ export function TravelTime() {
         />
         {editable && box && div && (
           <div className="bnd-overlay">
-            {/* The depth axis: a click adds a boundary at that depth. */}
+            {/* The depth axis: a click adds a boundary at that depth (from the keyboard: "Add boundary"). */}
+            {/* biome-ignore lint/a11y/useKeyWithClickEvents: the keyboard way is the Add boundary button and the handles */}
+            {/* biome-ignore lint/a11y/noStaticElementInteractions: a pointer target over the plot's axis */}
             <div
               className="bnd-rail"
               data-testid="boundary-rail"
@@ -369,7 +372,6 @@ export function TravelTime() {
                     ? 'set by you'
                     : 'set by you, not used by the fit';
               return (
-                // biome-ignore lint/a11y/useSemanticElements: a draggable handle on the plot (WAI-ARIA slider), no native element fits
                 <div
                   key={i}
                   className={`bnd-handle ${style}${drag?.index === i ? ' dragging' : ''}`}
