@@ -30,6 +30,7 @@ import { directVelocities, travelTimeRows, type DirectVelocity, type TravelTimeR
 import { layerFits, layerModelFor, rayFitFor, type LayerFit } from './velocity/layers';
 import type { LayeredFit } from './velocity/layering';
 import { layerMethod } from './velocity/layerMethod';
+import { jointCorrelation, jointMethod, type JointLayer } from './velocity/joint';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
@@ -42,7 +43,7 @@ import {
 } from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
 import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/summary';
-import type { SiteUncertainty } from './site/montecarlo';
+import type { SiteUncertainty, SpanCorrelation } from './site/montecarlo';
 import type { ComparisonProfile } from './site/comparison';
 import { comparisonResult, type ComparisonResult } from './site/compare';
 import type { FieldQ } from './stiffness/curves';
@@ -109,6 +110,15 @@ export interface Derived {
   layerModel: LayerModelFit | null;
   /** Downhole kinds: the layered model behind the 'layer-model' method (automatic or user boundaries), or why there is none. */
   layering: { fit: LayeredFit | null; reason: string | null };
+  /** The joint travel-time inversion behind the 'joint' method: per-layer Vs with sd, fit quality, or why there is none. */
+  joint: {
+    layers: JointLayer[];
+    reducedChi2: number | null;
+    reason: string | null;
+    notes: string[];
+    /** Correlation between the chosen joint intervals' Vs (the Vs30 Monte Carlo draws from it). */
+    correlation: SpanCorrelation | null;
+  };
   drift: MethodDrift | null;
   /** Field Qs and damping D = 1/(2Q) per same-hit interval and per layer (spectral ratio), or why there is none. */
   damping: SurveyDamping;
@@ -139,7 +149,7 @@ export interface DeriveOptions {
 export function siteSpread(derived: Derived, settings: Settings): SiteUncertainty | null {
   if (!derived.site.vs30) return null;
   const ivs = [...siteIntervals(derived.profile), ...derived.site.bridged].sort((a, b) => a.topM - b.topM);
-  return spreadOf(ivs, settings);
+  return spreadOf(ivs, settings, derived.joint.correlation);
 }
 
 /**
@@ -231,12 +241,23 @@ export function derive(
       message: `No layered model: ${layering.reason}. Intervals use the other methods.`,
       field: 'layering',
     });
+  const joint = jointMethod(
+    survey.kind,
+    survey.sourceDepthM,
+    pairs,
+    picks,
+    allDelays,
+    layering.fit,
+    { triggerOffsetSdS: settings.intervals.triggerOffsetSdS },
+    isOnsetPick,
+  );
   const intervals = intervalValues({
     pairs,
     picksByStation,
     delaysByPair,
     rayFit: ray.byPair,
     layerModel: layering.byPair,
+    joint: joint.byPair,
     kind: survey.kind,
     settings,
     edits,
@@ -252,12 +273,24 @@ export function derive(
   const design = designResults(profile, soil, settings.design, options.fieldQ ?? fieldQForDesign(surveyDamping));
   issues.push(...design.issues);
   const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
+  // The chosen S intervals of the joint inversion share one covariance: the Monte Carlo draws them together.
+  const jointChosen = intervals.filter((r) => r.chosen && r.wave === 'S' && r.method === 'joint');
+  const correlation: SpanCorrelation | null =
+    jointChosen.length > 1
+      ? {
+          spans: jointChosen.map((r) => ({ topM: r.topM, bottomM: r.bottomM })),
+          matrix: jointChosen.flatMap((a) =>
+            jointChosen.map((b) => (a === b ? 1 : (jointCorrelation(joint, a.key, b.key) ?? 0))),
+          ),
+        }
+      : null;
   const site = siteSummary(
     velocity,
     settings,
     options.monteCarlo ?? true,
     setupIncompleteText(setupProblems),
     kindInfo(survey.kind).sourceInHole ? null : gapVelocityFrom(kept, picks),
+    correlation,
   );
   const drift = methodDrift(intervals);
   if (drift?.significant) {
@@ -278,6 +311,13 @@ export function derive(
     rayFit: ray.result,
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
+    joint: {
+      layers: joint.layers,
+      reducedChi2: joint.reducedChi2,
+      reason: joint.reason,
+      notes: joint.notes,
+      correlation,
+    },
     drift,
     damping: surveyDamping,
     site,

@@ -16,7 +16,8 @@ export type IntervalMethod =
   | 'xcorr'
   | 'phase'
   | 'ray-fit'
-  | 'layer-model';
+  | 'layer-model'
+  | 'joint';
 
 /** Pick methods a user can correct by hand ('onset' = the station's first-arrival pick). */
 export type EditablePickMethod = 'onset' | 'peak' | 'trough' | 'zero-crossing';
@@ -138,6 +139,18 @@ export const INTERVAL_METHOD_CATALOGUE: readonly IntervalMethodInfo[] = [
     fallbackRank: null,
     waves: ['S'],
     kinds: ['downhole', 'downhole-pair', 'seismic-cone'],
+  },
+  {
+    // velocity/joint.ts: onsets, correlation delays, trigger offsets and the layering in one inversion
+    id: 'joint',
+    kind: 'model',
+    editable: false,
+    label: 'joint inversion',
+    shortLabel: 'Joint',
+    inDisagreementCheck: false,
+    fallbackRank: null,
+    waves: ['S'],
+    kinds: null,
   },
 ];
 
