@@ -39,6 +39,7 @@ import {
   fieldDamping,
   fieldQForDesign,
   layerDamping,
+  stackOnLayers,
   type SurveyDamping,
 } from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
@@ -264,10 +265,14 @@ export function derive(
   });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
+  const dampingLayers =
+    layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [];
+  const ownDamping = damping.intervals.map(({ pulse: _pulse, ...rest }) => rest);
   const surveyDamping: SurveyDamping = {
     ...damping,
-    intervals: damping.intervals.map(({ pulse: _pulse, ...rest }) => rest),
-    layers: layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [],
+    // two-receiver intervals take the Q stacked over their layer (one 1 m pair alone is too noisy)
+    intervals: survey.kind === 'crosshole' ? ownDamping : stackOnLayers(ownDamping, dampingLayers),
+    layers: dampingLayers,
   };
   // Field D beside the laboratory-model Dmin: the Q given by the caller, else the one measured here.
   const design = designResults(profile, soil, settings.design, options.fieldQ ?? fieldQForDesign(surveyDamping));

@@ -38,6 +38,10 @@ export interface IntervalDamping {
   tStarSdS: number | null;
   delayS: number | null;
   reason: string | null;
+  /** 'interval': this pair's own spectral ratio; 'layer stack': the Q stacked over its layer (stackOnLayers). */
+  qScope?: 'interval' | 'layer stack';
+  /** The pair's own Q where qScope is 'layer stack'. */
+  ownQS?: number | null;
   /** Correlation-delay bias from pulse broadening removed from this interval's xcorr delay, s (null: none applied). */
   biasS?: number | null;
   /** Nearer pulse window and reference (dominant) frequency, kept for the broadening correction. */
@@ -159,31 +163,28 @@ export function pairDamping(
 }
 
 /**
- * Inverse-variance weighted 1/Q = t-star / dt (hence D) over the intervals whose mid-depth lies in each layer.
- * Intervals whose own t-star came out <= 0 (noise over a short path) count with their signed value, so
- * dropping them does not bias the layer towards stronger attenuation.
+ * 1/Q of a layer stacked over the intervals whose mid-depth lies in it: the ratio of sums
+ * sum t*_i / sum dt_i (each interval's t* counts by its own travel time; the regression sds of single
+ * intervals are too noisy to weight by: on the bank's training seeds the ratio of sums gave 20% median
+ * Q error per layer against 25% inverse-variance weighted). Intervals whose own t* came out <= 0
+ * (noise over a short path) count with their signed value, so dropping them does not bias the layer
+ * towards stronger attenuation. Sd: sqrt(sum sd_i^2) / sum dt_i, widened by the Birge ratio where the
+ * intervals scatter more than their sds say (common practice).
  */
 export function layerDamping(intervals: readonly IntervalDamping[], layers: readonly FittedLayer[]): LayerDamping[] {
   return layers.map((l) => {
-    let sw = 0;
-    let swd = 0;
-    let n = 0;
-    const parts: { d: number; w: number }[] = [];
-    for (const iv of intervals) {
+    const parts = intervals.filter((iv) => {
       const mid = (iv.topM + iv.bottomM) / 2;
-      if (mid < l.topM || mid >= l.bottomM) continue;
-      if (iv.tStarS === null || iv.delayS === null || !(iv.tStarSdS! > 0)) continue;
-      const invQ = iv.tStarS / iv.delayS;
-      const w = 1 / (iv.tStarSdS! / iv.delayS) ** 2;
-      sw += w;
-      swd += (w * invQ) / 2;
-      parts.push({ d: invQ / 2, w: 4 * w });
-      n++;
-    }
+      return mid >= l.topM && mid < l.bottomM && iv.tStarS !== null && iv.delayS !== null && iv.tStarSdS! > 0;
+    });
+    const n = parts.length;
     if (!n) return { topM: l.topM, bottomM: l.bottomM, qS: null, damping: null, dampingSd: null, intervals: 0 };
-    const d = swd / sw;
-    // Birge ratio: where the intervals scatter more than their fit sds say, the layer sd grows with it (common practice)
-    const chi2 = parts.reduce((acc, x) => acc + x.w * (x.d - d) ** 2, 0);
+    const sumT = parts.reduce((a, iv) => a + iv.tStarS!, 0);
+    const sumDt = parts.reduce((a, iv) => a + iv.delayS!, 0);
+    const invQ = sumT / sumDt;
+    const d = invQ / 2;
+    const sdInvQ = Math.sqrt(parts.reduce((a, iv) => a + iv.tStarSdS! ** 2, 0)) / sumDt;
+    const chi2 = parts.reduce((a, iv) => a + ((iv.tStarS! - invQ * iv.delayS!) / iv.tStarSdS!) ** 2, 0);
     const inflate = n > 1 ? Math.max(1, Math.sqrt(chi2 / (n - 1))) : 1;
     if (!(d > 0)) return { topM: l.topM, bottomM: l.bottomM, qS: null, damping: null, dampingSd: null, intervals: n };
     return {
@@ -191,8 +192,36 @@ export function layerDamping(intervals: readonly IntervalDamping[], layers: read
       bottomM: l.bottomM,
       qS: 1 / (2 * d),
       damping: d,
-      dampingSd: (inflate * Math.sqrt(1 / sw)) / 2,
+      dampingSd: (inflate * sdInvQ) / 2,
       intervals: n,
+    };
+  });
+}
+
+/**
+ * Two-receiver intervals (1 m of travel or so): one interval's spectral ratio is too noisy for a Q of
+ * its own (median error about 40% on the bank), so each interval takes the Q stacked over its layer
+ * (layerDamping), marked `qScope: 'layer stack'`; its own estimate stays in ownQS. Crosshole intervals
+ * (longer, horizontal paths in one layer) keep their own.
+ */
+export function stackOnLayers(
+  intervals: readonly IntervalDamping[],
+  layers: readonly LayerDamping[],
+): IntervalDamping[] {
+  return intervals.map((iv) => {
+    const mid = (iv.topM + iv.bottomM) / 2;
+    const l = layers.find((x) => mid >= x.topM && mid < x.bottomM);
+    if (!l || l.qS === null || l.damping === null || l.dampingSd === null) return iv;
+    return {
+      ...iv,
+      ownQS: iv.qS,
+      qScope: 'layer stack' as const,
+      qS: l.qS,
+      // sd(Q) = sd(D) / (2 D^2), first order
+      qSdS: l.dampingSd / (2 * l.damping * l.damping),
+      damping: l.damping,
+      dampingSd: l.dampingSd,
+      reason: null,
     };
   });
 }
