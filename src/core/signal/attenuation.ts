@@ -156,7 +156,7 @@ export function constantQPropagate(
 }
 
 /** Lag (s) of the correlation peak of y against x near zero (within maxLagS), refined by a parabola. */
-function peakLagS(x: Float64Array, y: Float64Array, dtS: number, maxLagS: number): number {
+export function peakLagS(x: Float64Array, y: Float64Array, dtS: number, maxLagS: number): number {
   const maxK = Math.max(1, Math.round(maxLagS / dtS));
   const r = (k: number) => {
     let s = 0;

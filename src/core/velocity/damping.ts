@@ -15,7 +15,7 @@ import type { IntervalKey } from '../keys';
 import type { StationPair } from './intervals';
 import type { FittedLayer } from './layering';
 import { realSpectrum, nextPow2 } from '../signal/fft';
-import { broadeningCorrectedDelay, dampingFromQ, spectralRatioQ } from '../signal/attenuation';
+import { broadeningCorrectedDelay, dampingFromQ, peakLagS, spectralRatioQ } from '../signal/attenuation';
 
 export const FIELD_DAMPING_CAUTION =
   'Field damping from the spectral ratio includes scattering and geometric effects that are not removed: it is an upper bound on material damping.';
@@ -266,6 +266,65 @@ export function broadeningCorrected(
     if (!(Math.abs(c.biasS) < 0.2 * d.delayS)) return d;
     iv.biasS = c.biasS;
     return { ...d, delayS: c.delayS };
+  });
+}
+
+/** Leading-edge window around each onset, in dominant periods (before, after): chosen on training seeds. */
+export const LEADING_EDGE_WINDOW_PERIODS: [number, number] = [0.5, 1];
+
+/**
+ * The delay of a same-hit pair measured on the onset-aligned leading edge: both traces windowed from
+ * half a dominant period before their own onset to one period after it, and the lag of the windows'
+ * correlation peak (within a quarter period) added to the onset difference. The later, broadened part
+ * of the farther pulse is left out, so the delay follows the arrival rather than the pulse's centroid.
+ * Null where a window runs off a trace or no dominant frequency is found.
+ */
+export function leadingEdgeDelayS(pair: StationPair, onsetA: Pick, onsetB: Pick): number | null {
+  const ta = pair.a.working;
+  const tb = pair.b.working;
+  const dt = ta.sampleIntervalS;
+  if (Math.abs(tb.sampleIntervalS - dt) > 1e-9 * dt) return null;
+  const ia = Math.round((onsetA.timeS - ta.delayS) / dt);
+  const ib = Math.round((onsetB.timeS - tb.delayS) / dt);
+  const probe = slice(ta.samples, Math.max(0, ia), Math.min(ta.samples.length - Math.max(0, ia), 1024));
+  const f = probe && probe.length >= 16 ? dominantHz(probe, dt) : null;
+  if (!f) return null;
+  const pre = Math.round(LEADING_EDGE_WINDOW_PERIODS[0] / f / dt);
+  const post = Math.round(LEADING_EDGE_WINDOW_PERIODS[1] / f / dt);
+  const wa = slice(ta.samples, ia - pre, pre + post);
+  const wb = slice(tb.samples, ib - pre, pre + post);
+  if (!wa || !wb) return null;
+  const lag = peakLagS(wa, wb, dt, 0.25 / f);
+  return (ib - ia) * dt + (tb.delayS - ta.delayS) + lag;
+}
+
+/**
+ * Same-hit S xcorr delays replaced by the onset-aligned leading-edge delay (leadingEdgeDelayS) where
+ * both onsets are picked and the result lies within a fifth of the correlation delay; others pass.
+ */
+export function leadingEdgeDelays(
+  pairs: readonly StationPair[],
+  picks: readonly Pick[],
+  delays: readonly PairDelay[],
+  isOnset: (p: Pick) => boolean,
+): PairDelay[] {
+  const sameHit = new Map(
+    pairs
+      .filter((p) => p.wave === 'S' && (p.kind === 'true' || p.kind === 'crosshole'))
+      .map((p) => [p.key as string, p]),
+  );
+  if (!sameHit.size) return [...delays];
+  const onsets = new Map<string, Pick>();
+  for (const p of picks) if (p.wave === 'S' && p.origin !== 'excluded' && isOnset(p)) onsets.set(p.stationKey, p);
+  return delays.map((d) => {
+    if (d.method !== 'xcorr' || d.wave !== 'S') return d;
+    const pair = sameHit.get(d.pairKey);
+    const oa = pair && onsets.get(pair.a.key);
+    const ob = pair && onsets.get(pair.b.key);
+    if (!pair || !oa || !ob || !(d.delayS > 0)) return d;
+    const le = leadingEdgeDelayS(pair, oa, ob);
+    if (le === null || !(le > 0) || !(Math.abs(le - d.delayS) < 0.2 * d.delayS)) return d;
+    return { ...d, delayS: le };
   });
 }
 
