@@ -328,8 +328,8 @@ export function jointMethod(
   isOnset: (p: Pick) => boolean,
   o: JointOptions = {},
 ): JointResult {
-  const sPairs = pairs.filter((p) => p.wave === 'S');
-  if (!sPairs.length) return empty('no S intervals');
+  const allS = pairs.filter((p) => p.wave === 'S');
+  if (!allS.length) return empty('no S intervals');
   const floor = o.sdFloorS ?? JOINT_TIME_SD_FLOOR_S;
   const onsets = new Map<string, Pick>();
   if (o.onsets !== false)
@@ -337,6 +337,10 @@ export function jointMethod(
   const onsetSd = (pk: Pick) => Math.hypot(pk.uncertaintyS, floor, o.onsetExtraSdS ?? JOINT_TUNING[kind].onsetExtraSdS);
   const xcorr = new Map<string, PairDelay>();
   for (const d of delays) if (d.wave === 'S' && d.method === 'xcorr') xcorr.set(d.pairKey, d);
+  // pairs that carry any measure (a delay or an onset at either end): a trace without either is left out,
+  // not allowed to leave an unknown without data
+  const sPairs = allS.filter((p) => (xcorr.get(p.key)?.delayS ?? 0) > 0 || onsets.has(p.a.key) || onsets.has(p.b.key));
+  if (!sPairs.length) return empty('no S interval has a delay or an onset');
   // stations and hits (one hit per logged depth: both receivers of a probe or of a crosshole depth share it)
   const stations = new Map<string, StationPair['a']>();
   for (const p of sPairs) {
@@ -387,7 +391,17 @@ export function jointMethod(
       });
     });
   } else {
-    const depths = [...new Set([...stations.values()].map((st) => st.receiverPos[2]))].sort((a, b) => a - b);
+    // receiver depths reached by a measure: cells end at the deepest one
+    const measured = new Set<string>(onsets.keys());
+    for (const p of sPairs)
+      if ((xcorr.get(p.key)?.delayS ?? 0) > 0) {
+        measured.add(p.a.key);
+        measured.add(p.b.key);
+      }
+    const depths = [
+      ...new Set([...stations.values()].filter((st) => measured.has(st.key)).map((st) => st.receiverPos[2])),
+    ].sort((a, b) => a - b);
+    if (!depths.length) return empty('no S station has an onset or a delay');
     const tops = [
       ...new Set([sourceDepthM, ...depths.slice(0, -1), ...(layering?.layers.slice(1).map((l) => l.topM) ?? [])]),
     ]
@@ -478,6 +492,8 @@ export function jointMethod(
       weights = new Map([[k, 1]]);
       len = 1;
     } else {
+      // an interval below the deepest measured receiver has no cells of its own: no value
+      if (p.b.receiverPos[2] > cells[cells.length - 1].bottomM + 1e-9) return;
       weights = cellWeights(cells, p.a.receiverPos[2], p.b.receiverPos[2]);
       len = p.b.receiverPos[2] - p.a.receiverPos[2];
     }
