@@ -10,7 +10,7 @@
  */
 import type { StationKey } from '../src/core/keys';
 import type { WaveRecord } from '../src/core/model';
-import { autoPick, broadeningCorrectionDefault, derive, prepare } from '../src/core/pipeline';
+import { autoPick, broadeningCorrectionDefault, derive, leadingEdgeDefault, prepare } from '../src/core/pipeline';
 import { defaultSettings, emptyEdits } from '../src/core/settings';
 import { demoCrossholeHoles, synthesizeSurvey, type SynthGeometry, type SynthOptions } from '../src/core/synth';
 import { layerIndexAt, trueVsAt } from '../src/core/synth/earth';
@@ -193,12 +193,26 @@ export function prepareCase(c: Case): PreparedCase {
   const bcDefault = broadeningCorrectionDefault(res.survey.kind);
   const bc =
     c.kind === 'two-receiver' || c.kind === 'crosshole'
-      ? derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false, broadeningCorrection: !bcDefault })
+      ? derive(res.survey, prep, auto, emptyEdits(), settings, {
+          monteCarlo: false,
+          broadeningCorrection: !bcDefault,
+          leadingEdge: false,
+        })
       : null;
   const bcRows = (bc?.intervals ?? [])
     .filter((r) => r.method === 'xcorr')
     .map((r) => ({ ...r, method: bcDefault ? 'xcorr-raw' : 'xcorr-bc' }));
-  for (const r of [...d.intervals, ...bcRows]) {
+  // and on the onset-aligned leading edge the other way round from the default ('xcorr-le' when off by
+  // default, 'xcorr-whole' when on), with the joint inversion built on them ('joint-le' / 'joint-whole')
+  const leDefault = leadingEdgeDefault(res.survey.kind);
+  const le =
+    c.kind === 'two-receiver' || c.kind === 'crosshole'
+      ? derive(res.survey, prep, auto, emptyEdits(), settings, { monteCarlo: false, leadingEdge: !leDefault })
+      : null;
+  const leRows = (le?.intervals ?? [])
+    .filter((r) => r.method === 'xcorr' || r.method === 'joint')
+    .map((r) => ({ ...r, method: `${r.method}-${leDefault ? 'whole' : 'le'}` }));
+  for (const r of [...d.intervals, ...bcRows, ...leRows]) {
     if (r.wave !== 'S' || r.velocityMps === null) continue;
     perMethod.push({
       method: r.method,

@@ -8,7 +8,9 @@
  * and a 60-depth downhole survey for the per-edit timings (derive, Monte Carlo).
  * Then the bank of random layered earths (bench/bank.ts): accuracy and calibration per test kind and
  * method on training and held-out seeds (JSON keys `bank` and `calibration`), and the field Q recovery of
- * same-hit surveys (JSON key `fieldQ`: per kind, scope interval/layer, training and held-out).
+ * same-hit surveys (JSON key `fieldQ`: per kind, scope interval/layer, training and held-out). The joint
+ * travel-time inversion is one of the methods (rows `joint`; same-hit kinds also `joint-le`/`joint-whole`
+ * and `xcorr-le`/`xcorr-whole`: delays on the onset-aligned leading edge the other way round from the default).
  * Then the command line against a numpy/scipy pipeline (bench/anchor.ts: cliVsScipyRatio) and the
  * browser figures from a Playwright run (bench/browser.ts; `--no-browser` skips them).
  */

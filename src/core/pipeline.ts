@@ -30,6 +30,7 @@ import { directVelocities, travelTimeRows, type DirectVelocity, type TravelTimeR
 import { layerFits, layerModelFor, rayFitFor, type LayerFit } from './velocity/layers';
 import type { LayeredFit } from './velocity/layering';
 import { layerMethod } from './velocity/layerMethod';
+import { jointCorrelation, jointMethod, type JointLayer } from './velocity/joint';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
@@ -38,11 +39,13 @@ import {
   fieldDamping,
   fieldQForDesign,
   layerDamping,
+  leadingEdgeDelays,
+  stackOnLayers,
   type SurveyDamping,
 } from './velocity/damping';
 import { profileRows, type ProfileRow } from './stiffness/rows';
 import { siteIntervals, siteSummary, spreadOf, type SiteSummary } from './site/summary';
-import type { SiteUncertainty } from './site/montecarlo';
+import type { SiteUncertainty, SpanCorrelation } from './site/montecarlo';
 import type { ComparisonProfile } from './site/comparison';
 import { comparisonResult, type ComparisonResult } from './site/compare';
 import type { FieldQ } from './stiffness/curves';
@@ -109,6 +112,15 @@ export interface Derived {
   layerModel: LayerModelFit | null;
   /** Downhole kinds: the layered model behind the 'layer-model' method (automatic or user boundaries), or why there is none. */
   layering: { fit: LayeredFit | null; reason: string | null };
+  /** The joint travel-time inversion behind the 'joint' method: per-layer Vs with sd, fit quality, or why there is none. */
+  joint: {
+    layers: JointLayer[];
+    reducedChi2: number | null;
+    reason: string | null;
+    notes: string[];
+    /** Correlation between the chosen joint intervals' Vs (the Vs30 Monte Carlo draws from it). */
+    correlation: SpanCorrelation | null;
+  };
   drift: MethodDrift | null;
   /** Field Qs and damping D = 1/(2Q) per same-hit interval and per layer (spectral ratio), or why there is none. */
   damping: SurveyDamping;
@@ -130,6 +142,8 @@ export interface DeriveOptions {
   fieldQ?: readonly FieldQ[];
   /** Correct same-hit xcorr delays for pulse broadening with the field Q (default: broadeningCorrectionDefault). */
   broadeningCorrection?: boolean;
+  /** Measure same-hit xcorr delays on the onset-aligned leading edge (default: leadingEdgeDefault). */
+  leadingEdge?: boolean;
 }
 
 /**
@@ -139,7 +153,7 @@ export interface DeriveOptions {
 export function siteSpread(derived: Derived, settings: Settings): SiteUncertainty | null {
   if (!derived.site.vs30) return null;
   const ivs = [...siteIntervals(derived.profile), ...derived.site.bridged].sort((a, b) => a.topM - b.topM);
-  return spreadOf(ivs, settings);
+  return spreadOf(ivs, settings, derived.joint.correlation);
 }
 
 /**
@@ -153,6 +167,18 @@ export const BROADENING_CORRECTION: { kinds: readonly TestKind[]; halfWidthM: nu
   kinds: [],
   halfWidthM: 2,
 };
+
+/**
+ * Kinds whose same-hit S correlation delays are measured on the onset-aligned leading edge
+ * (velocity/damping.ts leadingEdgeDelays). On the bank's training seeds (6 per kind, median / P90 %):
+ * crosshole 0.097 / 0.40 leading edge against 0.138 / 0.49 whole pulse; two receivers 2.02 / 8.76
+ * against 1.85 / 8.67 (so not there).
+ */
+export const LEADING_EDGE_KINDS: readonly TestKind[] = ['crosshole'];
+
+export function leadingEdgeDefault(kind: TestKind): boolean {
+  return LEADING_EDGE_KINDS.includes(kind);
+}
 
 /** Whether derive corrects same-hit xcorr delays for broadening by default for a test kind. */
 export function broadeningCorrectionDefault(kind: TestKind): boolean {
@@ -179,10 +205,14 @@ export function derive(
   const measuredDelays = bridges.delays.length ? [...auto.delays, ...bridges.delays] : auto.delays;
   // Field Q of same-hit pairs from the measured delays; then their xcorr delays freed of pulse broadening.
   const damping = fieldDamping(pairs, picks, measuredDelays, null, isOnsetPick);
-  const allDelays =
+  const corrected =
     (options.broadeningCorrection ?? broadeningCorrectionDefault(survey.kind))
       ? broadeningCorrected(measuredDelays, damping, BROADENING_CORRECTION.halfWidthM)
       : measuredDelays;
+  const allDelays =
+    (options.leadingEdge ?? leadingEdgeDefault(survey.kind))
+      ? leadingEdgeDelays(pairs, picks, corrected, isOnsetPick)
+      : corrected;
   // Say what an exclusion costs: the intervals that touched the station leave the profile (or are bridged).
   for (const key of edits.excludedStations) {
     const lost = prepared.pairs.filter(
@@ -231,33 +261,60 @@ export function derive(
       message: `No layered model: ${layering.reason}. Intervals use the other methods.`,
       field: 'layering',
     });
+  const joint = jointMethod(
+    survey.kind,
+    survey.sourceDepthM,
+    pairs,
+    picks,
+    allDelays,
+    layering.fit,
+    { triggerOffsetSdS: settings.intervals.triggerOffsetSdS },
+    isOnsetPick,
+  );
   const intervals = intervalValues({
     pairs,
     picksByStation,
     delaysByPair,
     rayFit: ray.byPair,
     layerModel: layering.byPair,
+    joint: joint.byPair,
     kind: survey.kind,
     settings,
     edits,
   });
   const travelTimes = travelTimeRows(survey, prepared.stations, picks);
   const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
+  const dampingLayers =
+    layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [];
+  const ownDamping = damping.intervals.map(({ pulse: _pulse, ...rest }) => rest);
   const surveyDamping: SurveyDamping = {
     ...damping,
-    intervals: damping.intervals.map(({ pulse: _pulse, ...rest }) => rest),
-    layers: layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [],
+    // two-receiver intervals take the Q stacked over their layer (one 1 m pair alone is too noisy)
+    intervals: survey.kind === 'crosshole' ? ownDamping : stackOnLayers(ownDamping, dampingLayers),
+    layers: dampingLayers,
   };
   // Field D beside the laboratory-model Dmin: the Q given by the caller, else the one measured here.
   const design = designResults(profile, soil, settings.design, options.fieldQ ?? fieldQForDesign(surveyDamping));
   issues.push(...design.issues);
   const setupProblems = setupChecks({ survey, orientation: prepared.orientation ?? [], intervals, settings });
+  // The chosen S intervals of the joint inversion share one covariance: the Monte Carlo draws them together.
+  const jointChosen = intervals.filter((r) => r.chosen && r.wave === 'S' && r.method === 'joint');
+  const correlation: SpanCorrelation | null =
+    jointChosen.length > 1
+      ? {
+          spans: jointChosen.map((r) => ({ topM: r.topM, bottomM: r.bottomM })),
+          matrix: jointChosen.flatMap((a) =>
+            jointChosen.map((b) => (a === b ? 1 : (jointCorrelation(joint, a.key, b.key) ?? 0))),
+          ),
+        }
+      : null;
   const site = siteSummary(
     velocity,
     settings,
     options.monteCarlo ?? true,
     setupIncompleteText(setupProblems),
     kindInfo(survey.kind).sourceInHole ? null : gapVelocityFrom(kept, picks),
+    correlation,
   );
   const drift = methodDrift(intervals);
   if (drift?.significant) {
@@ -278,6 +335,13 @@ export function derive(
     rayFit: ray.result,
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
+    joint: {
+      layers: joint.layers,
+      reducedChi2: joint.reducedChi2,
+      reason: joint.reason,
+      notes: joint.notes,
+      correlation,
+    },
     drift,
     damping: surveyDamping,
     site,

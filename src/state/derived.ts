@@ -115,6 +115,7 @@ function emptyDerived(issues: Derived['issues']): Derived {
     rayFit: null,
     layerModel: null,
     layering: { fit: null, reason: null },
+    joint: { layers: [], reducedChi2: null, reason: 'no result', notes: [], correlation: null },
     drift: null,
     damping: { intervals: [], layers: [], reason: 'no result', caution: '' },
     comparison: null,

@@ -2,7 +2,9 @@
  * project.json version 2 (docs/project-format.md): version-1 archives open to the same numbers, the
  * schema names the path of a bad value, and archives are byte-reproducible for a given savedAt.
  * Reference numbers: test/fixtures/v1/<kind>.profile.csv and .site.json, written by the command line
- * from the version-1 demo archives before the format changed (same code path, SI units).
+ * from the version-1 demo archives before the format changed (same code path, SI units). The crosshole
+ * reference was written again when its same-hit delays moved to the onset-aligned leading edge (Vs30
+ * 242.9 -> 243.1 m/s; the migration itself is unchanged).
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -58,13 +60,18 @@ describe('version-1 archives open to the same numbers', () => {
       const cells = (csv: string) => Papa.parse<string[]>(csv.trim(), { comments: '#', skipEmptyLines: true }).data;
       const ref = cells(readFileSync(join('test/fixtures/v1', `${kind}.profile.csv`), 'utf8'));
       // Columns and site.json keys added after the reference was written (field damping, software version)
-      // are left out of the comparison.
+      // and the joint inversion are left out of the comparison.
       const mine = cells(got.profile);
       const pick = ref[0].map((c) => mine[0].indexOf(c));
       const header = mine[0].length;
       const projected = mine.map((row) => (row.length === header ? pick.map((i) => row[i]) : row));
       expect(projected).toEqual(ref);
-      const { fieldDamping: _added, softwareVersion, ...site } = got.site as Record<string, unknown>;
+      const {
+        fieldDamping: _added,
+        jointInversion: _joint,
+        softwareVersion,
+        ...site
+      } = got.site as Record<string, unknown>;
       expect(typeof softwareVersion).toBe('string');
       expect(site).toEqual(JSON.parse(readFileSync(join('test/fixtures/v1', `${kind}.site.json`), 'utf8')));
     });

@@ -198,3 +198,21 @@ describe('trace decimation for the trace board', () => {
     expect(kept[kept.length - 1]).toBe(100);
   });
 });
+
+describe('field damping in the report, beside laboratory Dmin (Darendeli 2001)', () => {
+  it('crosshole demo: a table of field D and Dmin per soil layer with the upper-bound caution (common practice)', () => {
+    const { html } = makeReport('sample-data/crosshole/project.zip', { madeAt: '2026-12-02T10:00:00.000Z' });
+    expect(html).toContain('id="field-damping"');
+    expect(html).toContain('Laboratory Dmin (%)');
+    // field D, its sd, the frequency and Dmin in each row
+    expect(html).toMatch(
+      /<td class="n">\d+\.\d\d<\/td><td class="n">\d+\.\d\d<\/td><td class="n">\d+<\/td><td class="n">\d+\.\d\d<\/td><\/tr>/,
+    );
+    expect(html).toMatch(/scattering and geometric effects that are not removed, so field D is an upper bound/);
+  });
+  it('one receiver per hit: no field D, and the report says why', () => {
+    const { html } = makeReport('sample-data/downhole/project.zip', { madeAt: '2026-12-02T10:00:00.000Z' });
+    expect(html).toContain('id="field-damping"');
+    expect(html).toMatch(/No field damping for this survey: one receiver per hit/);
+  });
+});

@@ -13,6 +13,10 @@ import { toDisplay, unitSpec, type UnitSystem } from '../units';
 import type { ReportData, ReportInterval, ReportPickOrigin, ReportSetting, ReportWave } from './data';
 import { EXPORT_CAUTIONS } from './tables';
 
+/** Shown beside field damping wherever the report gives it. */
+export const FIELD_D_CAUTION =
+  'Field attenuation includes scattering and geometric effects that are not removed, so field D is an upper bound on material damping.';
+
 /** Test kind in words with the standard it follows (the catalogue's name). */
 export function testKindWords(survey: Survey): string {
   const info = kindInfo(survey.kind);
@@ -280,6 +284,25 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
             probabilities: Object.entries(u?.classProbabilities[k.standard] ?? {}).sort((a, b) => b[1] - a[1]),
             basis: k.basis,
           })),
+    },
+    fieldDamping: {
+      rows: derived.design.layers.flatMap((l) =>
+        l.field
+          ? [
+              {
+                topM: l.topM,
+                bottomM: l.bottomM,
+                layer: l.name,
+                fieldDPct: l.field.dampingPct,
+                fieldDSdPct: l.field.dampingSdPct,
+                frequencyHz: l.field.frequencyHz,
+                labDminPct: l.field.labDminPct,
+              },
+            ]
+          : [],
+      ),
+      reason: derived.damping.reason,
+      caution: FIELD_D_CAUTION,
     },
     notes: [...new Set(derived.issues.map((i) => `${i.file ? `${i.file}: ` : ''}${i.message}`))].slice(0, 60),
     cautions: [...EXPORT_CAUTIONS],

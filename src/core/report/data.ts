@@ -117,6 +117,22 @@ export interface ReportSite {
   classes: ReportSiteClass[];
 }
 
+/** Field damping D = 1/(2Q) per soil layer beside the laboratory-model Dmin at the test's frequency. */
+export interface ReportFieldDamping {
+  rows: {
+    topM: number;
+    bottomM: number;
+    layer: string;
+    fieldDPct: number;
+    fieldDSdPct: number | null;
+    frequencyHz: number;
+    labDminPct: number;
+  }[];
+  /** Why there is no field damping (one receiver per hit, no estimate), or null. */
+  reason: string | null;
+  caution: string;
+}
+
 export interface ReportData {
   title: ReportTitle;
   settings: ReportSetting[];
@@ -127,6 +143,7 @@ export interface ReportData {
   profile: ReportProfileRow[];
   waterTableM: number | null;
   site: ReportSite;
+  fieldDamping?: ReportFieldDamping;
   /** Problems and notes about this data set (one line each). */
   notes: string[];
   cautions: string[];

@@ -58,6 +58,37 @@ function kvTable(rows: [string, string][]): string {
   return `<table class="kv"><tbody>${rows.map(([k, v]) => `<tr><th>${esc(k)}</th><td>${esc(v)}</td></tr>`).join('')}</tbody></table>`;
 }
 
+/** Field D per soil layer beside the laboratory-model Dmin at the test's frequency, with its caution. */
+function fieldDampingSection(d: ReportData, u: UnitSystem, dep: string): string {
+  const f = d.fieldDamping;
+  if (!f) return '';
+  const pct = (x: number | null) => (x === null || !Number.isFinite(x) ? '–' : x.toFixed(2));
+  const body = f.rows.length
+    ? table(
+        [
+          { text: 'Soil layer' },
+          { text: `Top (${dep})`, num: true },
+          { text: `Bottom (${dep})`, num: true },
+          { text: 'Field D (%)', num: true },
+          { text: '± (%)', num: true },
+          { text: 'Frequency (Hz)', num: true },
+          { text: 'Laboratory Dmin (%)', num: true },
+        ],
+        f.rows.map((r) => [
+          esc(r.layer),
+          reportedText('distance', r.topM, u),
+          reportedText('distance', r.bottomM, u),
+          pct(r.fieldDPct),
+          pct(r.fieldDSdPct),
+          r.frequencyHz.toFixed(0),
+          pct(r.labDminPct),
+        ]),
+        'small',
+      )
+    : `<p>No field damping for this survey${f.reason ? `: ${esc(f.reason)}` : ''}.</p>`;
+  return `<section class="keep" id="field-damping"><h2>Field damping beside laboratory Dmin</h2><p class="muted">Field D = 1/(2Q) from the spectral ratio of the two receivers of one hit; laboratory Dmin from the Darendeli (2001) model at the field frequency.</p>${body}<div class="caution-box" data-testid="field-damping-caution">${esc(f.caution)}</div></section>`;
+}
+
 function table(head: { text: string; num?: boolean }[], rows: string[][], cls = ''): string {
   const th = head.map((h) => `<th${h.num ? ' class="n"' : ''}>${esc(h.text)}</th>`).join('');
   const body = rows
@@ -277,6 +308,7 @@ export function reportHtml(d: ReportData, options: ReportOptions = {}): string {
         )
       : '<p>No layer fits for this survey (crosshole, or fewer than two stations per layer).</p>',
     `</section><section class="keep" id="site"><h2>Vs30 and site class</h2>${siteSection(d)}</section>`,
+    fieldDampingSection(d, u, dep),
     d.notes.length
       ? `<section><h2>Notes on this data set</h2><ul>${d.notes.map((n) => `<li>${esc(n)}</li>`).join('')}</ul></section>`
       : '',

@@ -395,6 +395,21 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
           })),
         }
       : null,
+    // The joint travel-time inversion (method 'joint'): per-layer Vs with sd, fit quality, or why there is none;
+    // correlatedDraws: the Vs30 Monte Carlo drew the chosen joint intervals with their correlation.
+    jointInversion: d.joint
+      ? {
+          reason: d.joint.reason,
+          reducedChiSquare: num(d.joint.reducedChi2, 3),
+          correlatedDraws: d.joint.correlation !== null,
+          layers: d.joint.layers.map((l) => ({
+            topM: reported('distance', l.topM),
+            bottomM: reported('distance', l.bottomM),
+            vsMps: reported('velocity', l.vsMps),
+            vsSdMps: reported('velocity', l.vsSdMps),
+          })),
+        }
+      : null,
     cautions: EXPORT_CAUTIONS,
     softwareVersion: softwareVersion(),
   };

@@ -25,6 +25,12 @@ export interface SpectralRatioOptions {
   minShare?: number;
   /** Optional outer limits of the band, Hz. */
   bandHz?: [number, number];
+  /**
+   * Weight each frequency by the inverse variance of its log ratio under additive white noise,
+   * var(ln B/A) ~ s^2 (1/A^2 + 1/B^2) (first order), instead of equally (default true: better on the
+   * bank's training seeds).
+   */
+  weighted?: boolean;
 }
 
 export type SpectralRatioResult =
@@ -79,26 +85,31 @@ export function spectralRatioQ(
   const df = 1 / (nfft * dtS);
   const xs: number[] = [];
   const ys: number[] = [];
+  const ws: number[] = [];
+  const weighted = o.weighted ?? true;
   for (let k = 1; k < A.length; k++) {
     const f = k * df;
     if (o.bandHz && (f < o.bandHz[0] || f > o.bandHz[1])) continue;
     if (A[k] < share * maxA || B[k] < share * maxB) continue;
     xs.push(f);
     ys.push(Math.log(B[k] / A[k]));
+    ws.push(weighted ? 1 / (1 / (A[k] / maxA) ** 2 + 1 / (B[k] / maxB) ** 2) : 1);
   }
   if (xs.length < 3) return { ok: false, reason: 'no common band where both pulses carry energy' };
   const m = xs.length;
-  const mx = xs.reduce((s, x) => s + x, 0) / m;
-  const my = ys.reduce((s, y) => s + y, 0) / m;
+  const sw = ws.reduce((s, w) => s + w, 0);
+  const mx = xs.reduce((s, x, i) => s + ws[i] * x, 0) / sw;
+  const my = ys.reduce((s, y, i) => s + ws[i] * y, 0) / sw;
   let sxx = 0;
   let sxy = 0;
   for (let i = 0; i < m; i++) {
-    sxx += (xs[i] - mx) ** 2;
-    sxy += (xs[i] - mx) * (ys[i] - my);
+    sxx += ws[i] * (xs[i] - mx) ** 2;
+    sxy += ws[i] * (xs[i] - mx) * (ys[i] - my);
   }
   const slope = sxy / sxx;
   let sse = 0;
-  for (let i = 0; i < m; i++) sse += (ys[i] - my - slope * (xs[i] - mx)) ** 2;
+  for (let i = 0; i < m; i++) sse += ws[i] * (ys[i] - my - slope * (xs[i] - mx)) ** 2;
+  // weighted regression slope se (weights known up to a scale, estimated from the residuals);
   // zero padding makes neighbouring points dependent: the independent count is m / pad
   const slopeSe = Math.sqrt(sse / Math.max(1, m - 2) / sxx) * Math.sqrt(pad);
   const tStar = -slope / Math.PI;
@@ -145,7 +156,7 @@ export function constantQPropagate(
 }
 
 /** Lag (s) of the correlation peak of y against x near zero (within maxLagS), refined by a parabola. */
-function peakLagS(x: Float64Array, y: Float64Array, dtS: number, maxLagS: number): number {
+export function peakLagS(x: Float64Array, y: Float64Array, dtS: number, maxLagS: number): number {
   const maxK = Math.max(1, Math.round(maxLagS / dtS));
   const r = (k: number) => {
     let s = 0;

@@ -2,6 +2,9 @@
  * Monte Carlo uncertainty of Vs30 and site class: each interval's Vs is drawn independently from
  * N(vs, sd), truncated below at VS_FLOOR_MPS by redrawing (then clamped after 16 tries). Vs30 and
  * the Vs-based class (with the answers applied) are evaluated for every draw.
+ * Where intervals come from one joint inversion (velocity/joint.ts) their errors are correlated: the
+ * draws are then v = mu + L z with L the Cholesky factor of the covariance sd_i sd_j rho_ij (any
+ * multivariate-statistics text), clamped below at VS_FLOOR_MPS.
  * PRNG: mulberry32 (a small public-domain 32-bit generator); normals by the Box-Muller transform
  * (Box & Muller 1958, Ann. Math. Stat. 29).
  */
@@ -30,6 +33,41 @@ export interface MonteCarloOptions {
   toDepthM: number;
   rule: Vs30Rule;
   answers: SiteAnswers;
+  /** Correlation between the Vs errors of intervals (by depth span), e.g. from the joint inversion. */
+  correlation?: SpanCorrelation | null;
+}
+
+/** Correlation matrix (row-major) between the Vs errors of the listed depth spans. */
+export interface SpanCorrelation {
+  spans: { topM: number; bottomM: number }[];
+  matrix: number[];
+}
+
+/** Lower Cholesky factor of a symmetric positive semi-definite matrix (zero columns where a pivot vanishes). */
+export function choleskyLower(a: ArrayLike<number>, n: number): Float64Array {
+  const l = new Float64Array(n * n);
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j <= i; j++) {
+      let s = a[i * n + j];
+      for (let k = 0; k < j; k++) s -= l[i * n + k] * l[j * n + k];
+      if (i === j) l[i * n + i] = s > 0 ? Math.sqrt(s) : 0;
+      else l[i * n + j] = l[j * n + j] > 0 ? s / l[j * n + j] : 0;
+    }
+  return l;
+}
+
+function correlationOf(
+  c: SpanCorrelation,
+  a: { topM: number; bottomM: number },
+  b: { topM: number; bottomM: number },
+): number {
+  const at = (x: { topM: number; bottomM: number }) =>
+    c.spans.findIndex((s) => Math.abs(s.topM - x.topM) < 1e-9 && Math.abs(s.bottomM - x.bottomM) < 1e-9);
+  const i = at(a);
+  const j = at(b);
+  if (i < 0 || j < 0) return 0;
+  const r = c.matrix[i * c.spans.length + j];
+  return Number.isFinite(r) ? Math.max(-1, Math.min(1, r)) : 0;
 }
 
 export const DEFAULT_DRAWS = 10000;
@@ -71,7 +109,33 @@ export function siteUncertainty(
   }
   const normal = mulberry32(o.seed).normal;
   const vs30 = new Float64Array(draws);
-  for (let n = 0; n < draws; n++) {
+  // correlated draws where a correlation is given and some pair of segments is correlated
+  let chol: Float64Array | null = null;
+  if (o.correlation) {
+    const cov = new Float64Array(k * k);
+    let any = false;
+    for (let i = 0; i < k; i++)
+      for (let j = 0; j < k; j++) {
+        const r = i === j ? 1 : correlationOf(o.correlation, intervals[seg.index[i]], intervals[seg.index[j]]);
+        if (i !== j && r !== 0) any = true;
+        cov[i * k + j] = r * sd[i] * sd[j];
+      }
+    if (any) chol = choleskyLower(cov, k);
+  }
+  if (chol) {
+    const z = new Float64Array(k);
+    for (let n = 0; n < draws; n++) {
+      for (let j = 0; j < k; j++) z[j] = normal();
+      let slowness = 0;
+      for (let i = 0; i < k; i++) {
+        let v = mu[i];
+        for (let j = 0; j <= i; j++) v += chol[i * k + j] * z[j];
+        slowness += d[i] / Math.max(v, VS_FLOOR_MPS);
+      }
+      vs30[n] = seg.depthM / slowness;
+    }
+  }
+  for (let n = 0; n < (chol ? 0 : draws); n++) {
     let slowness = 0;
     for (let j = 0; j < k; j++) {
       let v = mu[j];

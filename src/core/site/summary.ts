@@ -12,7 +12,7 @@ import {
   type SiteClassResult,
   type TimeAveraged,
 } from './classes';
-import { siteUncertainty, type SiteUncertainty } from './montecarlo';
+import { siteUncertainty, type SiteUncertainty, type SpanCorrelation } from './montecarlo';
 
 export interface SiteSummary {
   /** Null while a blocking set-up problem stands (setupIncomplete says why). */
@@ -55,7 +55,11 @@ export function siteIntervals(rows: readonly SiteInterval[], gapVelocity: GapVel
   return out;
 }
 
-export function spreadOf(ivs: SiteInterval[], settings: Settings): SiteUncertainty | null {
+export function spreadOf(
+  ivs: SiteInterval[],
+  settings: Settings,
+  correlation: SpanCorrelation | null = null,
+): SiteUncertainty | null {
   return ivs.length
     ? siteUncertainty(ivs, {
         draws: settings.site.monteCarloDraws,
@@ -63,6 +67,7 @@ export function spreadOf(ivs: SiteInterval[], settings: Settings): SiteUncertain
         toDepthM: 30,
         rule: settings.site.vs30Rule,
         answers: settings.site.siteAnswers,
+        correlation,
       })
     : null;
 }
@@ -73,6 +78,7 @@ export function siteSummary(
   monteCarlo: boolean,
   setupIncomplete: string | null = null,
   gapVelocity: GapVelocity | null = null,
+  correlation: SpanCorrelation | null = null,
 ): SiteSummary {
   const ivs = siteIntervals(velocity, gapVelocity);
   const own = new Set(velocity.map((v) => `${v.topM}|${v.bottomM}`));
@@ -82,6 +88,6 @@ export function siteSummary(
     return { vs30: null, classes: [], uncertainty: null, cautions: [...SITE_CAUTIONS], setupIncomplete, bridged };
   const vs30 = ivs.length ? timeAveragedVs(ivs, 30, settings.site.vs30Rule) : null;
   const classes = vs30 ? SITE_STANDARDS.map((std) => siteClass(std, vs30.vsMps, settings.site.siteAnswers)) : [];
-  const uncertainty = monteCarlo ? spreadOf(ivs, settings) : null;
+  const uncertainty = monteCarlo ? spreadOf(ivs, settings, correlation) : null;
   return { vs30, classes, uncertainty, cautions: [...SITE_CAUTIONS], setupIncomplete: null, bridged };
 }

@@ -138,6 +138,8 @@ export interface IntervalInputs {
   rayFit: Map<IntervalKey, { velocityMps: number; sdMps: number }>;
   /** Layered-model interval velocities by pair key (downhole kinds), when computed. */
   layerModel?: Map<IntervalKey, { velocityMps: number; sdMps: number }>;
+  /** Joint-inversion interval velocities by pair key (velocity/joint.ts), when computed. */
+  joint?: Map<IntervalKey, { velocityMps: number; sdMps: number }>;
   /** Test kind: the profile method falls back to the kind's default where the settings' one does not apply. */
   kind?: TestKind;
   settings: Settings;
@@ -225,6 +227,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     for (const [method, table] of [
       ['ray-fit', inp.rayFit],
       ['layer-model', inp.layerModel ?? new Map<IntervalKey, { velocityMps: number; sdMps: number }>()],
+      ['joint', inp.joint ?? new Map<IntervalKey, { velocityMps: number; sdMps: number }>()],
     ] as const) {
       const rf = table.get(pair.key);
       if (!rf) continue;

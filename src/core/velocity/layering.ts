@@ -88,7 +88,7 @@ interface Problem {
 
 // ---------------------------------------------------------------- linear algebra (small, dense)
 
-function solveSpd(a: Float64Array, b: Float64Array, n: number): { x: Float64Array; inv: Float64Array } | null {
+export function solveSpd(a: Float64Array, b: Float64Array, n: number): { x: Float64Array; inv: Float64Array } | null {
   const l = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     for (let j = 0; j <= i; j++) {
@@ -128,7 +128,7 @@ function solveSpd(a: Float64Array, b: Float64Array, n: number): { x: Float64Arra
 // ---------------------------------------------------------------- the ray fit for fixed boundaries
 
 /** Path length of the ray to depth z inside each layer (tops sorted, first = source depth). */
-function pathsPerLayer(model: VelocityLayer[], sourceDepthM: number, z: number, offsetM: number): Float64Array {
+export function pathsPerLayer(model: VelocityLayer[], sourceDepthM: number, z: number, offsetM: number): Float64Array {
   const m = model.length;
   const out = new Float64Array(m);
   const ray = layeredRay(model, sourceDepthM, z, offsetM);
