@@ -5,11 +5,12 @@
  * cautions as '# CAUTION:' lines (toCsv).
  */
 import type { Derived } from '../pipeline';
+import type { LayerDesign } from '../stiffness/design';
 import type { CurveModel } from '../stiffness/curves';
 import { CURVE_CAUTIONS } from '../stiffness/curves';
 import { LIQUEFACTION_CAUTIONS, LIQUEFACTION_METHOD } from '../stiffness/liquefaction';
 import type { UnitSystem } from '../units';
-import { type Cell, EXPORT_CAUTIONS, num, type Table, unitColumn } from './tables';
+import { EXPORT_CAUTIONS, num, type Table, tableOf, unitColumn } from './tables';
 
 export const CURVE_MODEL_SOURCES: Record<CurveModel, { label: string; source: string }> = {
   darendeli: {
@@ -36,104 +37,78 @@ export function liquefactionCautions(): string[] {
   return [...LIQUEFACTION_CAUTIONS, ...EXPORT_CAUTIONS];
 }
 
+/** One row of curves.csv: a layer's point on one model's curve, or its working-strain point. */
+interface CurveRow {
+  l: LayerDesign;
+  model: CurveModel;
+  point: 'working' | 'curve';
+  strainPct: number | null;
+  modulusRatio: number | null;
+  gKpa: number | null;
+  dampingPct: number | null;
+}
+
+function curveRows(l: LayerDesign): CurveRow[] {
+  const rows: CurveRow[] = [];
+  if (l.working) rows.push({ l, model: l.model, point: 'working', ...l.working });
+  for (const [model, curve] of [
+    [l.model, l.curve],
+    [l.alternative.model, l.alternative.curve],
+  ] as const) {
+    for (const p of curve) {
+      const gKpa = l.gmaxKpa === null ? null : l.gmaxKpa * p.modulusRatio;
+      rows.push({
+        l,
+        model,
+        point: 'curve',
+        strainPct: p.strainPct,
+        modulusRatio: p.modulusRatio,
+        gKpa,
+        dampingPct: p.dampingPct,
+      });
+    }
+  }
+  return rows;
+}
+
 /** One row per layer, model and strain (0.0001-1 %, log spaced), plus a 'working' row at the layer's working strain. */
 export function curvesTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [
-    'layer',
-    u.name('depth_top', 'depth'),
-    u.name('depth_bottom', 'depth'),
-    'soil_type',
-    'plasticity_index_pct',
-    'plasticity_index_source',
-    'ocr',
-    'ocr_source',
-    'k0',
-    'k0_source',
-    u.name('sigma_v_eff', 'stress'),
-    u.name('sigma_m_eff', 'stress'),
-    u.name('vs', 'velocity'),
-    u.name('gmax', 'modulus'),
-    'model',
-    'source',
-    'darendeli_reference_strain_pct',
-    'darendeli_dmin_pct',
-    'loading_frequency_hz',
-    'loading_cycles',
-    'point',
-    'strain_pct',
-    'g_over_gmax',
-    u.name('g', 'modulus'),
-    'damping_pct',
-    'field_damping_pct',
-    'field_damping_sd_pct',
-    'field_frequency_hz',
-    'darendeli_dmin_at_field_frequency_pct',
-    'flags',
-  ];
-  const rows: Cell[][] = [];
-  for (const l of d.design.layers) {
-    const f = l.field;
-    const head = (model: CurveModel): Cell[] => [
-      l.name,
-      u.value('distance', l.topM),
-      u.value('distance', l.bottomM),
-      l.soil.soilType,
-      num(l.soil.plasticityIndexPct, 2),
-      l.soil.piSource,
-      num(l.soil.ocr, 3),
-      l.soil.ocrSource,
-      num(l.soil.k0, 3),
-      l.soil.k0Source,
-      u.value('stress', l.sigmaVEffKpa),
-      u.value('stress', l.meanEffectiveStressKpa),
-      u.value('velocity', l.vsMps),
-      u.value('modulus', l.gmaxKpa),
-      CURVE_MODEL_SOURCES[model].label,
-      CURVE_MODEL_SOURCES[model].source,
-      num(l.darendeli.referenceStrainPct, 5),
-      num(l.darendeli.dminPct, 4),
-    ];
-    const tail: Cell[] = [
-      num(f?.dampingPct, 3),
-      num(f?.dampingSdPct, 3),
-      num(f?.frequencyHz, 1),
-      num(f?.labDminPct, 4),
-      l.flags.join('; '),
-    ];
-    const load = (model: CurveModel): Cell[] =>
-      model === 'darendeli' ? [num(d.design.loadingFrequencyHz, 3), num(d.design.loadingCycles, 0)] : [null, null];
-    if (l.working) {
-      rows.push([
-        ...head(l.model),
-        ...load(l.model),
-        'working',
-        num(l.working.strainPct, 6),
-        num(l.working.modulusRatio, 5),
-        u.value('modulus', l.working.gKpa),
-        num(l.working.dampingPct, 4),
-        ...tail,
-      ]);
-    }
-    for (const [model, curve] of [
-      [l.model, l.curve],
-      [l.alternative.model, l.alternative.curve],
-    ] as const) {
-      for (const p of curve) {
-        rows.push([
-          ...head(model),
-          ...load(model),
-          'curve',
-          num(p.strainPct, 6),
-          num(p.modulusRatio, 5),
-          u.value('modulus', l.gmaxKpa === null ? null : l.gmaxKpa * p.modulusRatio),
-          num(p.dampingPct, 4),
-          ...tail,
-        ]);
-      }
-    }
-  }
-  return { columns, rows };
+  // The loading frequency and cycles belong to Darendeli's model only.
+  const darendeli = (r: CurveRow, x: number | null, digits: number) =>
+    r.model === 'darendeli' ? num(x, digits) : null;
+  return tableOf(d.design.layers.flatMap(curveRows), [
+    ['layer', ({ l }) => l.name],
+    [u.name('depth_top', 'depth'), ({ l }) => u.value('distance', l.topM)],
+    [u.name('depth_bottom', 'depth'), ({ l }) => u.value('distance', l.bottomM)],
+    ['soil_type', ({ l }) => l.soil.soilType],
+    ['plasticity_index_pct', ({ l }) => num(l.soil.plasticityIndexPct, 2)],
+    ['plasticity_index_source', ({ l }) => l.soil.piSource],
+    ['ocr', ({ l }) => num(l.soil.ocr, 3)],
+    ['ocr_source', ({ l }) => l.soil.ocrSource],
+    ['k0', ({ l }) => num(l.soil.k0, 3)],
+    ['k0_source', ({ l }) => l.soil.k0Source],
+    [u.name('sigma_v_eff', 'stress'), ({ l }) => u.value('stress', l.sigmaVEffKpa)],
+    [u.name('sigma_m_eff', 'stress'), ({ l }) => u.value('stress', l.meanEffectiveStressKpa)],
+    [u.name('vs', 'velocity'), ({ l }) => u.value('velocity', l.vsMps)],
+    [u.name('gmax', 'modulus'), ({ l }) => u.value('modulus', l.gmaxKpa)],
+    ['model', (r) => CURVE_MODEL_SOURCES[r.model].label],
+    ['source', (r) => CURVE_MODEL_SOURCES[r.model].source],
+    ['darendeli_reference_strain_pct', ({ l }) => num(l.darendeli.referenceStrainPct, 5)],
+    ['darendeli_dmin_pct', ({ l }) => num(l.darendeli.dminPct, 4)],
+    ['loading_frequency_hz', (r) => darendeli(r, d.design.loadingFrequencyHz, 3)],
+    ['loading_cycles', (r) => darendeli(r, d.design.loadingCycles, 0)],
+    ['point', (r) => r.point],
+    ['strain_pct', (r) => num(r.strainPct, 6)],
+    ['g_over_gmax', (r) => num(r.modulusRatio, 5)],
+    [u.name('g', 'modulus'), (r) => u.value('modulus', r.gKpa)],
+    ['damping_pct', (r) => num(r.dampingPct, 4)],
+    ['field_damping_pct', ({ l }) => num(l.field?.dampingPct, 3)],
+    ['field_damping_sd_pct', ({ l }) => num(l.field?.dampingSdPct, 3)],
+    ['field_frequency_hz', ({ l }) => num(l.field?.frequencyHz, 1)],
+    ['darendeli_dmin_at_field_frequency_pct', ({ l }) => num(l.field?.labDminPct, 4)],
+    ['flags', ({ l }) => l.flags.join('; ')],
+  ]);
 }
 
 /** The screen per velocity interval, then per soil layer; null when no shaking was given. */
@@ -141,61 +116,32 @@ export function liquefactionTable(d: Derived, system: UnitSystem = 'SI'): Table 
   const q = d.design.liquefaction;
   if (!q) return null;
   const u = unitColumn(system);
-  const columns = [
-    'basis',
-    u.name('depth_top', 'depth'),
-    u.name('depth_bottom', 'depth'),
-    u.name('depth_mid', 'depth'),
-    'soil_type',
-    'status',
-    u.name('vs', 'velocity'),
-    u.name('sigma_v', 'stress'),
-    u.name('sigma_v_eff', 'stress'),
-    `${u.name('vs1', 'velocity')}_n0.25_pa100kpa`,
-    'fines_content_pct',
-    u.name('vs1_limit', 'velocity'),
-    'pga_g',
-    'magnitude',
-    'rd',
-    'csr',
-    'crr_m7_5',
-    'msf',
-    'factor_of_safety',
-    'method',
-    'source',
-    'flags',
+  const rows = [
+    ...q.byInterval.map((r) => ({ basis: 'interval', r })),
+    ...q.byLayer.map((r) => ({ basis: 'layer', r })),
   ];
-  const rows: Cell[][] = [];
-  for (const [basis, list] of [
-    ['interval', q.byInterval],
-    ['layer', q.byLayer],
-  ] as const) {
-    for (const r of list) {
-      rows.push([
-        basis,
-        u.value('distance', r.topM),
-        u.value('distance', r.bottomM),
-        u.value('distance', r.midM),
-        r.soilType,
-        r.status,
-        u.value('velocity', r.vsMps),
-        u.value('stress', r.sigmaVKpa),
-        u.value('stress', r.sigmaVEffKpa),
-        u.value('velocity', r.vs1Mps),
-        num(r.finesContentPct, 1),
-        u.value('velocity', r.vs1StarMps),
-        num(q.pgaG, 3),
-        num(q.magnitude, 2),
-        num(r.rd, 4),
-        num(r.csr, 4),
-        num(r.crr75, 4),
-        num(r.msf, 4),
-        num(r.factorOfSafety, 3),
-        `screening: ${LIQUEFACTION_METHOD}`,
-        LIQUEFACTION_SOURCE,
-        r.flags.join('; '),
-      ]);
-    }
-  }
-  return { columns, rows };
+  return tableOf(rows, [
+    ['basis', ({ basis }) => basis],
+    [u.name('depth_top', 'depth'), ({ r }) => u.value('distance', r.topM)],
+    [u.name('depth_bottom', 'depth'), ({ r }) => u.value('distance', r.bottomM)],
+    [u.name('depth_mid', 'depth'), ({ r }) => u.value('distance', r.midM)],
+    ['soil_type', ({ r }) => r.soilType],
+    ['status', ({ r }) => r.status],
+    [u.name('vs', 'velocity'), ({ r }) => u.value('velocity', r.vsMps)],
+    [u.name('sigma_v', 'stress'), ({ r }) => u.value('stress', r.sigmaVKpa)],
+    [u.name('sigma_v_eff', 'stress'), ({ r }) => u.value('stress', r.sigmaVEffKpa)],
+    [`${u.name('vs1', 'velocity')}_n0.25_pa100kpa`, ({ r }) => u.value('velocity', r.vs1Mps)],
+    ['fines_content_pct', ({ r }) => num(r.finesContentPct, 1)],
+    [u.name('vs1_limit', 'velocity'), ({ r }) => u.value('velocity', r.vs1StarMps)],
+    ['pga_g', () => num(q.pgaG, 3)],
+    ['magnitude', () => num(q.magnitude, 2)],
+    ['rd', ({ r }) => num(r.rd, 4)],
+    ['csr', ({ r }) => num(r.csr, 4)],
+    ['crr_m7_5', ({ r }) => num(r.crr75, 4)],
+    ['msf', ({ r }) => num(r.msf, 4)],
+    ['factor_of_safety', ({ r }) => num(r.factorOfSafety, 3)],
+    ['method', () => `screening: ${LIQUEFACTION_METHOD}`],
+    ['source', () => LIQUEFACTION_SOURCE],
+    ['flags', ({ r }) => r.flags.join('; ')],
+  ]);
 }

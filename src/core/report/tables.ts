@@ -102,154 +102,105 @@ export function unitColumn(system: UnitSystem) {
   };
 }
 
+/** One column of a table: its name and how one row gives its cell. */
+export type Column<R> = readonly [name: string, cell: (row: R) => Cell];
+
+/** A table from a list of rows and its columns, each name written beside the value it heads. */
+export function tableOf<R>(rows: readonly R[], columns: readonly Column<R>[]): Table {
+  return { columns: columns.map(([name]) => name), rows: rows.map((r) => columns.map(([, cell]) => cell(r))) };
+}
+
+/** Flags of a row, with 'no value' added when the row's value is missing and nothing else says why. */
+function withNoValue(flags: readonly Flag[], missing: boolean, onlyWhenUnflagged = false): Flag[] {
+  const out: Flag[] = [...flags];
+  if (missing && (!onlyWhenUnflagged || !out.length)) out.push('no value');
+  return out;
+}
+
 export function picksTable(stations: readonly Station[], d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
   const byKey = new Map(stations.map((s) => [s.key, s]));
-  const columns = [
-    'station',
-    'receiver',
-    u.name('depth', 'depth'),
-    'component',
-    'wave',
-    'method',
-    'origin',
-    'time_ms',
-    'uncertainty_ms',
-    'snr',
-    'polarity',
-    'flags',
-  ];
-  const rows: Cell[][] = d.picks.map((p) => {
-    const s = byKey.get(p.stationKey);
-    const flags: Flag[] = [...p.flags];
-    if (!Number.isFinite(p.timeS)) flags.push('no value');
-    return [
-      p.stationKey,
-      s?.receiver ?? '',
-      u.value('distance', s?.depthM),
-      s?.component ?? '',
-      p.wave,
-      p.method,
-      p.origin,
-      ms(p.timeS),
-      ms(p.uncertaintyS),
-      reported('ratio', p.snr),
-      p.polarity ?? null,
-      flags.join('; '),
-    ];
-  });
-  return { columns, rows };
+  const rows = d.picks.map((p) => ({
+    p,
+    s: byKey.get(p.stationKey),
+    flags: withNoValue(p.flags, !Number.isFinite(p.timeS)),
+  }));
+  return tableOf(rows, [
+    ['station', ({ p }) => p.stationKey],
+    ['receiver', ({ s }) => s?.receiver ?? ''],
+    [u.name('depth', 'depth'), ({ s }) => u.value('distance', s?.depthM)],
+    ['component', ({ s }) => s?.component ?? ''],
+    ['wave', ({ p }) => p.wave],
+    ['method', ({ p }) => p.method],
+    ['origin', ({ p }) => p.origin],
+    ['time_ms', ({ p }) => ms(p.timeS)],
+    ['uncertainty_ms', ({ p }) => ms(p.uncertaintyS)],
+    ['snr', ({ p }) => reported('ratio', p.snr)],
+    ['polarity', ({ p }) => p.polarity ?? null],
+    ['flags', ({ flags }) => flags.join('; ')],
+  ]);
 }
 
 export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [
-    u.name('depth_top', 'depth'),
-    u.name('depth_bottom', 'depth'),
-    'wave',
-    'kind',
-    'method',
-    'chosen',
-    'station_a',
-    'station_b',
-    u.name('path_a', 'depth'),
-    u.name('path_b', 'depth'),
-    'dt_ms',
-    u.name('vs', 'velocity'),
-    u.name('vs_sd', 'velocity'),
-    u.name('vp', 'velocity'),
-    u.name('vp_sd', 'velocity'),
-    'flags',
-  ];
-  const rows: Cell[][] = d.intervals.map((r) => {
+  const rows = d.intervals.map((r) => {
     const v = u.value('velocity', r.velocityMps);
-    const sd = u.value('velocitySd', r.velocitySdMps);
-    const flags: Flag[] = [...r.flags];
-    if (v === null && !flags.length) flags.push('no value');
-    return [
-      u.value('distance', r.topM),
-      u.value('distance', r.bottomM),
-      r.wave,
-      r.kind,
-      r.method,
-      r.chosen ? 1 : 0,
-      r.stationA,
-      r.stationB,
-      u.value('distance', r.pathAM),
-      u.value('distance', r.pathBM),
-      ms(r.dtS),
-      r.wave === 'S' ? v : null,
-      r.wave === 'S' ? sd : null,
-      r.wave === 'P' ? v : null,
-      r.wave === 'P' ? sd : null,
-      flags.join('; '),
-    ];
+    return { r, v, sd: u.value('velocitySd', r.velocitySdMps), flags: withNoValue(r.flags, v === null, true) };
   });
-  return { columns, rows };
+  return tableOf(rows, [
+    [u.name('depth_top', 'depth'), ({ r }) => u.value('distance', r.topM)],
+    [u.name('depth_bottom', 'depth'), ({ r }) => u.value('distance', r.bottomM)],
+    ['wave', ({ r }) => r.wave],
+    ['kind', ({ r }) => r.kind],
+    ['method', ({ r }) => r.method],
+    ['chosen', ({ r }) => (r.chosen ? 1 : 0)],
+    ['station_a', ({ r }) => r.stationA],
+    ['station_b', ({ r }) => r.stationB],
+    [u.name('path_a', 'depth'), ({ r }) => u.value('distance', r.pathAM)],
+    [u.name('path_b', 'depth'), ({ r }) => u.value('distance', r.pathBM)],
+    ['dt_ms', ({ r }) => ms(r.dtS)],
+    [u.name('vs', 'velocity'), ({ r, v }) => (r.wave === 'S' ? v : null)],
+    [u.name('vs_sd', 'velocity'), ({ r, sd }) => (r.wave === 'S' ? sd : null)],
+    [u.name('vp', 'velocity'), ({ r, v }) => (r.wave === 'P' ? v : null)],
+    [u.name('vp_sd', 'velocity'), ({ r, sd }) => (r.wave === 'P' ? sd : null)],
+    ['flags', ({ flags }) => flags.join('; ')],
+  ]);
 }
 
 export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [
-    u.name('depth_top', 'depth'),
-    u.name('depth_bottom', 'depth'),
-    u.name('depth_mid', 'depth'),
-    'method',
-    u.name('vs', 'velocity'),
-    u.name('vs_sd', 'velocity'),
-    u.name('vp', 'velocity'),
-    u.name('vp_sd', 'velocity'),
-    'vp_method',
-    u.name('density', 'density'),
-    u.name('sigma_v', 'stress'),
-    u.name('pore_pressure', 'stress'),
-    u.name('sigma_v_eff', 'stress'),
-    u.name('gmax', 'modulus'),
-    u.name('gmax_sd', 'modulus'),
-    'poisson_ratio',
-    'poisson_source',
-    u.name('young', 'modulus'),
-    u.name('constrained', 'modulus'),
-    u.name('bulk', 'modulus'),
-    u.name('vs1', 'velocity'),
-    'stress_exponent',
-    // Field damping of the interval (same-hit pairs only; an upper bound on material damping, see cautions)
-    'qs',
-    'damping_pct',
-    'damping_sd_pct',
-    'flags',
-  ];
   const damping = new Map((d.damping?.intervals ?? []).map((x) => [x.intervalKey, x]));
+  const field = (r: ProfileRow) => damping.get(r.intervalKey);
   // Moduli are kPa inside; the 'modulus' unit shows MPa (SI) or ksi (US).
-  const rows: Cell[][] = d.profile.map((r: ProfileRow) => [
-    u.value('distance', r.topM),
-    u.value('distance', r.bottomM),
-    u.value('distance', r.midM),
-    r.method,
-    u.value('velocity', r.vsMps),
-    u.value('velocitySd', r.vsSdMps),
-    u.value('velocity', r.vpMps),
-    u.value('velocitySd', r.vpSdMps),
-    r.vpMethod ?? '',
-    u.value('density', r.densityMgM3),
-    u.value('stress', r.sigmaVKpa),
-    u.value('stress', r.porePressureKpa),
-    u.value('stress', r.sigmaVEffKpa),
-    u.value('modulus', r.gmaxKpa),
-    u.value('modulusSd', r.gmaxSdKpa),
-    reported('poissonRatio', r.poissonRatio),
-    r.poissonSource,
-    u.value('modulus', r.youngKpa),
-    u.value('modulus', r.constrainedKpa),
-    u.value('modulus', r.bulkKpa),
-    u.value('velocity', r.vs1Mps),
-    reported('exponent', r.stressExponent),
-    reported('ratio', damping.get(r.intervalKey)?.qS),
-    reported('ratio', pct(damping.get(r.intervalKey)?.damping)),
-    reported('ratio', pct(damping.get(r.intervalKey)?.dampingSd)),
-    r.flags.join('; '),
+  return tableOf<ProfileRow>(d.profile, [
+    [u.name('depth_top', 'depth'), (r) => u.value('distance', r.topM)],
+    [u.name('depth_bottom', 'depth'), (r) => u.value('distance', r.bottomM)],
+    [u.name('depth_mid', 'depth'), (r) => u.value('distance', r.midM)],
+    ['method', (r) => r.method],
+    [u.name('vs', 'velocity'), (r) => u.value('velocity', r.vsMps)],
+    [u.name('vs_sd', 'velocity'), (r) => u.value('velocitySd', r.vsSdMps)],
+    [u.name('vp', 'velocity'), (r) => u.value('velocity', r.vpMps)],
+    [u.name('vp_sd', 'velocity'), (r) => u.value('velocitySd', r.vpSdMps)],
+    ['vp_method', (r) => r.vpMethod ?? ''],
+    [u.name('density', 'density'), (r) => u.value('density', r.densityMgM3)],
+    [u.name('sigma_v', 'stress'), (r) => u.value('stress', r.sigmaVKpa)],
+    [u.name('pore_pressure', 'stress'), (r) => u.value('stress', r.porePressureKpa)],
+    [u.name('sigma_v_eff', 'stress'), (r) => u.value('stress', r.sigmaVEffKpa)],
+    [u.name('gmax', 'modulus'), (r) => u.value('modulus', r.gmaxKpa)],
+    [u.name('gmax_sd', 'modulus'), (r) => u.value('modulusSd', r.gmaxSdKpa)],
+    ['poisson_ratio', (r) => reported('poissonRatio', r.poissonRatio)],
+    ['poisson_source', (r) => r.poissonSource],
+    [u.name('young', 'modulus'), (r) => u.value('modulus', r.youngKpa)],
+    [u.name('constrained', 'modulus'), (r) => u.value('modulus', r.constrainedKpa)],
+    [u.name('bulk', 'modulus'), (r) => u.value('modulus', r.bulkKpa)],
+    [u.name('vs1', 'velocity'), (r) => u.value('velocity', r.vs1Mps)],
+    ['stress_exponent', (r) => reported('exponent', r.stressExponent)],
+    // Field damping of the interval (same-hit pairs only; an upper bound on material damping, see cautions)
+    ['qs', (r) => reported('ratio', field(r)?.qS)],
+    ['damping_pct', (r) => reported('ratio', pct(field(r)?.damping))],
+    ['damping_sd_pct', (r) => reported('ratio', pct(field(r)?.dampingSd))],
+    ['flags', (r) => r.flags.join('; ')],
   ]);
-  return { columns, rows };
 }
 
 const pct = (x: number | null | undefined) => (x === null || x === undefined ? null : 100 * x);
@@ -261,76 +212,74 @@ export function profileCautions(d: Derived): string[] {
     : EXPORT_CAUTIONS;
 }
 
+/** One row of layers.csv: a straight-line fit or a layer of the refracted-ray model. */
+interface LayerRow {
+  wave: string;
+  topM: number | null;
+  bottomM: number | null;
+  method: string;
+  velocityMps: number | null;
+  velocitySdMps: number | null;
+  stations: number;
+  rmsMisfitS: number | null;
+  flags: string;
+}
+
 /** Layer velocities: straight-line fits of time against slant distance, and the refracted-ray model. */
 export function layersTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [
-    'wave',
-    u.name('depth_top', 'depth'),
-    u.name('depth_bottom', 'depth'),
-    'method',
-    u.name('velocity', 'velocity'),
-    u.name('velocity_sd', 'velocity'),
-    'stations',
-    'rms_misfit_ms',
-    'flags',
-  ];
-  const rows: Cell[][] = d.layerFits.map((f) => [
-    f.wave,
-    u.value('distance', f.topM),
-    u.value('distance', f.bottomM),
-    `straight-line fit (${f.method})`,
-    u.value('velocity', f.velocityMps),
-    u.value('velocitySd', f.velocitySdMps),
-    f.stations,
-    ms(f.rmsResidualS),
-    f.velocitySdMps === null ? 'two stations: no sd' : '',
-  ]);
   const m = d.layerModel;
-  if (m) {
-    for (const l of m.layers) {
-      rows.push([
-        'S',
-        u.value('distance', l.topM),
-        u.value('distance', l.bottomM),
-        'refracted-ray fit (onset)',
-        u.value('velocity', l.velocityMps),
-        u.value('velocitySd', l.velocitySdMps),
-        l.receivers,
-        ms(m.rmsMisfitS),
-        m.converged ? '' : 'not converged',
-      ]);
-    }
-  }
-  return { columns, rows };
+  const rows: LayerRow[] = [
+    ...d.layerFits.map((f) => ({
+      wave: f.wave,
+      topM: f.topM,
+      bottomM: f.bottomM,
+      method: `straight-line fit (${f.method})`,
+      velocityMps: f.velocityMps,
+      velocitySdMps: f.velocitySdMps,
+      stations: f.stations,
+      rmsMisfitS: f.rmsResidualS,
+      flags: f.velocitySdMps === null ? 'two stations: no sd' : '',
+    })),
+    ...(m?.layers ?? []).map((l) => ({
+      wave: 'S',
+      topM: l.topM,
+      bottomM: l.bottomM,
+      method: 'refracted-ray fit (onset)',
+      velocityMps: l.velocityMps,
+      velocitySdMps: l.velocitySdMps,
+      stations: l.receivers,
+      rmsMisfitS: m?.rmsMisfitS ?? null,
+      flags: m?.converged ? '' : 'not converged',
+    })),
+  ];
+  return tableOf(rows, [
+    ['wave', (r) => r.wave],
+    [u.name('depth_top', 'depth'), (r) => u.value('distance', r.topM)],
+    [u.name('depth_bottom', 'depth'), (r) => u.value('distance', r.bottomM)],
+    ['method', (r) => r.method],
+    [u.name('velocity', 'velocity'), (r) => u.value('velocity', r.velocityMps)],
+    [u.name('velocity_sd', 'velocity'), (r) => u.value('velocitySd', r.velocitySdMps)],
+    ['stations', (r) => r.stations],
+    ['rms_misfit_ms', (r) => ms(r.rmsMisfitS)],
+    ['flags', (r) => r.flags],
+  ]);
 }
 
 /** Crosshole direct velocities (source to each receiver), one row per station. */
 export function directTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
-  const columns = [
-    'station',
-    'receiver',
-    'wave',
-    u.name('depth', 'depth'),
-    u.name('path', 'depth'),
-    'time_ms',
-    u.name('velocity', 'velocity'),
-    u.name('velocity_sd', 'velocity'),
-    'flags',
-  ];
-  const rows: Cell[][] = d.direct.map((r) => [
-    r.stationKey,
-    r.receiver,
-    r.wave,
-    u.value('distance', r.depthM),
-    u.value('distance', r.pathM),
-    ms(r.timeS),
-    u.value('velocity', r.velocityMps),
-    u.value('velocitySd', r.velocitySdMps),
-    r.flags.join('; '),
+  return tableOf(d.direct, [
+    ['station', (r) => r.stationKey],
+    ['receiver', (r) => r.receiver],
+    ['wave', (r) => r.wave],
+    [u.name('depth', 'depth'), (r) => u.value('distance', r.depthM)],
+    [u.name('path', 'depth'), (r) => u.value('distance', r.pathM)],
+    ['time_ms', (r) => ms(r.timeS)],
+    [u.name('velocity', 'velocity'), (r) => u.value('velocity', r.velocityMps)],
+    [u.name('velocity_sd', 'velocity'), (r) => u.value('velocitySd', r.velocitySdMps)],
+    ['flags', (r) => r.flags.join('; ')],
   ]);
-  return { columns, rows };
 }
 
 /** site.json: shape agreed in the site-class issue. */
