@@ -15,6 +15,7 @@ import { toProjectJson, writeZip, type ProjectJson } from '../core';
 import type { UnitSystem } from '../core';
 import type { NamedBytes } from '../worker/protocol';
 import { currentProject, openArchiveBytes } from './files';
+import { afterDelayWhenIdle } from './idle';
 import { useApp } from './store';
 
 const SESSION_KEY = 'session';
@@ -58,7 +59,8 @@ function store(): UseStore {
   return db;
 }
 
-let timer: ReturnType<typeof setTimeout> | null = null;
+/** Cancels the pending save (null when none is pending). */
+let timer: (() => void) | null = null;
 let enabled = false;
 let saving: Promise<void> | null = null;
 /** Content key per byte array (arrays are never changed in place once loaded). */
@@ -134,10 +136,11 @@ async function saveNow(): Promise<void> {
   }
 }
 
+/** A save DEBOUNCE_MS after the last change, once the page is idle (never in the middle of drawing results). */
 function schedule(): void {
   if (!enabled) return;
-  if (timer) clearTimeout(timer);
-  timer = setTimeout(() => {
+  timer?.();
+  timer = afterDelayWhenIdle(() => {
     // One save at a time: a change during a save is saved right after it.
     const run = async () => {
       if (saving) await saving;
@@ -157,12 +160,12 @@ function schedule(): void {
 export async function flushAutosave(): Promise<void> {
   if (!enabled) return;
   if (timer) {
-    clearTimeout(timer);
+    timer();
     timer = null;
   }
   if (saving) await saving;
   if (timer || useAutosave.getState().savedRevision !== useApp.getState().revision) {
-    if (timer) clearTimeout(timer);
+    timer?.();
     timer = null;
     saving = saveNow();
     await saving;

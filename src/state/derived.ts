@@ -8,7 +8,7 @@
  * the same result (a shallow copy sharing every array), so nothing is computed twice and the panes that
  * memoise on the arrays (profile, intervals, travel times) do not redraw when it arrives.
  */
-import { useDeferredValue } from 'react';
+import { useDeferredValue, useMemo } from 'react';
 import { create } from 'zustand';
 import { derive, siteSpread, type Derived } from '../core';
 import { toErrorInfo } from '../core';
@@ -17,6 +17,7 @@ import type { Settings, UserEdits } from '../core';
 import type { Prepared } from '../core';
 import type { AutoPickResult } from '../core';
 import type { ComparisonProfile } from '../core';
+import { afterDelayWhenIdle } from './idle';
 import { useApp, useResults } from './store';
 
 type Inputs = [Survey, Prepared | null, AutoPickResult | null, UserEdits, Settings, ComparisonProfile | null];
@@ -30,7 +31,7 @@ let lastFast: Derived | null = null;
 /** The same result with the spread, once computed for lastFast. */
 let lastFull: Derived | null = null;
 let lastSettings: Settings | null = null;
-let spreadTimer: ReturnType<typeof setTimeout> | null = null;
+let cancelSpread: (() => void) | null = null;
 
 /** Wall time of the last derive() call and of the last spread, ms (status line; measured in e2e). */
 export let lastDeriveMs = 0;
@@ -58,8 +59,8 @@ function withSpread(fast: Derived, settings: Settings): Derived {
 
 /** Computes the spread now (exports, print, the idle timer). */
 export function settleSpread(): Derived | null {
-  if (spreadTimer) clearTimeout(spreadTimer);
-  spreadTimer = null;
+  cancelSpread?.();
+  cancelSpread = null;
   if (!lastFast || !lastSettings) return lastFast;
   if (!lastFull) {
     lastFull = withSpread(lastFast, lastSettings);
@@ -68,10 +69,11 @@ export function settleSpread(): Derived | null {
   return lastFull;
 }
 
+/** The spread once the user has paused and the page is idle (after the plots that show new results). */
 function scheduleSpread(): void {
-  if (spreadTimer) clearTimeout(spreadTimer);
-  spreadTimer = setTimeout(() => {
-    spreadTimer = null;
+  cancelSpread?.();
+  cancelSpread = afterDelayWhenIdle(() => {
+    cancelSpread = null;
     settleSpread();
   }, SPREAD_IDLE_MS);
 }
@@ -135,19 +137,32 @@ function emptyDerived(issues: Derived['issues']): Derived {
 }
 
 /**
- * Current derived results (null until the first auto-pick has finished). New worker results are taken
- * up in a deferred render, so the Trace board draws the new traces first and the tables follow; user
- * edits are not deferred (the Profile follows an edit at once).
+ * Current derived results (null until the first auto-pick has finished), in the render that takes up
+ * new worker results or an edit: the Profile draws them first. The Trace board, whose traces cost the
+ * most to draw, takes them up in a deferred render (useDeferredResults).
  */
 export function useDerived(): Derived | null {
   const survey = useApp((s) => s.survey);
   const edits = useApp((s) => s.edits);
   const settings = useApp((s) => s.settings);
   const comparison = useApp((s) => s.comparison);
-  const prepared = useDeferredValue(useResults((s) => s.prepared));
-  const auto = useDeferredValue(useResults((s) => s.auto));
+  const prepared = useResults((s) => s.prepared);
+  const auto = useResults((s) => s.auto);
   useSpread((s) => s.revision);
   return derivedFor(survey, prepared, auto, edits, settings, comparison);
+}
+
+/**
+ * The prepared traces and derived results together, taken up after the urgent render (useDeferredValue):
+ * new results reach the Trace board once the Profile has drawn them, and the board draws its traces
+ * once, with their picks (never first without them). Both values come from the same render, so the
+ * board never pairs new traces with old picks.
+ */
+export function useDeferredResults(): { prepared: Prepared | null; derived: Derived | null } {
+  const prepared = useResults((s) => s.prepared);
+  const derived = useDerived();
+  const both = useMemo(() => ({ prepared, derived }), [prepared, derived]);
+  return useDeferredValue(both);
 }
 
 /** True while the Vs30 spread of the current result is still to come. */

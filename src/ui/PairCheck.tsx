@@ -6,9 +6,9 @@
 import { methodInfo } from '../core';
 import { useMemo } from 'react';
 import { reversedDirections } from '../core';
-import { useDerived } from '../state/derived';
+import { useDeferredResults } from '../state/derived';
 import { rawRecords } from '../state/raw';
-import { useApp, useResults } from '../state/store';
+import { useApp } from '../state/store';
 import { decimateMinMax, mean, peakAbs } from './decimate';
 import { focusInterval, pickFor } from './picks';
 import { pulseWindow } from './traceDisplay';
@@ -72,11 +72,11 @@ function normalisedLine(
 export { normalisedLine };
 
 export function PairCheck() {
-  const prepared = useResults((s) => s.prepared);
+  // Deferred: new results reach this plot after the Profile and the Trace board (state/derived.ts).
+  const { prepared, derived: d } = useDeferredResults();
   const view = useApp((s) => s.view);
   const kind = useApp((s) => s.survey.kind);
   const units = useUnits();
-  const d = useDerived();
   const key = focusInterval(d, view.hoveredInterval ?? view.selectedInterval, view.selectedStation, view.wave);
   const chosen = d?.intervals.find((r) => r.key === key && r.chosen) ?? d?.intervals.find((r) => r.key === key);
   const pair = prepared?.pairs.find((p) => p.key === key);

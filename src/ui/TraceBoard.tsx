@@ -12,7 +12,7 @@ import type { IntervalKey } from '../core';
 import type { Station } from '../core';
 import { reversedDirections } from '../core';
 import { stationWaveKey } from '../core';
-import { currentDerived, useDerived } from '../state/derived';
+import { currentDerived, useDeferredResults } from '../state/derived';
 import type { IntervalValue } from '../core';
 import { beginPickDrag, movePickDrag } from '../state/edits';
 import { rawRecords } from '../state/raw';
@@ -322,13 +322,13 @@ function NumberBox({ value, label, onCommit }: { value: number; label: string; o
 }
 
 export function TraceBoard() {
-  const prepared = useResults((s) => s.prepared);
+  // Deferred: new results reach the board after the Profile has drawn them (state/derived.ts).
+  const { prepared, derived } = useDeferredResults();
   const status = useResults((s) => s.status);
   const survey = useApp((s) => s.survey);
   const edits = useApp((s) => s.edits);
   const view = useApp((s) => s.view);
   const units = useUnits();
-  const derived = useDerived();
   // Memoised on the arrays, not the result object: the late Vs30 spread does not redraw the board.
   const picks = derived?.picks;
   const intervals = derived?.intervals;

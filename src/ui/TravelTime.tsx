@@ -12,9 +12,9 @@ import { methodApplies, methodInfo } from '../core';
 import { receiverLabel, receiverSlots } from '../core';
 import type { ReceiverSlot } from '../core';
 import { useCallback, useMemo, useRef, useState } from 'react';
-import { useDerived } from '../state/derived';
+import { useDeferredResults } from '../state/derived';
 import { setLayerBoundaries } from '../state/edits';
-import { useApp, useResults } from '../state/store';
+import { useApp } from '../state/store';
 import {
   addBoundary,
   type BoundaryMark,
@@ -65,13 +65,14 @@ function depthToPx(div: HTMLDivElement | null, depthDisp: number): number | null
 }
 
 export function TravelTime() {
-  const d = useDerived();
+  // Deferred: new results reach this plot after the Profile and the Trace board (state/derived.ts).
+  const { prepared, derived: d } = useDeferredResults();
   const view = useApp((s) => s.view);
   const units = useUnits();
   const method = view.editMethod;
   const wave = view.wave;
   const colour = wave === 'S' ? COLOURS.S : COLOURS.P;
-  const stations = useResults((s) => s.prepared?.stations);
+  const stations = prepared?.stations;
   const survey = useApp((s) => s.survey);
   const layeringSettings = useApp((s) => s.settings.layering);
   const settingsMode = layeringSettings.mode;

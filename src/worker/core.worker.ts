@@ -6,7 +6,7 @@
 import { toErrorInfo } from '../core';
 import type { WaveRecord } from '../core';
 import { readWaveFile } from '../core';
-import { readProjectArchive, writeProjectArchive, type OpenedProject } from '../core';
+import { memorySource, openProject, readProjectArchive, type OpenedProject } from '../core';
 import { makeDemoProject } from '../core';
 import { autoPick, prepare } from '../core';
 import type { OpenedArchive, WorkerRequest, WorkerResponse } from './protocol';
@@ -45,14 +45,10 @@ function handle(req: WorkerRequest): void {
       handOver({ type: 'archive', jobId, archive: forPage(readProjectArchive(req.bytes, req.name)) });
       progress(1, 1);
     } else if (req.type === 'make-demo') {
-      // Opened exactly as a saved archive would be (the one opener, same checks).
+      // Opened by the one opener with the same checks as a saved archive, from memory (not zipped first).
       const demo = makeDemoProject(req.kind);
       const name = `demo-${req.kind}.zip`;
-      handOver({
-        type: 'archive',
-        jobId,
-        archive: forPage(readProjectArchive(writeProjectArchive(demo.doc, demo.files), name)),
-      });
+      handOver({ type: 'archive', jobId, archive: forPage(openProject(memorySource(demo.doc, demo.files, name))) });
       progress(1, 1);
     } else if (req.type === 'process') {
       const records = new Map<string, WaveRecord>(req.records.map((r) => [r.id, r]));

@@ -188,6 +188,32 @@ export function zipSource(zip: Uint8Array, archiveName: string): ProjectSource {
   };
 }
 
+/**
+ * A project held in memory (a document and its files, e.g. the demo survey just made) as a project
+ * source: project.json is written as a saved archive would hold it and read back by openProject, so the
+ * same checks apply, without compressing the files into a zip and inflating them again.
+ */
+export function memorySource(doc: ProjectDocument, files: readonly ProjectFile[], name: string): ProjectSource {
+  const byPath = new Map<string, Uint8Array>();
+  for (const f of files) {
+    const p = checkPath(f.name);
+    if (byPath.has(p)) throw new BorewaveError('ARCHIVE_DUPLICATE_FILE', `Two files are named "${p}".`, name, p);
+    byPath.set(p, f.bytes);
+  }
+  return {
+    name,
+    projectJson: () => strToU8(JSON.stringify(toProjectJson({ ...doc, files: [...byPath.keys()] }))),
+    readListed(paths) {
+      const out = new Map<string, Uint8Array>();
+      for (const p of paths) {
+        const b = byPath.get(p);
+        if (b) out.set(p, b);
+      }
+      return { files: out, present: [...byPath.keys()] };
+    },
+  };
+}
+
 /** Opens a project archive (zip bytes). */
 export function readProjectArchive(zipBytes: Uint8Array, archiveName: string): OpenedProject {
   return openProject(zipSource(zipBytes, archiveName));
