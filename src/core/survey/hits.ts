@@ -167,22 +167,37 @@ interface Work {
   }[];
 }
 
+const CHANNELS = ['h1', 'h2', 'v'] as const;
+
 function energyOf(recs: ThreeComponent[], from: number, to: number, mean: ThreeComponent | null): ChannelEnergy {
   const e = { h1: 0, h2: 0, v: 0 };
   for (const r of recs)
-    for (const k of ['h1', 'h2', 'v'] as const)
+    for (const k of CHANNELS) {
+      const x = r[k];
+      const m = mean ? mean[k] : null;
+      let acc = e[k];
       for (let i = from; i < to; i++) {
-        const x = r[k][i] - (mean ? mean[k][i] : 0);
-        e[k] += x * x;
+        const d = x[i] - (m ? m[i] : 0);
+        acc += d * d;
       }
+      e[k] = acc;
+    }
   return e;
 }
 
 function meanOf(recs: ThreeComponent[]): ThreeComponent {
   const n = recs[0].h1.length;
   const m = { h1: new Float64Array(n), h2: new Float64Array(n), v: new Float64Array(n) };
-  for (const r of recs) for (const k of ['h1', 'h2', 'v'] as const) for (let i = 0; i < n; i++) m[k][i] += r[k][i];
-  for (const k of ['h1', 'h2', 'v'] as const) for (let i = 0; i < n; i++) m[k][i] /= recs.length;
+  for (const r of recs)
+    for (const k of CHANNELS) {
+      const mk = m[k];
+      const rk = r[k];
+      for (let i = 0; i < n; i++) mk[i] += rk[i];
+    }
+  for (const k of CHANNELS) {
+    const mk = m[k];
+    for (let i = 0; i < n; i++) mk[i] /= recs.length;
+  }
   return m;
 }
 
@@ -191,19 +206,22 @@ function shearWindow(
   recs: ThreeComponent[],
   search: [number, number],
   halfWidth: number,
-): { win: [number, number] | null; peak: number; mean: ThreeComponent | null } {
+): { win: [number, number] | null; peak: number; mean: ThreeComponent | null; meanAll: ThreeComponent | null } {
   const n = recs[0].h1.length;
   const [a, b] = [Math.max(0, search[0]), Math.min(n, search[1])];
-  if (b - a < 4) return { win: null, peak: -1, mean: null };
+  if (b - a < 4) return { win: null, peak: -1, mean: null, meanAll: null };
   const mean = recs.length > 1 ? meanOf(recs) : null;
   const envDev = new Float64Array(n);
   const envRaw = new Float64Array(n);
   for (const r of recs)
-    for (const k of ['h1', 'h2', 'v'] as const)
+    for (const k of CHANNELS) {
+      const x = r[k];
+      const m = mean ? mean[k] : null;
       for (let i = a; i < b; i++) {
-        envRaw[i] += r[k][i] * r[k][i];
-        if (mean) envDev[i] += (r[k][i] - mean[k][i]) ** 2;
+        envRaw[i] += x[i] * x[i];
+        if (m) envDev[i] += (x[i] - m[i]) ** 2;
       }
+    }
   let sd = 0;
   let sr = 0;
   for (let i = a; i < b; i++) {
@@ -214,8 +232,8 @@ function shearWindow(
   const env = smoothEnvelope(useDev ? envDev : envRaw, halfWidth);
   const w = burstWindow(env, a, b);
   return w
-    ? { win: [w.fromIdx, w.toIdx], peak: w.peakIdx, mean: useDev ? mean : null }
-    : { win: null, peak: -1, mean: null };
+    ? { win: [w.fromIdx, w.toIdx], peak: w.peakIdx, mean: useDev ? mean : null, meanAll: mean }
+    : { win: null, peak: -1, mean: null, meanAll: mean };
 }
 
 /** Normalised cross-correlation of a template (centred at tPeak) with x (centred at xPeak) at the lag of largest |r|. */
@@ -269,7 +287,7 @@ function solveDepthLocal(g: DepthGroupInput, o: SolveOptions, halfWidth: number)
   const n = g.records.length;
   // Relative signs: from given hits when every record has one, else from the vector correlation.
   const c: number[][] = Array.from({ length: n }, () => new Array<number>(n).fill(0));
-  const windows = new Map<string, { win: [number, number] | null; peak: number; mean: ThreeComponent | null }>();
+  const windows = new Map<string, ReturnType<typeof shearWindow>>();
   for (const s of g.slots) {
     const recs = g.records.map((r) => r.bySlot[s.slot]).filter(Boolean);
     if (recs.length !== n) continue;
@@ -322,8 +340,13 @@ function solveDepthLocal(g: DepthGroupInput, o: SolveOptions, halfWidth: number)
       recs.forEach((r, i) => {
         // Deviation from the mean (reversing part) where reversals exist: P and common noise drop out.
         if (sw.mean) {
-          const d1 = Float64Array.from(r.h1, (x, t) => x - sw.mean!.h1[t]);
-          const d2 = Float64Array.from(r.h2, (x, t) => x - sw.mean!.h2[t]);
+          const m = sw.mean;
+          const d1 = new Float64Array(len);
+          const d2 = new Float64Array(len);
+          for (let t = 0; t < len; t++) {
+            d1[t] = r.h1[t] - m.h1[t];
+            d2[t] = r.h2[t] - m.h2[t];
+          }
           accumulateCov(cov, d1, d2, win[0], win[1]);
         } else accumulateCov(cov, r.h1, r.h2, win[0], win[1]);
         void i;
@@ -341,7 +364,8 @@ function solveDepthLocal(g: DepthGroupInput, o: SolveOptions, halfWidth: number)
     let pRadial: number | null = null;
     let pWeight = 0;
     if (s.searchP && win) {
-      const m = recs.length > 1 ? meanOf(recs) : recs[0];
+      // The mean of the records (the one shearWindow made when there are several: the same figures).
+      const m = recs.length > 1 ? (sw.meanAll ?? meanOf(recs)) : recs[0];
       const env = new Float64Array(len);
       const pEnd = Math.min(win[0], s.searchP[1]);
       for (const k of ['h1', 'h2', 'v'] as const) for (let t = s.searchP[0]; t < pEnd; t++) env[t] += m[k][t] ** 2;
