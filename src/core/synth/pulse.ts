@@ -141,6 +141,25 @@ function fftOf(nfft: number): FFT {
   return f;
 }
 
+/** pulseSpectrum at f_k = k / (nfft dtS), k = 0..nfft/2, as [re, im] pairs: the same for every arrival of a survey. */
+const spectra = new Map<string, Float64Array>();
+
+function spectrumOnGrid(nfft: number, dtS: number, frequencyHz: number, scale: number): Float64Array {
+  const key = `${nfft}:${dtS}:${frequencyHz}:${scale}`;
+  let w = spectra.get(key);
+  if (!w) {
+    w = new Float64Array(nfft + 2);
+    for (let k = 0; k <= nfft / 2; k++) {
+      const [re, im] = pulseSpectrum(k / (nfft * dtS), frequencyHz, scale);
+      w[2 * k] = re;
+      w[2 * k + 1] = im;
+    }
+    if (spectra.size > 16) spectra.clear();
+    spectra.set(key, w);
+  }
+  return w;
+}
+
 /**
  * The pulse (peak 1 before attenuation) sampled at t_i = firstSampleS + i dtS.
  * Without attenuation it is evaluated in the time domain (exact onset). With attenuation it is built
@@ -158,10 +177,22 @@ export function renderArrival(nSamples: number, dtS: number, firstSampleS: numbe
   const fft = fftOf(nfft);
   const spec = new Float64Array(2 * nfft);
   const delayS = r.arrivalS - firstSampleS;
+  const w = spectrumOnGrid(nfft, dtS, r.frequencyHz, scale);
+  const cq = r.attenuation;
+  // constantQResponse, with its per-arrival constants taken out of the loop (the same figures).
+  const gamma = Math.atan(1 / cq.q) / Math.PI;
+  const tanHalf = Math.tan((Math.PI * gamma) / 2);
   for (let k = 0; k <= nfft / 2; k++) {
     const f = k / (nfft * dtS);
-    const [wr, wi] = pulseSpectrum(f, r.frequencyHz, scale);
-    const { gain, extraDelayS } = constantQResponse(f, r.attenuation);
+    const wr = w[2 * k];
+    const wi = w[2 * k + 1];
+    let gain = 1;
+    let extraDelayS = 0;
+    if (f > 0) {
+      const tF = cq.travelTimeS * Math.pow(f / cq.referenceHz, -gamma);
+      gain = Math.exp(-2 * Math.PI * f * tF * tanHalf);
+      extraDelayS = tF - cq.travelTimeS;
+    }
     const phase = -2 * Math.PI * f * (delayS + extraDelayS);
     const c = Math.cos(phase);
     const s = Math.sin(phase);
