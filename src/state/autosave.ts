@@ -136,10 +136,18 @@ async function saveNow(): Promise<void> {
   }
 }
 
+/** Cancels the pending save; true when there was one. */
+function cancelPending(): boolean {
+  const t = timer;
+  timer = null;
+  t?.();
+  return t !== null;
+}
+
 /** A save DEBOUNCE_MS after the last change, once the page is idle (never in the middle of drawing results). */
 function schedule(): void {
   if (!enabled) return;
-  timer?.();
+  cancelPending();
   timer = afterDelayWhenIdle(() => {
     // One save at a time: a change during a save is saved right after it.
     const run = async () => {
@@ -159,14 +167,10 @@ function schedule(): void {
  */
 export async function flushAutosave(): Promise<void> {
   if (!enabled) return;
-  if (timer) {
-    timer();
-    timer = null;
-  }
+  const pending = cancelPending();
   if (saving) await saving;
-  if (timer || useAutosave.getState().savedRevision !== useApp.getState().revision) {
-    timer?.();
-    timer = null;
+  // A save scheduled meanwhile (during the awaited save) is done now too.
+  if (cancelPending() || pending || useAutosave.getState().savedRevision !== useApp.getState().revision) {
     saving = saveNow();
     await saving;
     saving = null;
