@@ -201,6 +201,27 @@ async function parseFiles(waves: (NamedBytes & { originalName?: string })[]): Pr
   }));
   const fresh: WaveRecord[] = [];
   const needInterval: string[] = [];
+  // The list and the progress follow the worker once per frame (not once per file: 60 files would
+  // re-render the Records pane 60 times while the survey is still to be processed).
+  let metas: RecordMeta[] = [];
+  let progress: { done: number; total: number } | null = null;
+  let frame = 0;
+  const flush = () => {
+    cancelAnimationFrame(frame);
+    frame = 0;
+    if (!metas.length && !progress) return;
+    const batch = metas;
+    const p = progress;
+    metas = [];
+    progress = null;
+    useApp.setState((s) => ({
+      records: batch.reduce(upsertMeta, s.records),
+      ...(p ? { loadProgress: p } : {}),
+    }));
+  };
+  const later = () => {
+    if (!frame) frame = requestAnimationFrame(flush);
+  };
   try {
     // The page keeps the bytes (archive, autosave); the worker reads a copy moved to it.
     const copies = waves.map((f) => ({
@@ -217,16 +238,20 @@ async function parseFiles(waves: (NamedBytes & { originalName?: string })[]): Pr
           if (rec) fresh.push(rec);
           else rawRecords.delete(m.file.name);
           if (!m.file.outcome.ok && m.file.outcome.error.code === 'TEXT_NO_SAMPLE_INTERVAL') needInterval.push(f.name);
-          useApp.setState((s) => ({
-            records: upsertMeta(s.records, metaFor(m.file.name, f.bytes.length, m.file, f.originalName)),
-          }));
+          metas.push(metaFor(m.file.name, f.bytes.length, m.file, f.originalName));
+          later();
         }
-        if (m.type === 'progress') useApp.setState({ loadProgress: { done: m.done, total: m.total } });
+        if (m.type === 'progress') {
+          progress = { done: m.done, total: m.total };
+          later();
+        }
+        if (m.type === 'parsed') flush();
         return m.type === 'parsed';
       },
       copies.map((f) => f.bytes.buffer as ArrayBuffer),
     );
   } catch (e) {
+    flush();
     failStillReading(e as ErrorInfo);
   }
   useApp.setState((s) => ({
