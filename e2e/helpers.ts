@@ -43,6 +43,19 @@ export async function derivedState(
 
 export async function waitProcessed(page: Page, timeout = 90_000): Promise<void> {
   await expect(page.getByTestId('process-status')).toHaveAttribute('data-state', 'done', { timeout });
+  // The Profile shows new results first; the Trace board and the strip take them up in a deferred
+  // render and draw after it: wait until every pane shows them and the board has drawn.
+  await expect
+    .poll(
+      () =>
+        page.evaluate(() => {
+          const bw = (window as unknown as { __borewave: { viewsBehind: () => number } }).__borewave;
+          const board = document.querySelector('[data-plot="trace-board"]') as HTMLElement | null;
+          return bw.viewsBehind() === 0 && (!board || Number(board.dataset.drawn ?? '0') > 0);
+        }),
+      { timeout },
+    )
+    .toBe(true);
 }
 
 /** Pixel position (page coordinates) of a data point on the Trace board. */

@@ -6,7 +6,7 @@ import { watchProcessing } from './state/processing';
 import { checkForSavedSession, useAutosave } from './state/autosave';
 import { registerOfflineApp } from './state/update';
 import { useApp, useResults } from './state/store';
-import { currentDerived, lastDeriveMs, lastSpreadMs } from './state/derived';
+import { currentDerived, lastDeriveMs, lastSpreadMs, viewsBehind } from './state/derived';
 import { ioLane, processLane } from './worker/client';
 import { loadPlotly } from './ui/plot';
 
@@ -21,6 +21,8 @@ void checkForSavedSession();
   derived: currentDerived,
   deriveMs: () => lastDeriveMs,
   spreadMs: () => lastSpreadMs,
+  /** Panes still to take up the latest results (the Trace board and the strip follow the Profile). */
+  viewsBehind,
   /** Resolves once Plotly is loaded (it loads after the first paint). */
   plotlyLoaded: () => loadPlotly().then(() => true),
 };

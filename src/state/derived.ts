@@ -8,7 +8,7 @@
  * the same result (a shallow copy sharing every array), so nothing is computed twice and the panes that
  * memoise on the arrays (profile, intervals, travel times) do not redraw when it arrives.
  */
-import { useDeferredValue, useMemo } from 'react';
+import { useDeferredValue, useEffect, useMemo, useRef } from 'react';
 import { create } from 'zustand';
 import { derive, siteSpread, type Derived } from '../core';
 import { toErrorInfo } from '../core';
@@ -162,7 +162,23 @@ export function useDeferredResults(): { prepared: Prepared | null; derived: Deri
   const prepared = useResults((s) => s.prepared);
   const derived = useDerived();
   const both = useMemo(() => ({ prepared, derived }), [prepared, derived]);
-  return useDeferredValue(both);
+  const shown = useDeferredValue(both);
+  const self = useRef({});
+  useEffect(() => {
+    const me = self.current;
+    if (shown === both) behind.delete(me);
+    else behind.add(me);
+    return () => void behind.delete(me);
+  }, [shown, both]);
+  return shown;
+}
+
+/** Views still showing older results than the latest (their deferred render is to come). */
+const behind = new Set<object>();
+
+/** How many views are still to take up the latest results (0 once every pane shows them; for the tests). */
+export function viewsBehind(): number {
+  return behind.size;
 }
 
 /** True while the Vs30 spread of the current result is still to come. */
