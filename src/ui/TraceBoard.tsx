@@ -324,6 +324,7 @@ function NumberBox({ value, label, onCommit }: { value: number; label: string; o
 export function TraceBoard() {
   // Deferred: new results reach the board after the Profile has drawn them (state/derived.ts).
   const { prepared, derived } = useDeferredResults();
+  const latestPrepared = useResults((s) => s.prepared);
   const status = useResults((s) => s.status);
   const survey = useApp((s) => s.survey);
   const edits = useApp((s) => s.edits);
@@ -808,7 +809,8 @@ export function TraceBoard() {
   const selectedOnBoard = stations.find((s) => s.key === view.selectedStation);
   const detailStation = hitsOpen && selectedOnBoard && selectedOnBoard.hits.length > 1 ? selectedOnBoard : null;
   const workingLabel = workingTraceLabel(stations);
-  const running = status.state === 'running';
+  // Also while the board is still to take up results the Profile already shows (a moment).
+  const running = status.state === 'running' || prepared !== latestPrepared;
 
   return (
     <section className="board" aria-label="Trace board">
