@@ -55,7 +55,8 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.74,
     phase: 0.73,
     'ray-fit': 0.85,
-    'layer-model': 0.35,
+    'layer-model': 0.33,
+    joint: 1.17,
   },
   'downhole-pair': {
     onset: 0.72,
@@ -65,6 +66,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.61,
     phase: 0.74,
     'layer-model': 0.18,
+    joint: 1.05,
   },
   'seismic-cone': {
     onset: 1.02,
@@ -74,9 +76,10 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.85,
     phase: 0.79,
     'ray-fit': 1.03,
-    'layer-model': 0.37,
+    'layer-model': 0.34,
+    joint: 1.44,
   },
-  crosshole: { onset: 0.77, peak: 1.76, trough: 1.04, 'zero-crossing': 0.88, xcorr: 0.74, phase: 3.04 },
+  crosshole: { onset: 0.77, peak: 1.76, trough: 1.04, 'zero-crossing': 0.88, xcorr: 0.84, phase: 3.04, joint: 1.29 },
 };
 
 export function sdScale(kind: TestKind, method: IntervalMethod): number {
