@@ -44,7 +44,8 @@ export function calibrationScale(zAbs: readonly number[]): number | null {
  * Sd scale per test kind and interval method, from the bench's 12 training seeds (`npm run bench --
  * --bank-only --bank-seeds 12 --json`, key bank.sdScale, rounded to 2 digits). A method missing here
  * keeps scale 1. Below 1 where the error model's terms are bounds (path model, trigger prior, model
- * floor); above 1 where a method's own sd is optimistic (crosshole phase slope and first peak).
+ * floor); above 1 where a method's own sd is optimistic (crosshole phase slope and first peak, the
+ * joint inversion's interval sds).
  */
 export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, number>>>> = {
   downhole: {
