@@ -62,10 +62,20 @@ describe('version-1 archives open to the same numbers', () => {
       // Columns and site.json keys added after the reference was written (field damping, software version)
       // and the joint inversion are left out of the comparison.
       const mine = cells(got.profile);
+      // Uncertainties are left out too: the interval error model changed after the reference was written
+      // (trigger offsets, a floor and the straight-path term, docs/true-vs.md "Error model"); its sds are
+      // checked against the truth by the bench's calibration instead.
+      const sdColumn = (c: string) => c.endsWith('_sd_mps') || c.endsWith('_sd_mpa');
+      const width = ref[0].length;
+      const keep = ref[0].map((c, i) => (sdColumn(c) ? -1 : i)).filter((i) => i >= 0);
+      for (const [k, row] of ref.entries()) ref[k] = row.length === width ? keep.map((i) => row[i]) : row;
       const pick = ref[0].map((c) => mine[0].indexOf(c));
       const header = mine[0].length;
       const projected = mine.map((row) => (row.length === header ? pick.map((i) => row[i]) : row));
-      expect(projected).toEqual(ref);
+      // so is the flag that says an sd was widened to the spread of the methods (the sd may now be wider already)
+      const unflag = (rows: string[][]) =>
+        rows.map((row) => row.map((c) => c.replace(/(; )?sd widened to the method spread/, '').replace(/^; /, '')));
+      expect(unflag(projected)).toEqual(unflag(ref));
       const {
         fieldDamping: _added,
         jointInversion: _joint,
@@ -73,7 +83,14 @@ describe('version-1 archives open to the same numbers', () => {
         ...site
       } = got.site as Record<string, unknown>;
       expect(typeof softwareVersion).toBe('string');
-      expect(site).toEqual(JSON.parse(readFileSync(join('test/fixtures/v1', `${kind}.site.json`), 'utf8')));
+      // the Monte Carlo spread of Vs30 and the class probabilities follow the interval sds (see above)
+      const spread = ['vs30P05Mps', 'vs30P50Mps', 'vs30P95Mps', 'classProbabilities'];
+      const refSite = JSON.parse(readFileSync(join('test/fixtures/v1', `${kind}.site.json`), 'utf8'));
+      for (const k of spread) {
+        delete (site as Record<string, unknown>)[k];
+        delete refSite[k];
+      }
+      expect(site).toEqual(refSite);
     });
   }
   it('saved again as version 2 and reopened, the two-receiver survey gives the same numbers', () => {

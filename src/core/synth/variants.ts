@@ -12,7 +12,8 @@ import type { Borehole, Component, HitDirection, Trace, WaveRecord } from '../mo
 import { mulberry32 } from '../random';
 import type { ReceiverSlot, SetupKind } from '../setup/types';
 import { demoCrossholeHoles, demoEarthModel } from './demo';
-import { synthesizeSurvey, toSeg2Input, type SynthGeometry, type SynthResult } from './synthesize';
+import type { EarthModel } from './earth';
+import { synthesizeSurvey, toSeg2Input, type SynthGeometry, type SynthOptions, type SynthResult } from './synthesize';
 
 export type LabelStyle =
   /** Component word in each trace's RECEIVER string ("R H1"; crosshole "<hole> V"). */
@@ -55,6 +56,11 @@ export interface VariantSpec {
   depthCount?: number;
   /** Depth step, m; default 1 (cone 0.5). */
   stepM?: number;
+  /** Earth model (default the demo's) and source offset (default cone 1 m, others 2 m). */
+  model?: EarthModel;
+  sourceOffsetM?: number;
+  /** Forward-model options over the variant's own (turning probe, hit plan, noise, trigger offsets ...). */
+  synth?: Partial<SynthOptions>;
 }
 
 export interface VariantChannelTruth {
@@ -134,11 +140,11 @@ function textFile(rec: WaveRecord, names: string[]): string {
 
 /** Build one variant survey (deterministic for its spec). */
 export function makeVariantSurvey(spec: VariantSpec): VariantSurvey {
-  const model = demoEarthModel();
+  const model = spec.model ?? demoEarthModel();
   const n = spec.depthCount ?? 12;
   const coneOffsetM = spec.kind === 'seismic-cone' ? (spec.coneOffsetM ?? 0.25) : 0;
   const step = spec.stepM ?? (spec.kind === 'seismic-cone' ? 0.5 : 1);
-  const sourceOffsetM = spec.kind === 'seismic-cone' ? 1.0 : 2.0;
+  const sourceOffsetM = spec.sourceOffsetM ?? (spec.kind === 'seismic-cone' ? 1.0 : 2.0);
   const receiverSpacingM = spec.kind === 'downhole-pair' ? 1.0 : 0;
   let holes: Borehole[] = [];
   let geometry: SynthGeometry;
@@ -169,6 +175,7 @@ export function makeVariantSurvey(spec: VariantSpec): VariantSurvey {
     pFrequencyHz: spec.kind === 'crosshole' ? 1500 : 300,
     surveyName: `Variant ${spec.kind} ${spec.seed}`,
     filePrefix: spec.kind === 'seismic-cone' ? 'scpt' : undefined,
+    ...spec.synth,
   });
   const truth: VariantRecordTruth[] = [];
   const out: { rec: WaveRecord; names: string[]; t: VariantRecordTruth }[] = [];

@@ -26,6 +26,8 @@ import {
   type IntervalMethod,
 } from '../catalogue/methods';
 import { intervalVelocityMps, intervalVelocitySdMps } from './formulas';
+import { intervalTimeSdS, pathModelShare } from './errorModel';
+import { sdScale } from './sdCalibration';
 
 export type IntervalKind = 'pseudo' | 'true' | 'crosshole';
 
@@ -195,7 +197,13 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
         else {
           v = intervalVelocityMps(pair.a.straightPathM, pair.b.straightPathM, dtS);
           if (v !== null) {
-            sd = intervalVelocitySdMps(v, dL, pathSdM, dtS, dtSdS);
+            // error model (velocity/errorModel.ts): trigger offsets, a floor, the straight-path model; then the kind's scale
+            const timeSdS = intervalTimeSdS(dtSdS, pair.kind, pair.a, pair.b, settings.intervals.triggerOffsetSdS);
+            sd = Math.hypot(
+              intervalVelocitySdMps(v, dL, pathSdM, dtS, timeSdS),
+              v * pathModelShare(pair.kind, pair.a, pair.b),
+            );
+            sd *= sdScale(inp.kind ?? 'downhole', method);
             if (v < range[0]) flags.push('slow?');
             if (v > range[1]) flags.push('fast?');
           }
@@ -239,7 +247,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
         method,
         dtS: null,
         velocityMps: rf.velocityMps,
-        velocitySdMps: rf.sdMps,
+        velocitySdMps: rf.sdMps * sdScale(inp.kind ?? 'downhole', method),
         chosen: false,
         flags: [...stationFlags, ...flags],
       });

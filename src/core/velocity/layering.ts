@@ -613,7 +613,12 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
  * An interval's Vs from the layered model: length / vertical time through the fitted layers, with sd
  * from the slowness covariance and the spread of any boundary inside the interval.
  */
-export function layerIntervalVs(fit: LayeredFit, topM: number, bottomM: number): { vsMps: number; vsSdMps: number } {
+export function layerIntervalVs(
+  fit: LayeredFit,
+  topM: number,
+  bottomM: number,
+  boundarySdScale = 1,
+): { vsMps: number; vsSdMps: number } {
   const m = fit.layers.length;
   const h = new Array<number>(m).fill(0);
   fit.layers.forEach((l, j) => {
@@ -625,17 +630,34 @@ export function layerIntervalVs(fit: LayeredFit, topM: number, bottomM: number):
   for (let j = 0; j < m; j++) t += h[j] / fit.layers[j].vsMps;
   let varT = 0;
   for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) varT += h[a] * h[b] * fit.slownessCovariance[a * m + b];
-  // a boundary inside the interval: dT/dz = s_above - s_below
+  // each boundary's position: dT/dz = s_above - s_below times the length of the interval that would
+  // change sides were the boundary elsewhere (Gaussian, sd boundarySdM x boundarySdScale); for an
+  // interval that holds the boundary this is the boundary's own sd
   for (let j = 1; j < m; j++) {
-    const z = fit.layers[j].topM;
-    if (z > topM && z < bottomM) {
-      const ds = 1 / fit.layers[j - 1].vsMps - 1 / fit.layers[j].vsMps;
-      varT += (ds * fit.boundarySdM[j - 1]) ** 2;
-    }
+    const sdB = fit.boundarySdM[j - 1] * boundarySdScale;
+    if (!(sdB > 0)) continue;
+    const ds = 1 / fit.layers[j - 1].vsMps - 1 / fit.layers[j].vsMps;
+    varT += ds * ds * switchedLengthVar(fit.layers[j].topM, sdB, topM, bottomM);
   }
   const len = bottomM - topM;
   const v = len / t;
   return { vsMps: v, vsSdMps: (len * Math.sqrt(varT)) / (t * t) };
+}
+
+/** E[(length of [top, bottom] between zb and z)^2] for z ~ N(zb, sd^2) (41-point rule over +-4 sd). */
+function switchedLengthVar(zb: number, sd: number, topM: number, bottomM: number): number {
+  if (zb + 4 * sd <= topM || zb - 4 * sd >= bottomM) return 0;
+  const clip = (z: number) => Math.min(bottomM, Math.max(topM, z));
+  let sw = 0;
+  let acc = 0;
+  for (let k = -20; k <= 20; k++) {
+    const u = k / 5;
+    const w = Math.exp(-0.5 * u * u);
+    const d = clip(zb + u * sd) - clip(zb);
+    sw += w;
+    acc += w * d * d;
+  }
+  return acc / sw;
 }
 
 export interface BlendInput {
@@ -700,4 +722,60 @@ export function blendIntervals(
       modelSdSpM: Math.sqrt(tau2),
     };
   });
+}
+
+/**
+ * Local misfit of the layered model about an interval, as a slowness sd (s/m): the drift of the fit's
+ * time residuals over the receivers within windowM of the interval, less what the times' own sds
+ * explain. A layer the model missed (a thin layer, a gradient) leaves residuals that drift across
+ * it; inside a well-fitted layer they do not. Absolute times: the weighted least-squares slope of
+ * residual against depth and its variance; differences: the summed residual over the summed length.
+ * 0 when the window holds too little to tell.
+ */
+export function localMisfitSlownessSd(
+  obs: readonly TimeObservation[],
+  residualsS: readonly number[],
+  topM: number,
+  bottomM: number,
+  windowM: number,
+): number {
+  if (obs.length !== residualsS.length) return 0;
+  const lo = topM - windowM - 1e-9;
+  const hi = bottomM + windowM + 1e-9;
+  const idx = obs.map((_, i) => i).filter((i) => obs[i].depthBM >= lo && (obs[i].depthAM ?? obs[i].depthBM) <= hi);
+  if (obs.every((o) => o.depthAM === null)) {
+    if (idx.length < 3) return 0;
+    let sw = 0;
+    let sz = 0;
+    let sr = 0;
+    for (const i of idx) {
+      const w = 1 / obs[i].sdS ** 2;
+      sw += w;
+      sz += w * obs[i].depthBM;
+      sr += w * residualsS[i];
+    }
+    const zm = sz / sw;
+    const rm = sr / sw;
+    let szz = 0;
+    let szr = 0;
+    for (const i of idx) {
+      const w = 1 / obs[i].sdS ** 2;
+      szz += w * (obs[i].depthBM - zm) ** 2;
+      szr += w * (obs[i].depthBM - zm) * (residualsS[i] - rm);
+    }
+    if (!(szz > 0)) return 0;
+    const slope = szr / szz;
+    return Math.sqrt(Math.max(0, slope * slope - 1 / szz));
+  }
+  if (idx.length < 2) return 0;
+  let len = 0;
+  let sum = 0;
+  let v = 0;
+  for (const i of idx) {
+    len += obs[i].depthBM - (obs[i].depthAM ?? 0);
+    sum += residualsS[i];
+    v += obs[i].sdS ** 2;
+  }
+  if (!(len > 0)) return 0;
+  return Math.sqrt(Math.max(0, (sum * sum - v) / (len * len)));
 }

@@ -19,6 +19,7 @@ import { horizontalDistanceM } from '../survey/geometry';
 import { fitLine } from './formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './rayfit';
 import type { StationPair } from './intervals';
+import { intervalTimeSdS } from './errorModel';
 import type { TravelTimeRow } from './direct';
 
 export interface LayerFit {
@@ -192,8 +193,10 @@ export function rayFitFor(
     const layer = result.layers[j];
     if (!pr || layer.outOfOrder || !(layer.pathInLayerM > 0)) continue;
     const v = layer.velocityMps;
-    // First order: s_i ~ dt_i / path_i, so sV = V^2 s_dt / path (s_dt from the picks or the delay used).
-    byPair.set(pr.key, { velocityMps: v, sdMps: (v * v * direct[j].timeSdS) / layer.pathInLayerM });
+    // First order: s_i ~ dt_i / path_i, so sV = V^2 s_dt / path; s_dt from the picks or the delay used with
+    // the error model's trigger-offset and floor terms (velocity/errorModel.ts).
+    const sdT = intervalTimeSdS(direct[j].timeSdS, pr.kind, pr.a, pr.b, settings.intervals.triggerOffsetSdS);
+    byPair.set(pr.key, { velocityMps: v, sdMps: (v * v * sdT) / layer.pathInLayerM });
   }
   return { result, byPair };
 }
