@@ -169,3 +169,57 @@ describe('user layering', () => {
     expect(r.reason).toMatch(/out of order/);
   });
 });
+
+describe('user boundaries that cut across a velocity change, with a thin top layer (issue 14)', () => {
+  // Six layers (165 / 115 / 215 / 330 / 440 / 680 m/s, tops 0, 1.6, 7, 13.5, 21, 25 m), receivers every
+  // metre 1-30 m, source 2 m from the hole, exact Snell's-law times (module comment) plus a 0.25 ms
+  // common trigger offset. The user's boundaries 1.5 and 10.89 m put 115 and 215 m/s into one layer.
+  // The deeper misfit must not reach the 1.5 m top layer through the rays that cross it.
+  const model = [
+    { topM: 0, velocityMps: 165 },
+    { topM: 1.6, velocityMps: 115 },
+    { topM: 7, velocityMps: 215 },
+    { topM: 13.5, velocityMps: 330 },
+    { topM: 21, velocityMps: 440 },
+    { topM: 25, velocityMps: 680 },
+  ];
+  const obs = absoluteTimes(model, grid(1, 30, 1), 2.5e-4);
+  // vertical time through 1.5-10.89 m in the true model, by hand: 0.1/165 + 5.4/115 + 3.89/215 = 0.065663 s
+  const harmonicMid = 9.39 / (0.1 / 165 + 5.4 / 115 + 3.89 / 215);
+
+  it('[1.5, 10.89] m fits: top layer near 165 m/s, the middle one near the harmonic mean 143.0 m/s, each within 2 sd', () => {
+    const r = fitLayering(obs, {
+      sourceDepthM: 0,
+      mode: 'user',
+      boundariesM: [1.5, 10.89],
+      minThicknessM: 1,
+      intercept: true,
+      interceptPriorSdS: 1e-3,
+    });
+    expect(r.ok, r.ok ? '' : r.reason).toBe(true);
+    if (!r.ok) return;
+    expect(harmonicMid).toBeCloseTo(143.0, 1);
+    const [top, mid] = r.fit.layers;
+    expect(Math.abs(top.vsMps - 165) / 165).toBeLessThan(0.1);
+    expect(Math.abs(top.vsMps - 165)).toBeLessThan(2 * top.vsSdMps);
+    expect(Math.abs(mid.vsMps - harmonicMid) / harmonicMid).toBeLessThan(0.05);
+    expect(Math.abs(mid.vsMps - harmonicMid)).toBeLessThan(2 * mid.vsSdMps);
+    expect(r.fit.notes.join(' ')).toMatch(/successive time differences/);
+  });
+
+  it('the same top layer in a layering that represents the ground needs no fallback', () => {
+    const r = fitLayering(obs, {
+      sourceDepthM: 0,
+      mode: 'user',
+      boundariesM: [1.6, 7, 13.5, 21, 25],
+      minThicknessM: 1,
+      intercept: true,
+      interceptPriorSdS: 1e-3,
+    });
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.fit.layers[0].vsMps).toBeCloseTo(165, 0);
+    expect(r.fit.interceptS! * 1000).toBeCloseTo(0.25, 2);
+    expect(r.fit.notes.join(' ')).not.toMatch(/successive time differences/);
+  });
+});

@@ -56,6 +56,14 @@ const MODEL_SD_SHARE: Partial<Record<TestKind, number>> = {
  * segmentation and may be the neighbouring one. Tuned on training seeds (1, 2, 3.5; bench/diagnose.ts).
  */
 const BOUNDARY_SD_SCALE: Partial<Record<TestKind, number>> = { downhole: 2, 'downhole-pair': 2, 'seismic-cone': 2 };
+/**
+ * Prior sd of the common intercept of one-receiver times (mean 0: the trigger delay is already off the
+ * times), used only when user layers that do not represent the ground would otherwise give a thin top
+ * layer a non-positive slowness (velocity/layering.ts). The intercept holds the mean trigger offset (a
+ * few tenths of a ms) and the bias of the first onset pick (a fraction of the S period, common practice):
+ * 1 ms.
+ */
+const INTERCEPT_PRIOR_SD_S = 1e-3;
 /** Receivers within this distance of an interval measure the fit's local misfit there, m. */
 const LOCAL_WINDOW_M = 1;
 /**
@@ -154,6 +162,7 @@ export function layerMethod(
     boundariesM: [...s.boundariesM],
     minThicknessM: s.minThicknessM,
     intercept: kind !== 'downhole-pair',
+    interceptPriorSdS: INTERCEPT_PRIOR_SD_S,
   });
   if (!r.ok) return { fit: null, reason: r.reason, byPair };
   const sPairs = pairs.filter((p) => p.wave === 'S');

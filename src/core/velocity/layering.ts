@@ -22,6 +22,12 @@
  * that exceeds 1 (any regression text), plus, for an interval that holds a boundary, the spread of the
  * boundary inside its gap (uniform: sd = gap / sqrt 12).
  *
+ * Layers that do not represent the ground (user boundaries across a velocity change): the misfit of a
+ * deep layer would pass into a thin top layer's slowness, which every deeper ray crosses, and could make
+ * it negative. Then the fit is repeated on successive time differences (generalised least squares for a
+ * model error that accumulates with depth), their sds scaled by the reduced chi-square, with a prior on
+ * the common intercept (successiveDifferences).
+ *
  * The fit never disappears silently: every failure comes back with the reason.
  */
 import { layeredRay, type VelocityLayer } from '../survey/rays';
@@ -44,6 +50,11 @@ export interface LayeringOptions {
   minThicknessM: number;
   /** Absolute times: fit a common intercept (the mean trigger offset); ignored for differences. */
   intercept: boolean;
+  /**
+   * Prior sd of the common intercept, s (mean 0: the trigger delay is already taken off the times).
+   * Used only when the fit without it would give a layer a non-positive slowness (module comment).
+   */
+  interceptPriorSdS?: number;
   /** Multiplies the BIC penalty k ln N (1 = BIC). */
   penaltyScale?: number;
   maxLayers?: number;
@@ -84,6 +95,10 @@ interface Problem {
   obs: TimeObservation[];
   sourceDepthM: number;
   intercept: boolean;
+  /** Prior sd of the intercept (s) when one is applied, else undefined. */
+  interceptPriorSdS?: number;
+  /** The prior sd the difference fallback applies (LayeringOptions.interceptPriorSdS). */
+  fallbackInterceptSdS?: number;
 }
 
 // ---------------------------------------------------------------- linear algebra (small, dense)
@@ -153,7 +168,12 @@ interface RawFit {
   residualsS: number[];
 }
 
-function fitFixed(p: Problem, topsM: number[], maxIterations = 20, start?: Float64Array): RawFit | { reason: string } {
+function fitFixed(
+  p: Problem,
+  topsM: number[],
+  maxIterations = 20,
+  start?: Float64Array,
+): RawFit | { reason: string; nonPositive?: boolean } {
   const m = topsM.length;
   const useIntercept = p.intercept && p.obs.some((o) => o.depthAM === null);
   const np = m + (useIntercept ? 1 : 0);
@@ -193,6 +213,9 @@ function fitFixed(p: Problem, topsM: number[], maxIterations = 20, start?: Float
         for (let b = 0; b < np; b++) ata[a * np + b] += w * va * A[i * np + b];
       }
     });
+    // the intercept's prior (mean 0) as one more observation of it
+    const prior = useIntercept && p.interceptPriorSdS && p.interceptPriorSdS > 0 ? p.interceptPriorSdS : 0;
+    if (prior) ata[m * np + m] += 1 / (prior * prior);
     const sol = solveSpd(ata, atb, np);
     if (!sol) return { reason: 'the layers are not all crossed by the rays (a layer without receivers)' };
     const next = sol.x.slice(0, m);
@@ -200,6 +223,7 @@ function fitFixed(p: Problem, topsM: number[], maxIterations = 20, start?: Float
       if (!(next[j] > 0))
         return {
           reason: `layer ${j + 1} (from ${topsM[j].toFixed(2)} m) would need a negative or infinite travel time: its times are out of order`,
+          nonPositive: true,
         };
     let change = 0;
     for (let j = 0; j < m; j++) change = Math.max(change, Math.abs(next[j] - slowness[j]) / slowness[j]);
@@ -211,8 +235,10 @@ function fitFixed(p: Problem, topsM: number[], maxIterations = 20, start?: Float
       for (let j = 0; j < m; j++) t += A[i * np + j] * slowness[j];
       return o.timeS - t;
     });
-    const chi2 = residualsS.reduce((s, r, i) => s + (r / p.obs[i].sdS) ** 2, 0);
-    last = { slowness, interceptS: useIntercept ? intercept : null, cov: sol.inv, chi2, dof: n - np, residualsS };
+    const chi2 =
+      residualsS.reduce((s, r, i) => s + (r / p.obs[i].sdS) ** 2, 0) + (prior ? (intercept / prior) ** 2 : 0);
+    const dof = n - np + (prior ? 1 : 0);
+    last = { slowness, interceptS: useIntercept ? intercept : null, cov: sol.inv, chi2, dof, residualsS };
     if (change < 1e-7) break;
   }
   return last!;
@@ -484,8 +510,65 @@ function refineBoundaries(p: Problem, tops: number[], gaps: [number, number][]):
   return out;
 }
 
+/**
+ * Absolute times as successive differences (the shallowest time kept absolute). When the layers do
+ * not represent the ground (user boundaries across a velocity change), the misfit of a layer carries
+ * into every deeper time, and every deeper ray crosses the top layer, so a thin top layer's slowness
+ * (collinear with the common intercept for near-vertical rays) absorbs the deeper layers' misfit and
+ * can go negative. The travel time error of a layered model accumulates with depth like a random walk;
+ * generalised least squares under such errors is ordinary least squares on the successive differences
+ * (each layer's slowness then rests on the receivers about it). Each difference of two times that each
+ * carry the trigger prior has sd sqrt(sa^2 + sb^2).
+ */
+function successiveDifferences(obs: readonly TimeObservation[]): TimeObservation[] {
+  const s = [...obs].sort((a, b) => a.depthBM - b.depthBM);
+  return s.map((o, i) =>
+    i === 0
+      ? o
+      : {
+          depthAM: s[i - 1].depthBM,
+          depthBM: o.depthBM,
+          offsetM: o.offsetM,
+          timeS: o.timeS - s[i - 1].timeS,
+          sdS: Math.hypot(o.sdS, s[i - 1].sdS),
+        },
+  );
+}
+
+/** Residuals of the original absolute times for slownesses and an intercept fitted otherwise. */
+function absoluteResiduals(p: Problem, topsM: number[], f: RawFit): number[] {
+  const model: VelocityLayer[] = topsM.map((t, j) => ({ topM: t, velocityMps: 1 / f.slowness[j] }));
+  return p.obs.map((o) => {
+    const pb = pathsPerLayer(model, p.sourceDepthM, o.depthBM, o.offsetM);
+    let t = f.interceptS ?? 0;
+    for (let j = 0; j < topsM.length; j++) t += pb[j] * f.slowness[j];
+    return o.timeS - t;
+  });
+}
+
 function finish(p: Problem, tops: number[], gaps: [number, number][], bic: number, notes: string[]): LayeringResult {
-  const f = fitFixed(p, tops);
+  let f = fitFixed(p, tops);
+  const absolute = p.obs.every((o) => o.depthAM === null);
+  if ('reason' in f && f.nonPositive && absolute && p.obs.length > 2) {
+    // the layers leave a misfit that a thin layer above absorbs: fit on successive differences instead
+    // the differences' sds take the model error (reduced chi-square of a first fit) so that the
+    // intercept's prior keeps its weight against a misfit the sds of the times do not hold
+    let diffs = successiveDifferences(p.obs);
+    let d = fitFixed({ ...p, obs: diffs, interceptPriorSdS: p.fallbackInterceptSdS }, tops);
+    for (let pass = 0; pass < 3 && !('reason' in d) && d.dof > 0 && d.chi2 / d.dof > 1.01; pass++) {
+      const inflate = Math.sqrt(d.chi2 / d.dof);
+      diffs = diffs.map((o) => ({ ...o, sdS: o.sdS * inflate }));
+      d = fitFixed({ ...p, obs: diffs, interceptPriorSdS: p.fallbackInterceptSdS }, tops);
+    }
+    if (!('reason' in d)) {
+      // chi-square of the inflated differences (the covariance already holds the model error);
+      // residuals of the absolute times, for the local misfit about each interval
+      f = { ...d, residualsS: absoluteResiduals(p, tops, d) };
+      notes.push(
+        'the layers do not represent the travel times well (a layer spans a velocity change): fitted on successive time differences, so each layer rests on its own receivers',
+      );
+    }
+  }
   if ('reason' in f) return { ok: false, reason: f.reason };
   const m = tops.length;
   const np = f.cov.length === m * m ? m : m + 1;
@@ -537,7 +620,12 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
   const differences = obs.every((x) => x.depthAM !== null);
   if (!absolute && !differences)
     return { ok: false, reason: 'absolute times and two-receiver differences cannot be mixed in one fit' };
-  const p: Problem = { obs, sourceDepthM: o.sourceDepthM, intercept: o.intercept };
+  const p: Problem = {
+    obs,
+    sourceDepthM: o.sourceDepthM,
+    intercept: o.intercept,
+    fallbackInterceptSdS: o.interceptPriorSdS,
+  };
   const depthsM = [...new Set(obs.flatMap((x) => (x.depthAM === null ? [x.depthBM] : [x.depthAM, x.depthBM])))].sort(
     (a, b) => a - b,
   );
