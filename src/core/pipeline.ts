@@ -31,6 +31,7 @@ import { layerFits, layerModelFor, rayFitFor, type LayerFit } from './velocity/l
 import type { LayeredFit } from './velocity/layering';
 import { layerMethod } from './velocity/layerMethod';
 import { jointCorrelation, jointMethod, type JointLayer } from './velocity/joint';
+import { sdScale } from './velocity/sdCalibration';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
@@ -336,7 +337,8 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     joint: {
-      layers: joint.layers,
+      // per-layer sds on the same calibrated scale as the joint intervals (velocity/sdCalibration.ts)
+      layers: joint.layers.map((l) => ({ ...l, vsSdMps: l.vsSdMps * sdScale(survey.kind, 'joint') })),
       reducedChi2: joint.reducedChi2,
       reason: joint.reason,
       notes: joint.notes,
