@@ -409,7 +409,7 @@ function median(xs: readonly number[]): number {
  * of free lines gives the survey's coupling ratio as the median of (intercept - spreading); the second
  * pass fits each interval's line with its intercept held near spreading + coupling (sd
  * INTERCEPT_PRIOR_SD), so a 1 m interval's small slope is no longer traded against a free intercept.
- * Crosshole pairs (receivers in two holes) keep the free line.
+ * Crosshole pairs (receivers in two holes) keep the free line over the whole common band.
  */
 export function twoReceiverDamping(
   pairs: readonly StationPair[],
@@ -417,7 +417,9 @@ export function twoReceiverDamping(
   xcorr: ReadonlyMap<string, PairDelay>,
 ): IntervalDamping[] {
   const contiguous = { ...DEFAULT_PAIR_DAMPING, contiguous: true };
-  const first = pairs.map((p) => pairDamping(p, onsets.get(p.a.key), xcorr.get(p.key), contiguous));
+  const first = pairs.map((p) =>
+    pairDamping(p, onsets.get(p.a.key), xcorr.get(p.key), p.kind === 'true' ? contiguous : DEFAULT_PAIR_DAMPING),
+  );
   const spreading = (p: StationPair) =>
     p.a.straightPathM > 0 && p.b.straightPathM > 0 ? Math.log(p.a.straightPathM / p.b.straightPathM) : null;
   const coupling: number[] = [];
