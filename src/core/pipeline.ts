@@ -181,6 +181,16 @@ export function leadingEdgeDefault(kind: TestKind): boolean {
   return LEADING_EDGE_KINDS.includes(kind);
 }
 
+/**
+ * The joint inversion's per-layer Vs sds on the same calibrated scale as its interval sds
+ * (velocity/sdCalibration.ts sdScale for the kind and method 'joint'), so site.json and the report
+ * state both with one calibration.
+ */
+export function calibratedJointLayers(kind: TestKind, layers: readonly JointLayer[]): JointLayer[] {
+  const k = sdScale(kind, 'joint');
+  return layers.map((l) => ({ ...l, vsSdMps: l.vsSdMps * k }));
+}
+
 /** Whether derive corrects same-hit xcorr delays for broadening by default for a test kind. */
 export function broadeningCorrectionDefault(kind: TestKind): boolean {
   return BROADENING_CORRECTION.kinds.includes(kind);
@@ -337,8 +347,7 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     joint: {
-      // per-layer sds on the same calibrated scale as the joint intervals (velocity/sdCalibration.ts)
-      layers: joint.layers.map((l) => ({ ...l, vsSdMps: l.vsSdMps * sdScale(survey.kind, 'joint') })),
+      layers: calibratedJointLayers(survey.kind, joint.layers),
       reducedChi2: joint.reducedChi2,
       reason: joint.reason,
       notes: joint.notes,
