@@ -297,7 +297,7 @@ export function derive(
   const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
   const dampingLayers =
     layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [];
-  const ownDamping = damping.intervals.map(({ pulse: _pulse, ...rest }) => rest);
+  const ownDamping = damping.intervals.map(({ pulse: _pulse, interceptLn: _c, ...rest }) => rest);
   const surveyDamping: SurveyDamping = {
     ...damping,
     // two-receiver intervals take the Q stacked over their layer (one 1 m pair alone is too noisy)
