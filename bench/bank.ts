@@ -67,7 +67,7 @@ export interface IntervalResult {
   onsetVsMps: number | null;
 }
 
-export interface Case {
+interface Case {
   kind: BankKind;
   seed: number;
   model: EarthModel;
@@ -255,7 +255,7 @@ function addNoise(records: WaveRecord[], r: Realism, seed: number): WaveRecord[]
 }
 
 /** The survey and its records as the pipeline receives them. */
-export function surveyOf(c: Case): { survey: Survey; records: Map<string, WaveRecord> } {
+function surveyOf(c: Case): { survey: Survey; records: Map<string, WaveRecord> } {
   if (c.kind === 'cone-0.5m') {
     const cone = coneSurvey(c);
     const noisy = addNoise([...cone.records.values()], c.realism, c.seed);
