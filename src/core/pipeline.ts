@@ -31,6 +31,7 @@ import { layerFits, layerModelFor, rayFitFor, type LayerFit } from './velocity/l
 import type { LayeredFit } from './velocity/layering';
 import { layerMethod } from './velocity/layerMethod';
 import { jointCorrelation, jointMethod, type JointLayer } from './velocity/joint';
+import { sdScale } from './velocity/sdCalibration';
 import { isOnsetPick, methodApplies } from './catalogue/methods';
 import type { LayerModelFit, RayFitResult } from './velocity/rayfit';
 import { methodDrift, type MethodDrift } from './velocity/drift';
@@ -180,6 +181,16 @@ export function leadingEdgeDefault(kind: TestKind): boolean {
   return LEADING_EDGE_KINDS.includes(kind);
 }
 
+/**
+ * The joint inversion's per-layer Vs sds on the same calibrated scale as its interval sds
+ * (velocity/sdCalibration.ts sdScale for the kind and method 'joint'), so site.json and the report
+ * state both with one calibration.
+ */
+export function calibratedJointLayers(kind: TestKind, layers: readonly JointLayer[]): JointLayer[] {
+  const k = sdScale(kind, 'joint');
+  return layers.map((l) => ({ ...l, vsSdMps: l.vsSdMps * k }));
+}
+
 /** Whether derive corrects same-hit xcorr delays for broadening by default for a test kind. */
 export function broadeningCorrectionDefault(kind: TestKind): boolean {
   return BROADENING_CORRECTION.kinds.includes(kind);
@@ -286,7 +297,7 @@ export function derive(
   const { rows: profile, velocity, soil } = profileRows(survey, intervals, issues);
   const dampingLayers =
     layering.fit && damping.intervals.length ? layerDamping(damping.intervals, layering.fit.layers) : [];
-  const ownDamping = damping.intervals.map(({ pulse: _pulse, ...rest }) => rest);
+  const ownDamping = damping.intervals.map(({ pulse: _pulse, interceptLn: _c, ...rest }) => rest);
   const surveyDamping: SurveyDamping = {
     ...damping,
     // two-receiver intervals take the Q stacked over their layer (one 1 m pair alone is too noisy)
@@ -336,7 +347,7 @@ export function derive(
     layerModel: layerModelFor(survey, prepared.stations, picks, settings),
     layering: { fit: layering.fit, reason: layering.reason },
     joint: {
-      layers: joint.layers,
+      layers: calibratedJointLayers(survey.kind, joint.layers),
       reducedChi2: joint.reducedChi2,
       reason: joint.reason,
       notes: joint.notes,

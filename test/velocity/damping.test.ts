@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { autoPick, derive, prepare } from '../../src/core/pipeline';
 import { defaultSettings, emptyEdits } from '../../src/core/settings';
 import { demoCrossholeHoles, synthesizeSurvey, type EarthModel, type SynthGeometry } from '../../src/core/synth';
-import { layerDamping, localInvQ, type IntervalDamping } from '../../src/core/velocity/damping';
+import { layerDamping, localInvQ, pooledLayerInvQ, type IntervalDamping } from '../../src/core/velocity/damping';
 
 // One soil with constant Q (Kjartansson 1979 constant-Q model in the forward model): the spectral ratio
 // between two receivers of one hit gives t* = dt / Q (Bath 1974), so every interval should give Q back.
@@ -93,6 +93,37 @@ describe('per-layer damping: inverse-variance weighted 1/Q (common practice)', (
     // mean 1/Q = 0.02 -> D = 1%; chi2 = 32 on 1 dof inflates the sd 0.00707 by sqrt(32) to 0.04
     expect(m.damping).toBeCloseTo(0.01, 10);
     expect(m.dampingSd).toBeCloseTo(0.04 / 2, 8);
+  });
+});
+
+describe('random-effects pooling of layer 1/Q (DerSimonian & Laird 1986, moment estimator, from memory)', () => {
+  // three layers of one interval each (sum dt = 1 s for round numbers), 1/Q = 0.02, 0.04, 0.06;
+  // residuals with 1.4826 MAD = 0.01, so every layer's sampling variance v = 1e-4.
+  // Hand computation: w = 1e4, mu = 0.04, Q = 1e4 (4e-4 + 0 + 4e-4) = 8, c = 3e4 - 3e8 / 3e4 = 2e4,
+  // tau^2 = (8 - 2) / 2e4 = 3e-4; shrink factor tau^2 / (tau^2 + v) = 0.75; sd sqrt(v tau^2 / (v + tau^2)).
+  const res = [0.01 / 1.4826, -0.01 / 1.4826, 0.01 / 1.4826];
+  const stacks = [0.02, 0.04, 0.06].map((invQ) => ({ invQ, n: 1, sumDtS: 1 }));
+  it('moves each layer a quarter of the way to the mean: 0.025, 0.04, 0.055, sd 0.00866', () => {
+    const p = pooledLayerInvQ(stacks, res)!;
+    expect(p.map((x) => x.invQ)).toEqual([
+      expect.closeTo(0.025, 10),
+      expect.closeTo(0.04, 10),
+      expect.closeTo(0.055, 10),
+    ]);
+    expect(p[0].sd).toBeCloseTo(Math.sqrt(0.75e-4), 10);
+  });
+  it('layers that scatter less than their sampling error all take the mean (tau^2 = 0), sd 1 / sqrt(sum w)', () => {
+    const p = pooledLayerInvQ(
+      [0.039, 0.04, 0.041].map((invQ) => ({ invQ, n: 1, sumDtS: 1 })),
+      res,
+    )!;
+    for (const x of p) {
+      expect(x.invQ).toBeCloseTo(0.04, 10);
+      expect(x.sd).toBeCloseTo(Math.sqrt(1e-4 / 3), 10);
+    }
+  });
+  it('gives no pooling for fewer than three layers', () => {
+    expect(pooledLayerInvQ(stacks.slice(0, 2), res)).toBeNull();
   });
 });
 

@@ -339,3 +339,24 @@ describe('joint inversion on forward-model surveys with missing measures', () =>
       expect(errs[Math.floor(errs.length / 2)]).toBeLessThan(0.03);
     });
 });
+
+describe('joint layers on the calibrated sd scale (docs/project-format.md: site.json jointInversion)', () => {
+  // contract: a layer's sd and an interval's sd of the joint method carry one calibration, the kind's
+  // scale for method 'joint' (src/core/velocity/sdCalibration.ts, tuned on the bank's training seeds)
+  it('multiplies every layer sd by the kind scale and leaves Vs alone', async () => {
+    const { calibratedJointLayers } = await import('../../src/core/pipeline');
+    const { sdScale } = await import('../../src/core/velocity/sdCalibration');
+    const layers = [
+      { topM: 0, bottomM: 5, vsMps: 180, vsSdMps: 4 },
+      { topM: 5, bottomM: 12, vsMps: 260, vsSdMps: 6 },
+    ];
+    for (const kind of ['downhole', 'downhole-pair', 'seismic-cone'] as const) {
+      const out = calibratedJointLayers(kind, layers);
+      expect(out.map((l) => l.vsMps)).toEqual([180, 260]);
+      expect(out[0].vsSdMps).toBeCloseTo(4 * sdScale(kind, 'joint'), 12);
+      expect(out[1].vsSdMps).toBeCloseTo(6 * sdScale(kind, 'joint'), 12);
+    }
+    // the cone's joint scale is not 1, so the layer sd does change there
+    expect(calibratedJointLayers('seismic-cone', layers)[0].vsSdMps).not.toBeCloseTo(4, 3);
+  });
+});

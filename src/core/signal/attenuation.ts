@@ -31,11 +31,33 @@ export interface SpectralRatioOptions {
    * bank's training seeds).
    */
   weighted?: boolean;
+  /**
+   * Keep only the contiguous band around the peak of |A| |B| where both spectra exceed minShare of their
+   * peaks (default false: every such frequency), so isolated noise peaks far from the pulse do not count.
+   */
+  contiguous?: boolean;
+  /**
+   * Prior on the intercept c of ln |B| / |A| = c - pi f dt*: c ~ N(value, sd^2). Between two receivers of
+   * one probe c is the geometric spreading ratio ln(rA / rB) plus the receivers' coupling ratio, which is
+   * the same at every depth: pinning c gives the slope the lever arm from f = 0 (common practice in
+   * spectral-ratio work: correct for spreading before the ratio).
+   */
+  intercept?: { value: number; sd: number };
 }
 
 export type SpectralRatioResult =
-  | { ok: true; q: number; qSd: number; tStarS: number; tStarSdS: number; bandHz: [number, number]; points: number }
-  | { ok: false; reason: string; tStarS?: number; tStarSdS?: number };
+  | {
+      ok: true;
+      q: number;
+      qSd: number;
+      tStarS: number;
+      tStarSdS: number;
+      bandHz: [number, number];
+      points: number;
+      /** Intercept c of the line (free fit, or with the intercept prior). */
+      interceptLn: number;
+    }
+  | { ok: false; reason: string; tStarS?: number; tStarSdS?: number; interceptLn?: number };
 
 function tapered(x: ArrayLike<number>): Float64Array {
   // Hann taper over the outer 10% at each end (common practice against spectral leakage)
@@ -87,7 +109,17 @@ export function spectralRatioQ(
   const ys: number[] = [];
   const ws: number[] = [];
   const weighted = o.weighted ?? true;
-  for (let k = 1; k < A.length; k++) {
+  let kLo = 1;
+  let kHi = A.length - 1;
+  if (o.contiguous) {
+    let kp = 1;
+    for (let k = 1; k < A.length; k++) if (A[k] * B[k] > A[kp] * B[kp]) kp = k;
+    kLo = kp;
+    kHi = kp;
+    while (kLo > 1 && A[kLo - 1] >= share * maxA && B[kLo - 1] >= share * maxB) kLo--;
+    while (kHi < A.length - 1 && A[kHi + 1] >= share * maxA && B[kHi + 1] >= share * maxB) kHi++;
+  }
+  for (let k = kLo; k <= kHi; k++) {
     const f = k * df;
     if (o.bandHz && (f < o.bandHz[0] || f > o.bandHz[1])) continue;
     if (A[k] < share * maxA || B[k] < share * maxB) continue;
@@ -106,12 +138,29 @@ export function spectralRatioQ(
     sxx += ws[i] * (xs[i] - mx) ** 2;
     sxy += ws[i] * (xs[i] - mx) * (ys[i] - my);
   }
-  const slope = sxy / sxx;
+  const freeSlope = sxy / sxx;
   let sse = 0;
-  for (let i = 0; i < m; i++) sse += ws[i] * (ys[i] - my - slope * (xs[i] - mx)) ** 2;
+  for (let i = 0; i < m; i++) sse += ws[i] * (ys[i] - my - freeSlope * (xs[i] - mx)) ** 2;
   // weighted regression slope se (weights known up to a scale, estimated from the residuals);
   // zero padding makes neighbouring points dependent: the independent count is m / pad
-  const slopeSe = Math.sqrt(sse / Math.max(1, m - 2) / sxx) * Math.sqrt(pad);
+  const s2 = sse / Math.max(1, m - 2);
+  let slope = freeSlope;
+  let intercept = my - freeSlope * mx;
+  let slopeSe = Math.sqrt(s2 / sxx) * Math.sqrt(pad);
+  if (o.intercept && o.intercept.sd > 0 && s2 > 0) {
+    // the line with a Gaussian prior on its intercept (a prior enters as one more data row; Tarantola
+    // 2005, Inverse Problem Theory, ch. 3, from memory): 2 x 2 normal equations in (c, slope)
+    const pc = 1 / o.intercept.sd ** 2;
+    const a11 = sw / s2 + pc;
+    const a12 = (sw * mx) / s2;
+    const a22 = (sxx + sw * mx * mx) / s2;
+    const b1 = (sw * my) / s2 + pc * o.intercept.value;
+    const b2 = (sxy + sw * mx * my) / s2;
+    const det = a11 * a22 - a12 * a12;
+    slope = (a11 * b2 - a12 * b1) / det;
+    intercept = (b1 * a22 - a12 * b2) / det;
+    slopeSe = Math.sqrt((a11 / det) * pad);
+  }
   const tStar = -slope / Math.PI;
   const tStarSd = slopeSe / Math.PI;
   const band: [number, number] = [xs[0], xs[m - 1]];
@@ -121,9 +170,19 @@ export function spectralRatioQ(
       reason: 'the farther pulse is not the more attenuated one over the common band',
       tStarS: tStar,
       tStarSdS: tStarSd,
+      interceptLn: intercept,
     };
   const q = o.delayS / tStar;
-  return { ok: true, q, qSd: (q * tStarSd) / tStar, tStarS: tStar, tStarSdS: tStarSd, bandHz: band, points: m };
+  return {
+    ok: true,
+    q,
+    qSd: (q * tStarSd) / tStar,
+    tStarS: tStar,
+    tStarSdS: tStarSd,
+    bandHz: band,
+    points: m,
+    interceptLn: intercept,
+  };
 }
 
 /** The pulse x propagated by constant Q for travel time tS (reference frequency fRefHz), bulk delay tS removed. */

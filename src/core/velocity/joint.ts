@@ -233,11 +233,19 @@ export const JOINT_TIME_SD_FLOOR_S = 5e-5;
  * interval error): the model error share (sd of a cell's slowness about its layer's) and the extra sd
  * of an onset time (onsets carry the picker's lag, which grows with pulse broadening, so a larger sd
  * lets the correlation delays set the shape); `sdScale` the 0.68 quantile of |error| / sd.
+ *
+ * Seismic cone: the automatic layering of 0.5 m steps misses or misplaces boundaries (single hits,
+ * missing depths, noisy records), and a cell tied to its layer within 3% then shares the layer's error
+ * over a whole block of intervals with a small sd (on the bank's training seeds some surveys had 30%
+ * of intervals within 1 sd, others all). Cells scatter 8% about their layer instead: the data can move
+ * a cell off a wrong layer and the sd says how far it may be; the median error rises (training 1.4% to
+ * 2.4%) but the sd covers it (held-out within 1 / 2 sd 0.47 / 0.81 at 3% with the training-tuned
+ * scale, 0.65 / 0.93 at 8%). Its sdScale: 0.63 times the factor (0.70) the training seeds ask for then.
  */
 export const JOINT_TUNING: Record<TestKind, { cellSdShare: number; onsetExtraSdS: number; sdScale: number }> = {
   downhole: { cellSdShare: 0.1, onsetExtraSdS: 5e-4, sdScale: 0.74 },
   'downhole-pair': { cellSdShare: 0.06, onsetExtraSdS: 5e-4, sdScale: 1.02 },
-  'seismic-cone': { cellSdShare: 0.03, onsetExtraSdS: 5e-4, sdScale: 0.63 },
+  'seismic-cone': { cellSdShare: 0.08, onsetExtraSdS: 5e-4, sdScale: 0.44 },
   crosshole: { cellSdShare: 0.06, onsetExtraSdS: 0, sdScale: 0.51 },
 };
 
