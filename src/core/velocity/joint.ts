@@ -232,7 +232,8 @@ export const JOINT_TIME_SD_FLOOR_S = 5e-5;
  * Per test kind, chosen on the training seeds of the bench's bank (lowest median + P90/2 of the
  * interval error): the model error share (sd of a cell's slowness about its layer's) and the extra sd
  * of an onset time (onsets carry the picker's lag, which grows with pulse broadening, so a larger sd
- * lets the correlation delays set the shape); `sdScale` the 0.68 quantile of |error| / sd.
+ * lets the correlation delays set the shape). The sd scale of the joint method lives with every other
+ * method's in velocity/sdCalibration.ts (one scale per kind and method).
  *
  * Seismic cone: the automatic layering of 0.5 m steps misses or misplaces boundaries (single hits,
  * missing depths, noisy records), and a cell tied to its layer within 3% then shares the layer's error
@@ -240,13 +241,13 @@ export const JOINT_TIME_SD_FLOOR_S = 5e-5;
  * of intervals within 1 sd, others all). Cells scatter 8% about their layer instead: the data can move
  * a cell off a wrong layer and the sd says how far it may be; the median error rises (training 1.4% to
  * 2.4%) but the sd covers it (held-out within 1 / 2 sd 0.47 / 0.81 at 3% with the training-tuned
- * scale, 0.65 / 0.93 at 8%). Its sdScale: 0.63 times the factor (0.70) the training seeds ask for then.
+ * scale, 0.65 / 0.93 at 8%).
  */
-export const JOINT_TUNING: Record<TestKind, { cellSdShare: number; onsetExtraSdS: number; sdScale: number }> = {
-  downhole: { cellSdShare: 0.1, onsetExtraSdS: 5e-4, sdScale: 0.74 },
-  'downhole-pair': { cellSdShare: 0.06, onsetExtraSdS: 5e-4, sdScale: 1.02 },
-  'seismic-cone': { cellSdShare: 0.08, onsetExtraSdS: 5e-4, sdScale: 0.44 },
-  crosshole: { cellSdShare: 0.06, onsetExtraSdS: 0, sdScale: 0.51 },
+export const JOINT_TUNING: Record<TestKind, { cellSdShare: number; onsetExtraSdS: number }> = {
+  downhole: { cellSdShare: 0.1, onsetExtraSdS: 5e-4 },
+  'downhole-pair': { cellSdShare: 0.06, onsetExtraSdS: 5e-4 },
+  'seismic-cone': { cellSdShare: 0.08, onsetExtraSdS: 5e-4 },
+  crosshole: { cellSdShare: 0.06, onsetExtraSdS: 0 },
 };
 
 export interface JointInterval {
@@ -297,7 +298,6 @@ function empty(reason: string): JointResult {
 export interface JointOptions {
   cellSdShare?: number;
   sdFloorS?: number;
-  sdScale?: number;
   /** Extra sd added to every onset time, s (the onset picker's scatter beyond its own sd). */
   onsetExtraSdS?: number;
   /** Use onset times (default true). */
@@ -489,8 +489,6 @@ export function jointMethod(
   });
   if (!out.ok) return { ...empty(out.reason), cells };
   const sol = out.solution;
-  const scale = o.sdScale ?? JOINT_TUNING[kind].sdScale;
-  if (scale !== 1) for (let i = 0; i < sol.covariance.length; i++) sol.covariance[i] *= scale * scale;
   const byPair = new Map<IntervalKey, { velocityMps: number; sdMps: number }>();
   const intervals: JointInterval[] = [];
   sPairs.forEach((p, k) => {
