@@ -1,9 +1,10 @@
 /**
  * The joint travel-time inversion reaches the app through the method catalogue alone: its column shows
- * in the Profile's method table (header title "joint inversion"), and on the crosshole demo it is the
- * method the profile uses (the kind's default, chosen on the bench's training seeds).
+ * in the Profile's method table (header title "joint inversion") with a value in every S row, and the
+ * profile uses the kind's default method (chosen on the bench's training seeds).
  */
 import { expect, test } from '@playwright/test';
+import { DEFAULT_PROFILE_METHOD } from '../src/core/catalogue/methods';
 import { derivedState, waitProcessed } from './helpers';
 
 for (const kind of ['downhole', 'crosshole'] as const) {
@@ -20,7 +21,7 @@ for (const kind of ['downhole', 'crosshole'] as const) {
     if (kind === 'crosshole') {
       const used = s.filter((r) => r.chosen);
       expect(used.length).toBeGreaterThan(0);
-      expect(used.every((r) => r.method === 'joint')).toBe(true);
+      expect(used.every((r) => r.method === DEFAULT_PROFILE_METHOD.crosshole)).toBe(true);
     }
   });
 }
