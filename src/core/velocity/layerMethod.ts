@@ -22,6 +22,7 @@ import type { Station } from '../survey/stations';
 import type { IntervalKey } from '../keys';
 import type { PairDelay, Pick, TestKind } from '../model';
 import { pathModelShare } from './errorModel';
+import { sdScale } from './sdCalibration';
 import type { StationPair } from './intervals';
 import {
   blendIntervals,
@@ -52,6 +53,17 @@ const MODEL_SD_SHARE: Partial<Record<TestKind, number>> = {
   'downhole-pair': 0.06,
   'seismic-cone': 0.03,
 };
+
+/**
+ * The smallest sd a layer velocity may state, as a share of the velocity: the layered model's model-error
+ * floor on its calibrated scale (MODEL_SD_SHARE x the kind's layer-model sd scale, sdCalibration.ts). A
+ * fit's own sd measures only the scatter of its times about the fitted line or rays; the systematic part
+ * (pulse dispersion, bent against straight paths, the layering itself) does not average away with more
+ * receivers. Used by the straight-line and refracted-ray layer fits (velocity/layers.ts).
+ */
+export function layerVelocitySdFloorShare(kind: TestKind): number {
+  return (MODEL_SD_SHARE[kind] ?? 0.06) * sdScale(kind, 'layer-model');
+}
 /**
  * Multiplier of a fitted boundary's position sd (gap / sqrt 12): the gap itself is a choice of the
  * segmentation and may be the neighbouring one. Tuned on training seeds (1, 2, 3.5; bench/diagnose.ts). The

@@ -20,6 +20,7 @@ import { fitLine } from './formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './rayfit';
 import type { StationPair } from './intervals';
 import { intervalTimeSdS } from './errorModel';
+import { layerVelocitySdFloorShare } from './layerMethod';
 import type { TravelTimeRow } from './direct';
 
 export interface LayerFit {
@@ -68,7 +69,7 @@ export function layerModelFor(
     .map((s) => ({ z: s.receiverPos[2], t: onset.get(s.key)!, x: horizontalDistanceM(s.receiverPos, s.sourcePos) }))
     .sort((a, b) => a.z - b.z);
   if (pts.length < 3) return null;
-  return fitLayerModel(
+  const fit = fitLayerModel(
     {
       depthsM: pts.map((p) => p.z),
       timesS: pts.map((p) => p.t),
@@ -77,6 +78,19 @@ export function layerModelFor(
     },
     layerBoundaries(survey, settings, pts[pts.length - 1].z),
   );
+  if (!fit) return null;
+  return {
+    ...fit,
+    layers: fit.layers.map((l) => ({
+      ...l,
+      velocitySdMps: l.velocitySdMps === null ? null : withLayerFloor(l.velocitySdMps, l.velocityMps, survey.kind),
+    })),
+  };
+}
+
+/** A layer fit's sd with the systematic floor added in quadrature (layerMethod.ts layerVelocitySdFloorShare). */
+export function withLayerFloor(fitSdMps: number, velocityMps: number, kind: Survey['kind']): number {
+  return Math.hypot(fitSdMps, layerVelocitySdFloorShare(kind) * velocityMps);
 }
 
 /** Travel time against path length, fitted per layer (user boundaries, else the soil layers). */
@@ -104,7 +118,9 @@ export function layerFits(
         bottomM: bounds[i + 1],
         method,
         velocityMps: 1 / fit.slope,
-        velocitySdMps: Number.isFinite(fit.slopeSe) ? fit.slopeSe / (fit.slope * fit.slope) : null,
+        velocitySdMps: Number.isFinite(fit.slopeSe)
+          ? withLayerFloor(fit.slopeSe / (fit.slope * fit.slope), 1 / fit.slope, survey.kind)
+          : null,
         interceptS: fit.intercept,
         stations: fit.n,
         rmsResidualS: fit.rmsResidual,
