@@ -21,7 +21,7 @@ import {
   updateSettings,
 } from '../state/edits';
 import { setView, useApp } from '../state/store';
-import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
+import { BASE_LAYOUT, bandShapes, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { fromDisplay } from '../core';
 import { disp, fmt, label, useUnits } from './units';
 import type { UnitSystem } from '../core';
@@ -232,23 +232,7 @@ export function ProfilePlot() {
         gridcolor: COLOURS.grid,
         zeroline: false,
       },
-      shapes:
-        bandTopM !== null && bandBottomM !== null
-          ? [
-              {
-                type: 'rect',
-                xref: 'paper',
-                x0: 0,
-                x1: 1,
-                yref: 'y',
-                y0: disp('depth', units, bandTopM),
-                y1: disp('depth', units, bandBottomM),
-                fillcolor: COLOURS.band,
-                line: { width: 0 },
-                layer: 'below',
-              },
-            ]
-          : [],
+      shapes: bandShapes(bandTopM, bandBottomM, (m) => disp('depth', units, m)),
     };
   }, [bandTopM, bandBottomM, units, showVp]);
 

@@ -21,7 +21,7 @@ import { decimateMinMax, dropFlatRuns, mean, medianStep, peakAbs } from './decim
 import { boardStations, effectiveReceiver, isMethod, pickFor, receiversOf, workingTraceLabel } from './picks';
 import { HitsDetail } from './HitsDetail';
 import { agc, fittedWindow, timeVariantGain } from './traceDisplay';
-import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
+import { BASE_LAYOUT, bandShapes, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { disp, fmt, label, useUnits } from './units';
 import { hardwareWebgl } from './gl';
 
@@ -540,21 +540,7 @@ export function TraceBoard() {
 
   const [bandTopM, bandBottomM] = hoveredBand(intervals, view.hoveredInterval);
   const layout = useMemo(() => {
-    const shapes: Record<string, unknown>[] = [];
-    if (bandTopM !== null && bandBottomM !== null) {
-      shapes.push({
-        type: 'rect',
-        xref: 'paper',
-        x0: 0,
-        x1: 1,
-        yref: 'y',
-        y0: disp('depth', units, bandTopM),
-        y1: disp('depth', units, bandBottomM),
-        fillcolor: COLOURS.band,
-        line: { width: 0 },
-        layer: 'below',
-      });
-    }
+    const shapes = bandShapes(bandTopM, bandBottomM, (m) => disp('depth', units, m));
     const sel = stations.find((s) => s.key === view.selectedStation);
     if (sel) {
       const y = depthOf(sel);

@@ -27,7 +27,7 @@ import {
   removeBoundary,
 } from './boundaries';
 import { effectiveReceiver } from './picks';
-import { BASE_LAYOUT, COLOURS, hoveredBand, Plot, type PlotData, pointerToData } from './plot';
+import { BASE_LAYOUT, bandShapes, COLOURS, hoveredBand, Plot, type PlotData, pointerToData } from './plot';
 import { unitText } from './unitText';
 import { disp, fmt, label, undisp, useUnits } from './units';
 
@@ -163,23 +163,7 @@ export function TravelTime() {
   const [bandTopM, bandBottomM] = hoveredBand(intervals, view.hoveredInterval);
   const layout = useMemo(() => {
     const fits = (layerFits ?? []).filter((f) => f.wave === wave && f.method === method);
-    const band =
-      bandTopM !== null && bandBottomM !== null
-        ? [
-            {
-              type: 'rect',
-              xref: 'paper',
-              x0: 0,
-              x1: 1,
-              yref: 'y',
-              y0: disp('depth', units, bandTopM),
-              y1: disp('depth', units, bandBottomM),
-              fillcolor: COLOURS.band,
-              line: { width: 0 },
-              layer: 'below',
-            },
-          ]
-        : [];
+    const band = bandShapes(bandTopM, bandBottomM, (m) => disp('depth', units, m));
     const boundaryLines = editable
       ? marks.map((m) => ({
           type: 'line',

@@ -213,6 +213,32 @@ export function hoveredBand(
   return r ? [r.topM, r.bottomM] : [null, null];
 }
 
+/**
+ * The hovered interval as a band across the whole plot width, below the data: one shape, or none when
+ * nothing is hovered. `toAxis` turns a depth in m into the plot's depth axis (the user's unit).
+ */
+export function bandShapes(
+  topM: number | null,
+  bottomM: number | null,
+  toAxis: (depthM: number) => number,
+): Record<string, unknown>[] {
+  if (topM === null || bottomM === null) return [];
+  return [
+    {
+      type: 'rect',
+      xref: 'paper',
+      x0: 0,
+      x1: 1,
+      yref: 'y',
+      y0: toAxis(topM),
+      y1: toAxis(bottomM),
+      fillcolor: COLOURS.band,
+      line: { width: 0 },
+      layer: 'below',
+    },
+  ];
+}
+
 /** Pixel -> data conversion from Plotly's laid-out axes (x, y of the main subplot). */
 export function pointerToData(
   div: HTMLDivElement,
