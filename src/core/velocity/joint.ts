@@ -28,7 +28,8 @@ import type { PairDelay, Pick, TestKind } from '../model';
 import type { VelocityLayer } from '../survey/rays';
 import { horizontalDistanceM } from '../survey/geometry';
 import type { StationPair } from './intervals';
-import { type LayeredFit, pathsPerLayer, solveSpd } from './layering';
+import { type LayeredFit, pathsPerLayer } from './layering';
+import { solveSpd } from './linalg';
 
 // ---------------------------------------------------------------- the generic solver
 

@@ -31,6 +31,7 @@
  * The fit never disappears silently: every failure comes back with the reason.
  */
 import { layeredRay, type VelocityLayer } from '../survey/rays';
+import { solveSpd } from './linalg';
 
 export interface TimeObservation {
   /** Upper receiver depth for a difference T(b) - T(a) of one hit; null = absolute time to b. */
@@ -99,45 +100,6 @@ interface Problem {
   interceptPriorSdS?: number;
   /** The prior sd the difference fallback applies (LayeringOptions.interceptPriorSdS). */
   fallbackInterceptSdS?: number;
-}
-
-// ---------------------------------------------------------------- linear algebra (small, dense)
-
-export function solveSpd(a: Float64Array, b: Float64Array, n: number): { x: Float64Array; inv: Float64Array } | null {
-  const l = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = a[i * n + j];
-      for (let k = 0; k < j; k++) s -= l[i * n + k] * l[j * n + k];
-      if (i === j) {
-        if (!(s > 1e-300)) return null;
-        l[i * n + i] = Math.sqrt(s);
-      } else l[i * n + j] = s / l[j * n + j];
-    }
-  }
-  const solve = (rhs: Float64Array) => {
-    const y = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      let s = rhs[i];
-      for (let k = 0; k < i; k++) s -= l[i * n + k] * y[k];
-      y[i] = s / l[i * n + i];
-    }
-    const x = new Float64Array(n);
-    for (let i = n - 1; i >= 0; i--) {
-      let s = y[i];
-      for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
-      x[i] = s / l[i * n + i];
-    }
-    return x;
-  };
-  const inv = new Float64Array(n * n);
-  for (let j = 0; j < n; j++) {
-    const e = new Float64Array(n);
-    e[j] = 1;
-    const c = solve(e);
-    for (let i = 0; i < n; i++) inv[i * n + j] = c[i];
-  }
-  return { x: solve(b), inv };
 }
 
 // ---------------------------------------------------------------- the ray fit for fixed boundaries

@@ -9,6 +9,7 @@
  * time' (its pick is out of order). The misfit reported is the RMS time residual.
  */
 import { layeredRay, traceRay, segmentsBetween, type VelocityLayer } from '../survey/rays';
+import { choleskyFactor, choleskySolve } from './linalg';
 
 export interface RayFitInput {
   /** Receiver depths, m, strictly increasing. */
@@ -116,37 +117,6 @@ export interface LayerModelFit {
   converged: boolean;
   rmsMisfitS: number;
   residualsS: number[];
-}
-
-function choleskyFactor(a: Float64Array, n: number): Float64Array | null {
-  const l = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = a[i * n + j];
-      for (let k = 0; k < j; k++) s -= l[i * n + k] * l[j * n + k];
-      if (i === j) {
-        if (!(s > 0)) return null;
-        l[i * n + i] = Math.sqrt(s);
-      } else l[i * n + j] = s / l[j * n + j];
-    }
-  }
-  return l;
-}
-
-function choleskySolve(l: Float64Array, b: Float64Array, n: number): Float64Array {
-  const y = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    let s = b[i];
-    for (let k = 0; k < i; k++) s -= l[i * n + k] * y[k];
-    y[i] = s / l[i * n + i];
-  }
-  const x = new Float64Array(n);
-  for (let i = n - 1; i >= 0; i--) {
-    let s = y[i];
-    for (let k = i + 1; k < n; k++) s -= l[k * n + i] * x[k];
-    x[i] = s / l[i * n + i];
-  }
-  return x;
 }
 
 export function fitLayerModel(
