@@ -22,7 +22,7 @@ import {
   siteJson,
   toCsv,
 } from '../core';
-import { INTERVAL_METHODS, type IntervalMethod } from '../core';
+import { INTERVAL_METHODS, profileMethodFor, type IntervalMethod } from '../core';
 import { hasDirectVelocities } from '../core';
 import { curvesCautions, curvesTable, liquefactionCautions, liquefactionTable } from '../core';
 import { type CliIo, cliPath } from './inspect';
@@ -211,7 +211,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
   writeFileSync(join(out, 'site.json'), JSON.stringify(siteJson(result.derived, settings), null, 2) + '\n');
   const v = result.derived.site.vs30;
   io.stdout.write(
-    `${project.survey.name}: ${result.derived.profile.length} intervals (${settings.intervals.profileMethod}), ` +
+    `${project.survey.name}: ${result.derived.profile.length} intervals (${profileMethodFor(settings.intervals.profileMethod, project.survey.kind)}), ` +
       (v
         ? `Vs30 ${v.vsMps.toFixed(1)} m/s to ${v.toDepthM.toFixed(1)} m`
         : (result.derived.site.setupIncomplete ?? 'no time-averaged Vs')) +

@@ -5,7 +5,7 @@
 import { memo, useDeferredValue, useEffect, useRef, useState } from 'react';
 import { unitText } from './unitText';
 import type { Derived } from '../core';
-import { softwareVersion } from '../core';
+import { profileMethodFor, softwareVersion } from '../core';
 import type { UnitSystem } from '../core';
 import type { Station, Survey, Wave } from '../core';
 import type { Settings } from '../core';
@@ -417,9 +417,9 @@ const PrintBody = memo(function PrintBody({
       </p>
       <h2>Settings</h2>
       <p>
-        Profile method: {methodInfo(settings.intervals.profileMethod).label} · onset picker:{' '}
-        {settings.picking.onsetMethod} · reversed hits: {settings.conditioning.useReversedHits ? 'used' : 'not used'} ·
-        S band-pass:{' '}
+        Profile method: {methodInfo(profileMethodFor(settings.intervals.profileMethod, survey.kind)).label} · onset
+        picker: {settings.picking.onsetMethod} · reversed hits:{' '}
+        {settings.conditioning.useReversedHits ? 'used' : 'not used'} · S band-pass:{' '}
         {settings.conditioning.bandpassS
           ? `${settings.conditioning.bandpassS.lowHz}-${settings.conditioning.bandpassS.highHz} Hz`
           : 'none'}{' '}

@@ -5,7 +5,7 @@
 import { CurrentSetupProblems } from './Setup';
 import { unitText } from './unitText';
 import { memo, useMemo, useRef, useState } from 'react';
-import { INTERVAL_METHODS, methodInfo, type IntervalMethod } from '../core';
+import { INTERVAL_METHODS, methodApplies, methodInfo, profileMethodFor, type IntervalMethod } from '../core';
 import type { IntervalKey, StationKey } from '../core';
 import type { IntervalValue } from '../core';
 import type { ComparisonResult, ProfileRow } from '../core';
@@ -387,7 +387,9 @@ export function IntervalsTable() {
   const selected = useApp((s) => s.view.selectedInterval);
   const hovered = useApp((s) => s.view.hoveredInterval);
   const edits = useApp((s) => s.edits);
-  const profileMethod = useApp((s) => s.settings.intervals.profileMethod);
+  const kind = useApp((s) => s.survey.kind);
+  // What the profile takes: the settings' method, or the kind's default where that one does not apply.
+  const profileMethod = useApp((s) => profileMethodFor(s.settings.intervals.profileMethod, s.survey.kind));
   const intervals = d?.intervals;
   const cmp = d?.comparison;
   const list = useMemo(() => groups(intervals ?? [], wave), [intervals, wave]);
@@ -460,7 +462,7 @@ export function IntervalsTable() {
             onChange={(e) => updateSettings({ intervals: { profileMethod: e.target.value as IntervalMethod } })}
             aria-label="Profile method"
           >
-            {INTERVAL_METHODS.map((m) => (
+            {INTERVAL_METHODS.filter((m) => methodApplies(m, kind)).map((m) => (
               <option key={m} value={m}>
                 {methodInfo(m).label}
               </option>

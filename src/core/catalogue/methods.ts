@@ -210,6 +210,15 @@ export function methodApplies(id: IntervalMethod, kind: TestKind): boolean {
   return k === null || k.includes(kind);
 }
 
+/**
+ * The method the profile takes for a survey of this kind: the settings' method where it applies, else
+ * the kind's default (a crosshole survey with the downhole default 'layer-model' set uses 'xcorr').
+ * Everything that names the profile method (interval choice, app, report, CLI) asks here.
+ */
+export function profileMethodFor(settingsMethod: IntervalMethod, kind: TestKind): IntervalMethod {
+  return methodApplies(settingsMethod, kind) ? settingsMethod : DEFAULT_PROFILE_METHOD[kind];
+}
+
 // ---------------------------------------------------------------- pick methods (what a Pick records)
 
 export interface PickMethodInfo {

@@ -2,7 +2,7 @@
  * Builds the report's plain data (./data) from the pipeline's result. The only file of the report that
  * knows the pipeline's shapes: when they move, this adapts and the figures and document stay as they are.
  */
-import { isOnsetPick, methodInfo, isIntervalMethod } from '../catalogue/methods';
+import { isOnsetPick, methodInfo, isIntervalMethod, profileMethodFor } from '../catalogue/methods';
 import { hasDirectVelocities, kindInfo, receiverCountOf, receiverLabel } from '../catalogue/testKinds';
 import { isReceiverSlot, stationWaveKey } from '../keys';
 import type { Survey } from '../model';
@@ -86,7 +86,7 @@ function settingsRows(survey: Survey, s: Settings, units: UnitSystem): ReportSet
   const band = (b: Settings['conditioning']['bandpassS']) =>
     b ? `${b.lowHz}–${b.highHz} Hz, order ${b.order}` : 'none';
   const rows: ReportSetting[] = [
-    { label: 'Profile method', value: methodWords(s.intervals.profileMethod) },
+    { label: 'Profile method', value: methodWords(profileMethodFor(s.intervals.profileMethod, survey.kind)) },
     { label: 'Onset picker', value: s.picking.onsetMethod === 'aic' ? 'AIC (Maeda 1985)' : 'STA/LTA (Allen 1978)' },
     {
       label: 'Reversed hits',

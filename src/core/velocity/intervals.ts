@@ -16,13 +16,12 @@ import type { IntervalFlag } from '../flags';
 import { intervalKey, type IntervalKey, type StationKey } from '../keys';
 import { pairingRule } from '../catalogue/testKinds';
 import {
-  DEFAULT_PROFILE_METHOD,
   DELAY_METHODS,
   FALLBACK_ORDER,
-  methodApplies,
   PICK_INTERVAL_METHODS,
   methodInfo,
   pickIsMethod,
+  profileMethodFor,
   type IntervalMethod,
 } from '../catalogue/methods';
 import { intervalVelocityMps, intervalVelocitySdMps } from './formulas';
@@ -254,10 +253,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     }
     // The chosen value: the user's choice for this interval, else the settings' method, else the fallback order.
     const wanted =
-      edits.chosenMethod[pair.key] ??
-      (methodApplies(settings.intervals.profileMethod, inp.kind ?? 'downhole')
-        ? settings.intervals.profileMethod
-        : DEFAULT_PROFILE_METHOD[inp.kind ?? 'downhole']);
+      edits.chosenMethod[pair.key] ?? profileMethodFor(settings.intervals.profileMethod, inp.kind ?? 'downhole');
     const valid = (r: IntervalValue) => r.velocityMps !== null;
     let chosen = rows.find((r) => r.method === wanted && valid(r));
     if (!chosen) {
