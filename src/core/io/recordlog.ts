@@ -13,6 +13,7 @@
 import { BorewaveError } from '../errors';
 import type { Component, HitDirection } from '../model';
 import { parseCell, splitTextRows } from './text';
+import { parseHitWord } from '../hitWords';
 
 const FT_TO_M = 0.3048;
 
@@ -37,19 +38,6 @@ export interface RecordLog {
   depthColumn: 'depth_m' | 'depth_ft' | null;
   rows: RecordLogRow[];
 }
-
-const HITS: Record<string, HitDirection> = {
-  left: 'left',
-  l: 'left',
-  right: 'right',
-  r: 'right',
-  up: 'up',
-  u: 'up',
-  down: 'down',
-  d: 'down',
-  none: 'none',
-  n: 'none',
-};
 
 const COMPONENTS: Record<string, Component> = {
   v: 'V',
@@ -139,7 +127,8 @@ export function readRecordLog(text: string, name: string): RecordLog {
     let hit: HitDirection | null = null;
     const h = cell(hitCol);
     if (h) {
-      hit = HITS[h.toLowerCase()] ?? null;
+      // the log also takes 'n' for none
+      hit = h.toLowerCase() === 'n' ? 'none' : parseHitWord(h);
       if (!hit) {
         fail(name, `line ${row.line}, column hit: "${h}" is not left, right, up, down or none`, `line ${row.line}`);
       }

@@ -10,6 +10,7 @@
  * settings.placement.maxHeaderDepthM, are not depths. Every value not used is reported with its rule.
  */
 import type { HitDirection, WaveRecord } from '../model';
+import { parseHitWord } from '../hitWords';
 import type { Placed, PlacementSettings, ReceiverSlot, RejectedValue, SetupGeometry } from './types';
 
 export const FT_TO_M = 0.3048;
@@ -19,23 +20,6 @@ export const DEFAULT_NAME_PATTERN = '*d{depth}_{hit}.*';
 const SAME_M = 0.0015;
 /** A trace is at a hole's collar when its x y lie within this distance, m (common practice: a hole is a few cm wide; positions are written to cm). */
 const COLLAR_TOLERANCE_M = 0.25;
-
-const HIT_WORDS: Record<string, HitDirection> = {
-  l: 'left',
-  left: 'left',
-  r: 'right',
-  right: 'right',
-  u: 'up',
-  up: 'up',
-  d: 'down',
-  down: 'down',
-  none: 'none',
-};
-
-/** A hit word (left right up down L R U D none), or null. */
-export function parseHitWord(text: string): HitDirection | null {
-  return HIT_WORDS[text.trim().toLowerCase()] ?? null;
-}
 
 // ------------------------------------------------------------------ file-name pattern
 
@@ -116,9 +100,9 @@ export function hitFromHeaders(rec: WaveRecord): Placed<HitDirection> | null {
   ];
   for (const s of texts) {
     const m = /\b(?:hit|blow|direction|strike)\s*[:=]?\s*(left|right|up|down|l|r|u|d)\b/i.exec(s);
-    if (m) return { value: HIT_WORDS[m[1].toLowerCase()], source: 'header' };
+    if (m) return { value: parseHitWord(m[1])!, source: 'header' };
     const m2 = /\b(left|right|up|down)\s+(?:hit|blow|end struck|strike)\b/i.exec(s);
-    if (m2) return { value: HIT_WORDS[m2[1].toLowerCase()], source: 'header' };
+    if (m2) return { value: parseHitWord(m2[1])!, source: 'header' };
   }
   return null;
 }

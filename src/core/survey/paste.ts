@@ -3,25 +3,12 @@
  * name matches), depth in the display unit, hit, then optional component / receiver pairs per channel.
  * Pure: returns the new assignments, how many rows changed and the problems in plain words.
  */
-import type { Component, HitDirection, RecordAssignment } from '../model';
+import type { Component, RecordAssignment } from '../model';
 import { fromDisplay, type UnitSystem } from '../units';
 import { isReceiverSlot, type ReceiverSlot } from '../keys';
+import { parseHitWord } from '../hitWords';
 
 const COMPONENTS: readonly Component[] = ['H1', 'H2', 'V'];
-
-const HIT_WORDS: Record<string, HitDirection> = {
-  l: 'left',
-  left: 'left',
-  r: 'right',
-  right: 'right',
-  u: 'up',
-  up: 'up',
-  d: 'down',
-  down: 'down',
-  '': 'none',
-  none: 'none',
-  '-': 'none',
-};
 
 /** A number typed in the display unit, in metres; null when it is not a number (comma decimals accepted). */
 export function parseDepthText(text: string, units: UnitSystem): number | null {
@@ -85,7 +72,7 @@ export function applyPaste(
       }
     }
     if (c[1] !== undefined && c[1].trim() !== '') {
-      const h = HIT_WORDS[c[1].trim().toLowerCase()];
+      const h = parseHitWord(c[1]);
       if (h) {
         r.hit = h;
         r.hitSource = 'user';
