@@ -52,7 +52,7 @@ describe('coverage of stated sds', () => {
   });
 });
 
-describe('the tuning rule (half the 95% quantile of |error| / sd, kept between its 62% and 74% quantiles)', () => {
+describe('the tuning rule (half the 95% quantile of |error| / sd, kept between its 62% and 75% quantiles, never below half its 90% quantile)', () => {
   it('Gaussian errors twice the stated sd ask for a scale of 1.96 (the normal 97.5% point) and then cover 67.3% / 95.0%', () => {
     const rows = gaussianRows(2, 1, 11);
     const s = calibrationScale(rows.map((r) => Math.abs(r.errorMps) / r.sdMps))!;
@@ -63,10 +63,10 @@ describe('the tuning rule (half the 95% quantile of |error| / sd, kept between i
     expect(Math.abs(withinShare(scaled, 2)! - 0.95)).toBeLessThan(0.01);
   });
 
-  it('heavy tails (Student t, 3 degrees of freedom): the 1-sd share is held at 74%, 2 sd then covers over 92%', () => {
+  it('heavy tails (Student t, 3 degrees of freedom): the 1-sd share is held at 75%, 2 sd then covers over 92%', () => {
     // t3 = Z / sqrt(chi2_3 / 3); closed-form cdf F(t) = 1/2 + (u / (1 + u^2) + atan u) / pi, u = t / sqrt 3
     // (Student t with 3 degrees of freedom, e.g. Johnson, Kotz & Balakrishnan, Continuous Univariate
-    // Distributions 2, ch. 28, from memory); the 74% point of |t3| solves F(t) = 0.87
+    // Distributions 2, ch. 28, from memory); the 75% point of |t3| solves F(t) = 0.875
     const rng = mulberry32(21);
     const z = Array.from({ length: N }, () => {
       const chi = rng.normal() ** 2 + rng.normal() ** 2 + rng.normal() ** 2;
@@ -79,7 +79,7 @@ describe('the tuning rule (half the 95% quantile of |error| / sd, kept between i
     };
     let lo = 0;
     let hi = 10;
-    for (let i = 0; i < 60; i++) [lo, hi] = cdf((lo + hi) / 2) < 0.87 ? [(lo + hi) / 2, hi] : [lo, (lo + hi) / 2];
+    for (let i = 0; i < 60; i++) [lo, hi] = cdf((lo + hi) / 2) < 0.875 ? [(lo + hi) / 2, hi] : [lo, (lo + hi) / 2];
     expect(Math.abs(s - lo)).toBeLessThan(0.04);
     // and 2 sd then covers 2 F(2 s) - 1 of the t3 errors
     expect(
@@ -92,8 +92,19 @@ describe('the tuning rule (half the 95% quantile of |error| / sd, kept between i
       ),
     ).toBeLessThan(0.01);
     const rows = z.map((e) => ({ errorMps: e, sdMps: s }));
-    expect(Math.abs(withinShare(rows, 1)! - 0.74)).toBeLessThan(0.005);
+    expect(Math.abs(withinShare(rows, 1)! - 0.75)).toBeLessThan(0.005);
     expect(withinShare(rows, 2)!).toBeGreaterThan(0.92);
+  });
+
+  it('a tail no single scale can fit (80% of |z| uniform on 0-0.1, 20% uniform on 1-11): 90% within 2 sd wins over the 1-sd band', () => {
+    // analytic quantiles of the mixture: q75 = 0.75 / 0.8 x 0.1 = 0.094; q90 = 1 + (0.90 - 0.8) / 0.2 x 10 = 6,
+    // so half of q90 (3) is above q75 and the scale is 3: 2 sd = 6 covers exactly 90%, 1 sd (3) 0.8 + 0.2 x 2/10 = 84%
+    const z = Array.from({ length: 100000 }, (_, i) => (i < 80000 ? (0.1 * (i + 0.5)) / 80000 : 1 + (10 * (i - 80000 + 0.5)) / 20000));
+    const s = calibrationScale(z)!;
+    expect(Math.abs(s - 3)).toBeLessThan(0.01);
+    const rows = z.map((e) => ({ errorMps: e, sdMps: s }));
+    expect(Math.abs(withinShare(rows, 2)! - 0.9)).toBeLessThan(0.001);
+    expect(Math.abs(withinShare(rows, 1)! - 0.84)).toBeLessThan(0.001);
   });
 
   it('too few errors give no scale', () => {
