@@ -81,8 +81,9 @@ const PENALTY_SCALE = 0.5;
  * times), in every fit and as the pin of the top layer's line at the source (velocity/layering.ts "The
  * intercept"). The intercept holds the first onset's error: its hit's trigger offset (0.14 ms sd about a
  * mean of up to a few tenths of a ms) and the onset pick's bias (a fraction of the S period, common
- * practice). Tuned on training seeds (0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 1, 2 ms; bench/shallow-eval.ts): 0.5 ms
- * gave the shortest one-receiver tail; a free intercept traded several ms against the top layer's Vs.
+ * practice). Tuned on training seeds (0.3-2 ms; bench/shallow-eval.ts, docs/true-vs.md "Layer model, third
+ * round"): 0.5 ms gave the shortest one-receiver tail; a free intercept traded several ms against the top
+ * layer's Vs.
  */
 export const INTERCEPT_PRIOR_SD_S = 5e-4;
 /** Receivers within this distance of an interval measure the fit's local misfit there, m. */

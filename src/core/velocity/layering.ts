@@ -35,9 +35,10 @@
  *
  * Layers that do not represent the ground (user boundaries across a velocity change): the misfit of a
  * deep layer would pass into a thin top layer's slowness, which every deeper ray crosses, and could make
- * it negative. Then the fit is repeated on successive time differences (generalised least squares for a
- * model error that accumulates with depth), their sds scaled by the reduced chi-square, with a prior on
- * the common intercept (successiveDifferences).
+ * it negative, or, the misfit being far above the times' sds, override the intercept's prior (an
+ * intercept beyond 3 prior sds; interceptImplausible). Then the fit is repeated on successive time
+ * differences (generalised least squares for a model error that accumulates with depth), their sds
+ * scaled by the reduced chi-square, with the prior on the common intercept (successiveDifferences).
  *
  * The fit never disappears silently: every failure comes back with the reason.
  */
