@@ -28,6 +28,7 @@ import { INTERVAL_METHOD_CATALOGUE, type IntervalMethod } from '../src/core/cata
 import type { TestKind } from '../src/core/model';
 import { calibrationScale, sdScale, withinShare } from '../src/core/velocity/sdCalibration';
 import { blendIntervals, fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
+import { INTERCEPT_PRIOR_SD_S } from '../src/core/velocity/layerMethod';
 
 export type BankKind = 'one-receiver' | 'two-receiver' | 'cone-0.5m' | 'crosshole';
 export const BANK_KINDS: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m', 'crosshole'];
@@ -311,6 +312,8 @@ export interface SurveyRun {
 export interface PreparedCase {
   c: Case;
   stations: ReturnType<typeof prepare>['stations'];
+  /** The survey's station pairs as prepared (no edits in the bank: the pipeline's pairs). */
+  pairs: ReturnType<typeof prepare>['pairs'];
   derived: ReturnType<typeof derive>;
   perMethod: IntervalResult[];
   truthOf: (top: number, bottom: number) => number;
@@ -376,7 +379,7 @@ export function prepareCase(c: Case): PreparedCase {
       onsetVsMps: onsetTruth(r.topM, r.bottomM),
     });
   }
-  return { c, stations: prep.stations, derived: d, perMethod, truthOf, onsetTruth };
+  return { c, stations: prep.stations, pairs: prep.pairs, derived: d, perMethod, truthOf, onsetTruth };
 }
 
 /** The layered-model intervals of a prepared survey for one tuning. */
@@ -392,6 +395,7 @@ export function evaluateCase(p: PreparedCase, tuning: LayerModelTuning): SurveyR
       mode: 'auto',
       minThicknessM: tuning.minThicknessM,
       intercept: true,
+      interceptPriorSdS: INTERCEPT_PRIOR_SD_S,
       penaltyScale: tuning.penaltyScale,
     });
     if (!fit.ok) note = fit.reason;

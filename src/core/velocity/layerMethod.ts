@@ -78,12 +78,14 @@ const BOUNDARY_SD_SCALE: Partial<Record<TestKind, number>> = { downhole: 2, 'dow
 const PENALTY_SCALE = 0.5;
 /**
  * Prior sd of the common intercept of one-receiver times (mean 0: the trigger delay is already off the
- * times), used only when user layers that do not represent the ground would otherwise give a thin top
- * layer a non-positive slowness (velocity/layering.ts). The intercept holds the mean trigger offset (a
- * few tenths of a ms) and the bias of the first onset pick (a fraction of the S period, common practice):
- * 1 ms.
+ * times), in every fit and as the pin of the top layer's line at the source (velocity/layering.ts "The
+ * intercept"). The intercept holds the first onset's error: its hit's trigger offset (0.14 ms sd about a
+ * mean of up to a few tenths of a ms) and the onset pick's bias (a fraction of the S period, common
+ * practice). Tuned on training seeds (0.3-2 ms; bench/shallow-eval.ts, docs/true-vs.md "Layer model, third
+ * round"): 0.5 ms gave the shortest one-receiver tail; a free intercept traded several ms against the top
+ * layer's Vs.
  */
-const INTERCEPT_PRIOR_SD_S = 1e-3;
+export const INTERCEPT_PRIOR_SD_S = 5e-4;
 /** Receivers within this distance of an interval measure the fit's local misfit there, m. */
 const LOCAL_WINDOW_M = 1;
 /**

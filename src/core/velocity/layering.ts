@@ -22,11 +22,23 @@
  * that exceeds 1 (any regression text), plus, for an interval that holds a boundary, the spread of the
  * boundary inside its gap (uniform: sd = gap / sqrt 12).
  *
+ * The intercept (absolute times): a free common intercept and the top layer's slowness are nearly
+ * collinear. From a source offset x of 2-2.5 m the shallow rays are oblique: the slant path grows with
+ * receiver depth z only by z / sqrt(z^2 + x^2) per metre (0.4 at 1 m), so the top receivers give a line of
+ * time against path with a short lever arm and a poorly fixed intercept. Any curvature there (a
+ * boundary between the first two receivers, which a layer of two or more receivers cannot hold) then
+ * moves the intercept by several ms and the top layer's Vs by tens of per cent. But the intercept is
+ * only the error common to all times (times built from one first onset and correlation delays: that
+ * hit's trigger offset and the onset's pick bias, a fraction of a millisecond), so it takes a prior
+ * (mean 0); and in the segmentation the top layer's line passes through the source at time 0 with that
+ * sd, so a top layer may hold a single receiver and reaches up to the source for its thickness.
+ *
  * Layers that do not represent the ground (user boundaries across a velocity change): the misfit of a
  * deep layer would pass into a thin top layer's slowness, which every deeper ray crosses, and could make
- * it negative. Then the fit is repeated on successive time differences (generalised least squares for a
- * model error that accumulates with depth), their sds scaled by the reduced chi-square, with a prior on
- * the common intercept (successiveDifferences).
+ * it negative, or, the misfit being far above the times' sds, override the intercept's prior (an
+ * intercept beyond 3 prior sds; interceptImplausible). Then the fit is repeated on successive time
+ * differences (generalised least squares for a model error that accumulates with depth), their sds
+ * scaled by the reduced chi-square, with the prior on the common intercept (successiveDifferences).
  *
  * The fit never disappears silently: every failure comes back with the reason.
  */
@@ -52,8 +64,9 @@ export interface LayeringOptions {
   /** Absolute times: fit a common intercept (the mean trigger offset); ignored for differences. */
   intercept: boolean;
   /**
-   * Prior sd of the common intercept, s (mean 0: the trigger delay is already taken off the times).
-   * Used only when the fit without it would give a layer a non-positive slowness (module comment).
+   * Prior sd of the common intercept, s (mean 0: the trigger delay is already taken off the times),
+   * applied to every fit of absolute times and, in the automatic layering, to the top layer's line
+   * (module comment "The intercept"). Absent: a free intercept.
    */
   interceptPriorSdS?: number;
   /** Multiplies the BIC penalty k ln N (1 = BIC). */
@@ -96,10 +109,8 @@ interface Problem {
   obs: TimeObservation[];
   sourceDepthM: number;
   intercept: boolean;
-  /** Prior sd of the intercept (s) when one is applied, else undefined. */
+  /** Prior sd of the intercept (s), else undefined (LayeringOptions.interceptPriorSdS). */
   interceptPriorSdS?: number;
-  /** The prior sd the difference fallback applies (LayeringOptions.interceptPriorSdS). */
-  fallbackInterceptSdS?: number;
 }
 
 // ---------------------------------------------------------------- the ray fit for fixed boundaries
@@ -241,7 +252,14 @@ function verticalReduced(p: Problem, topsM: number[], slowness: Float64Array | n
 export function segmentReceivers(
   depthsM: number[],
   obs: TimeObservation[],
-  o: { absolute: boolean; minThicknessM: number; penaltyScale: number; maxLayers: number },
+  o: {
+    absolute: boolean;
+    minThicknessM: number;
+    penaltyScale: number;
+    maxLayers: number;
+    /** Absolute times: the top layer's line passes through the source (time 0 ± sdS at depthM). */
+    origin?: { depthM: number; sdS: number };
+  },
 ): { ends: number[]; lines: { interceptS: number; slownessSpM: number }[]; chi2: number; bic: number } | null {
   const n = depthsM.length;
   if (n < 2) return null;
@@ -255,15 +273,20 @@ export function segmentReceivers(
   const gapAbove = (i: number) => (i > 0 ? depthsM[i] - depthsM[i - 1] : 0);
   for (let i = 0; i < n; i++) {
     for (let j = i; j < n; j++) {
-      const thick = depthsM[j] - depthsM[i] + 0.5 * (gapAbove(i) + gapBelow(j));
+      // with the source pinned, the top layer reaches up to the source
+      const pin = i === 0 && o.absolute && o.origin ? o.origin : null;
+      const thick = pin
+        ? depthsM[j] + 0.5 * gapBelow(j) - pin.depthM
+        : depthsM[j] - depthsM[i] + 0.5 * (gapAbove(i) + gapBelow(j));
       if (thick + 1e-9 < o.minThicknessM && !(i === 0 && j === n - 1)) continue;
       if (o.absolute) {
-        if (j - i < 1) continue;
-        // weighted straight-line fit t = a + s z over receivers i..j
-        let sw = 0;
-        let sz = 0;
+        if (j - i < (pin ? 0 : 1)) continue;
+        // weighted straight-line fit t = a + s z over receivers i..j (and the source point, pin)
+        const w0 = pin ? 1 / (pin.sdS * pin.sdS) : 0;
+        let sw = w0;
+        let sz = pin ? w0 * pin.depthM : 0;
         let st = 0;
-        let szz = 0;
+        let szz = pin ? w0 * pin.depthM * pin.depthM : 0;
         let szt = 0;
         let stt = 0;
         for (const ob of obs) {
@@ -508,19 +531,29 @@ function absoluteResiduals(p: Problem, topsM: number[], f: RawFit): number[] {
   });
 }
 
+/**
+ * The fitted intercept lies more than 3 prior sds from 0: the layers leave a misfit far above the
+ * times' sds (layers that do not represent the ground) that overrides the prior and passes into the top
+ * layer through the intercept, the same symptom as a non-positive slowness (module comment).
+ */
+function interceptImplausible(p: Problem, f: RawFit): boolean {
+  const sd = p.interceptPriorSdS;
+  return f.interceptS !== null && sd !== undefined && sd > 0 && Math.abs(f.interceptS) > 3 * sd;
+}
+
 function finish(p: Problem, tops: number[], gaps: [number, number][], bic: number, notes: string[]): LayeringResult {
   let f = fitFixed(p, tops);
   const absolute = p.obs.every((o) => o.depthAM === null);
-  if ('reason' in f && f.nonPositive && absolute && p.obs.length > 2) {
+  if (absolute && p.obs.length > 2 && ('reason' in f ? f.nonPositive : interceptImplausible(p, f))) {
     // the layers leave a misfit that a thin layer above absorbs: fit on successive differences instead
     // the differences' sds take the model error (reduced chi-square of a first fit) so that the
     // intercept's prior keeps its weight against a misfit the sds of the times do not hold
     let diffs = successiveDifferences(p.obs);
-    let d = fitFixed({ ...p, obs: diffs, interceptPriorSdS: p.fallbackInterceptSdS }, tops);
+    let d = fitFixed({ ...p, obs: diffs }, tops);
     for (let pass = 0; pass < 3 && !('reason' in d) && d.dof > 0 && d.chi2 / d.dof > 1.01; pass++) {
       const inflate = Math.sqrt(d.chi2 / d.dof);
       diffs = diffs.map((o) => ({ ...o, sdS: o.sdS * inflate }));
-      d = fitFixed({ ...p, obs: diffs, interceptPriorSdS: p.fallbackInterceptSdS }, tops);
+      d = fitFixed({ ...p, obs: diffs }, tops);
     }
     if (!('reason' in d)) {
       // chi-square of the inflated differences (the covariance already holds the model error);
@@ -586,7 +619,7 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
     obs,
     sourceDepthM: o.sourceDepthM,
     intercept: o.intercept,
-    fallbackInterceptSdS: o.interceptPriorSdS,
+    interceptPriorSdS: o.interceptPriorSdS,
   };
   const depthsM = [...new Set(obs.flatMap((x) => (x.depthAM === null ? [x.depthBM] : [x.depthAM, x.depthBM])))].sort(
     (a, b) => a - b,
@@ -635,6 +668,8 @@ export function fitLayering(observations: TimeObservation[], o: LayeringOptions)
       minThicknessM: o.minThicknessM,
       penaltyScale: o.penaltyScale ?? 1,
       maxLayers: o.maxLayers ?? 12,
+      // the top layer's line passes through the source within the intercept's prior (module comment)
+      origin: absolute && o.intercept && o.interceptPriorSdS ? { depthM: top0, sdS: o.interceptPriorSdS } : undefined,
     });
     if (!seg) return { ok: false, reason: 'too few receivers for a layering' };
     bic = seg.bic;
