@@ -596,7 +596,7 @@ export function sdScales(runs: SurveyRun[], kind: BankKind): Record<string, numb
     const z = ivs.filter((iv) => iv.sdMps && iv.sdMps > 0).map((iv) => Math.abs(iv.vsMps - iv.trueVsMps) / iv.sdMps!);
     const f = calibrationScale(z);
     const applied = m in METHOD_IDS ? sdScale(TEST_KIND[kind], m as IntervalMethod) : 1;
-    if (f !== null) out[m] = Math.round(f * applied * 100) / 100;
+    if (f !== null) out[m] = Math.round(f * applied * 1000) / 1000;
   }
   return out;
 }

@@ -47,53 +47,50 @@ export function calibrationScale(zAbs: readonly number[]): number | null {
 }
 
 /**
- * Sd scale per test kind and interval method, from the bench's 12 training seeds (`npm run bench --
- * --bank-only --bank-seeds 12 --json`, key bank.sdScale, rounded to 2 digits). A method missing here
- * keeps scale 1. Below 1 where the error model's terms are bounds (path model, trigger prior, model
- * floor); above 1 where a method's own sd is optimistic (crosshole phase slope and first peak). The
- * joint method's scales are the products of the two factors tuned on the same training seeds (one inside
- * the joint fit, one here) before they were folded into this table.
+ * Sd scale per test kind and interval method, from the bench's 24 training seeds (`npm run bench --
+ * --bank-only --bank-seeds 24 --json`, key bank.sdScale, rounded to 3 decimals; calibrationScale's rule). A
+ * method missing here keeps scale 1. Below 1 where the error model's terms are bounds (path model, trigger
+ * prior, model floor); above 1 where a method's own sd is optimistic (crosshole phase slope and first peak).
  *
- * The layer model (the default of the downhole kinds) keeps the 2-sd side of the rule: its |error| / sd
- * has a tail too heavy for one scale to put both shares in their bands (a layer missed between receivers
- * or a gradient, that nothing in the travel times flags), and an sd that leaves more than 5% outside
- * 2 sd is the unsafe side. So its scales are the ones that give 93-95% within 2 sd on the training seeds
- * (the rule's upper clamp lifted); 1-sd coverage then runs above 80% for the cone (docs/true-vs.md).
+ * The layer model (the default of the downhole kinds) has a tail of |error| / sd too heavy for 95% within
+ * 2 sd and at most 75% within 1 sd at once (a layer missed between receivers or a gradient, that nothing in
+ * the travel times flags): its scales meet the 2-sd band at its lower edge (90%) on the training seeds, and
+ * 1-sd coverage then runs near 80% (docs/true-vs.md "Calibration").
  */
 export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, number>>>> = {
   downhole: {
-    onset: 0.98,
-    peak: 0.61,
-    trough: 1.06,
-    'zero-crossing': 0.57,
+    onset: 0.91,
+    peak: 0.63,
+    trough: 0.92,
+    'zero-crossing': 0.6,
     xcorr: 0.74,
-    phase: 0.73,
-    'ray-fit': 0.85,
-    'layer-model': 0.3,
-    joint: 0.64,
+    phase: 0.77,
+    'ray-fit': 0.91,
+    'layer-model': 0.253,
+    joint: 0.7,
   },
   'downhole-pair': {
-    onset: 0.72,
-    peak: 0.47,
-    trough: 0.84,
-    'zero-crossing': 0.4,
-    xcorr: 0.61,
-    phase: 0.74,
-    'layer-model': 0.18,
-    joint: 1.07,
+    onset: 0.76,
+    peak: 0.51,
+    trough: 0.85,
+    'zero-crossing': 0.46,
+    xcorr: 0.68,
+    phase: 0.79,
+    'layer-model': 0.137,
+    joint: 0.94,
   },
   'seismic-cone': {
-    onset: 1.02,
-    peak: 0.68,
-    trough: 0.91,
-    'zero-crossing': 0.72,
-    xcorr: 0.85,
-    phase: 0.79,
+    onset: 1.05,
+    peak: 0.7,
+    trough: 0.97,
+    'zero-crossing': 0.65,
+    xcorr: 0.83,
+    phase: 0.83,
     'ray-fit': 1.03,
-    'layer-model': 0.32,
-    joint: 0.63,
+    'layer-model': 0.209,
+    joint: 0.73,
   },
-  crosshole: { onset: 0.77, peak: 1.76, trough: 1.04, 'zero-crossing': 0.88, xcorr: 0.84, phase: 3.04, joint: 0.66 },
+  crosshole: { onset: 0.78, peak: 1.65, trough: 0.97, 'zero-crossing': 1.22, xcorr: 0.69, phase: 3.22, joint: 0.63 },
 };
 
 export function sdScale(kind: TestKind, method: IntervalMethod): number {
