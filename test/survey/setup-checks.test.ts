@@ -52,7 +52,7 @@ describe('forward-model variants', () => {
     ['downhole', 9005],
     ['crosshole', 9006],
   ] as const)(
-    '%s, hits logged nowhere, shuffled files, repeated and missing hits (seed %d): hits right at >= 98%% of depths, no blocking problem',
+    '%s, hits logged nowhere, shuffled files, repeated and missing hits (seed %d): hits right at 98 per cent of depths or more, no blocking problem',
     (kind, seed) => {
       const res = stripHitLabels(
         variantSurvey({
@@ -74,7 +74,7 @@ describe('forward-model variants', () => {
   );
 
   it.each(['right', 'left'] as const)(
-    'careless set-up (hits none, labels shifted %s): blocked, or Vs30 within 10%%; site.json says why',
+    'careless set-up (hits none, labels shifted %s): blocked, or Vs30 within 10 per cent; site.json says why',
     (dir) => {
       const res = carelessSetup(variantSurvey({ kind: 'downhole', seed: 9007, azimuthWalkSdRad: 0 }), dir);
       const run = runOn(res);
