@@ -99,7 +99,9 @@ describe('the tuning rule (half the 95% quantile of |error| / sd, kept between i
   it('a tail no single scale can fit (80% of |z| uniform on 0-0.1, 20% uniform on 1-11): 90% within 2 sd wins over the 1-sd band', () => {
     // analytic quantiles of the mixture: q75 = 0.75 / 0.8 x 0.1 = 0.094; q90 = 1 + (0.90 - 0.8) / 0.2 x 10 = 6,
     // so half of q90 (3) is above q75 and the scale is 3: 2 sd = 6 covers exactly 90%, 1 sd (3) 0.8 + 0.2 x 2/10 = 84%
-    const z = Array.from({ length: 100000 }, (_, i) => (i < 80000 ? (0.1 * (i + 0.5)) / 80000 : 1 + (10 * (i - 80000 + 0.5)) / 20000));
+    const z = Array.from({ length: 100000 }, (_, i) =>
+      i < 80000 ? (0.1 * (i + 0.5)) / 80000 : 1 + (10 * (i - 80000 + 0.5)) / 20000,
+    );
     const s = calibrationScale(z)!;
     expect(Math.abs(s - 3)).toBeLessThan(0.01);
     const rows = z.map((e) => ({ errorMps: e, sdMps: s }));
