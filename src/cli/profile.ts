@@ -11,7 +11,7 @@ import { basename, join } from 'node:path';
 import { toErrorInfo } from '../core';
 import { openProject, readProjectArchive, type OpenedProject, type ProjectSource } from '../core';
 import { patchSettings } from '../core';
-import { runPipeline } from '../core';
+import { runPipeline, type PipelineResult, type Settings } from '../core';
 import {
   directTable,
   intervalsTable,
@@ -50,6 +50,32 @@ export function folderSource(dir: string): ProjectSource {
       return { files, present: walk('') };
     },
   };
+}
+
+/** A saved project: a project archive, or a folder holding project.json and its files. */
+export function openSavedProject(input: string): OpenedProject {
+  return statSync(input).isDirectory()
+    ? openProject(folderSource(input))
+    : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+}
+
+/** The pipeline over an opened project under the given settings. */
+export function runOpenedProject(opened: OpenedProject, settings: Settings): PipelineResult {
+  const project = opened.doc;
+  return runPipeline({
+    survey: project.survey,
+    records: opened.records,
+    settings,
+    edits: project.edits,
+    comparison: project.comparison ?? null,
+  });
+}
+
+/** The value of --units, or null after saying why it is refused (`command` starts the line). */
+export function unitsOption(command: string, value: string | undefined, io: CliIo): UnitSystem | null {
+  if (value === 'SI' || value === 'US') return value;
+  io.stderr.write(`${command}: --units ${value ?? ''} is not SI or US\n`);
+  return null;
 }
 
 /** A folder is set up from its files when it has no project.json, or one whose survey has no records. */
@@ -120,11 +146,8 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     else if (a === '--method') method = args[++i];
     else if (a === '--strict') strict = true;
     else if (a === '--units') {
-      const u = args[++i];
-      if (u !== 'SI' && u !== 'US') {
-        io.stderr.write(`profile: --units ${u ?? ''} is not SI or US\n`);
-        return 2;
-      }
+      const u = unitsOption('profile', args[++i], io);
+      if (!u) return 2;
       units = u;
     } else if (a.startsWith('--')) {
       io.stderr.write(`profile: unknown option ${a}\n`);
@@ -169,9 +192,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     } else {
       if (setupFlagGiven)
         throw new Error(`${input} holds a complete project; set-up flags apply only to a folder of field files`);
-      opened = isDir
-        ? openProject(folderSource(input))
-        : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+      opened = openSavedProject(input);
     }
   } catch (e) {
     io.stderr.write(`profile: ${toErrorInfo(e, input).message.replace(/^Unexpected problem: /, '')}\n`);
@@ -183,13 +204,7 @@ export async function runProfile(args: string[], io: CliIo): Promise<number> {
     ...(method ? { intervals: { profileMethod: method as IntervalMethod } } : {}),
     ...(pgaG !== undefined && magnitude !== undefined ? { design: { pgaG, magnitude } } : {}),
   });
-  const result = runPipeline({
-    survey: project.survey,
-    records: opened.records,
-    settings,
-    edits: project.edits,
-    comparison: project.comparison ?? null,
-  });
+  const result = runOpenedProject(opened, settings);
   const issues = [...setupIssues, ...opened.issues, ...result.derived.issues];
   for (const p of issues) io.stderr.write(`warning: ${p.file ? p.file + ': ' : ''}${p.message} [${p.code}]\n`);
   const setup = result.derived.setupProblems;

@@ -4,17 +4,15 @@
  * figures inline, system fonts, no links), printable to PDF by any browser. Exit 2 on a bad project or
  * bad options, with a one-line reason.
  */
-import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
-import { basename, dirname } from 'node:path';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { dirname } from 'node:path';
 import { toErrorInfo } from '../core';
-import { openProject, readProjectArchive, type OpenedProject } from '../core';
-import { runPipeline } from '../core';
 import { reportDataFrom } from '../core';
 import { reportHtml, type Paper } from '../core';
 import { INTERVAL_METHODS, type IntervalMethod } from '../core';
 import type { UnitSystem } from '../core';
 import type { CliIo } from './inspect';
-import { folderSource } from './profile';
+import { openSavedProject, runOpenedProject, unitsOption } from './profile';
 import { cliSoftwareVersion } from './version';
 
 export interface ReportRun {
@@ -29,20 +27,12 @@ export function makeReport(
   o: { units?: UnitSystem; paper?: Paper; method?: IntervalMethod; madeAt?: string } = {},
 ): ReportRun {
   if (!existsSync(input)) throw new Error(`${input} does not exist`);
-  const opened: OpenedProject = statSync(input).isDirectory()
-    ? openProject(folderSource(input))
-    : readProjectArchive(new Uint8Array(readFileSync(input)), basename(input));
+  const opened = openSavedProject(input);
   const project = opened.doc;
   const settings = o.method
     ? { ...project.settings, intervals: { ...project.settings.intervals, profileMethod: o.method } }
     : project.settings;
-  const result = runPipeline({
-    survey: project.survey,
-    records: opened.records,
-    settings,
-    edits: project.edits,
-    comparison: project.comparison ?? null,
-  });
+  const result = runOpenedProject(opened, settings);
   const data = reportDataFrom({
     survey: project.survey,
     settings,
@@ -67,11 +57,8 @@ export async function runReport(args: string[], io: CliIo): Promise<number> {
     const a = args[i];
     if (a === '--out') out = args[++i];
     else if (a === '--units') {
-      const u = args[++i];
-      if (u !== 'SI' && u !== 'US') {
-        io.stderr.write(`report: --units ${u ?? ''} is not SI or US\n`);
-        return 2;
-      }
+      const u = unitsOption('report', args[++i], io);
+      if (!u) return 2;
       units = u;
     } else if (a === '--paper') {
       const p = args[++i];

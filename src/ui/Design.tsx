@@ -37,8 +37,43 @@ export function fsColour(fs: number): string {
   return fs < 1 ? SCREEN_COLOURS.fsLow : fs < 1.25 ? SCREEN_COLOURS.fsNear : SCREEN_COLOURS.fsOk;
 }
 
+/** Cautions as a list, one item each. */
+function CautionList({ items, className }: { items: readonly string[]; className?: string }) {
+  return (
+    <ul className={className}>
+      {items.map((c) => (
+        <li key={c}>{c}</li>
+      ))}
+    </ul>
+  );
+}
+
 const pct = (x: number | null | undefined, d = 3) =>
   x === null || x === undefined || !Number.isFinite(x) ? '–' : x.toFixed(d);
+
+/** A value on the curves: G/Gmax for the left panel, damping for the right. */
+type CurveValue = { modulusRatio: number; dampingPct: number };
+
+/**
+ * One trace on both panels of the curves plot: G/Gmax on the left (x, y), damping on the right (x2, y2).
+ * `make` gets the value to draw and whether the trace is the left one.
+ */
+function onBothPanels(make: (y: (v: CurveValue) => number, left: boolean) => PlotData): PlotData[] {
+  return [
+    { ...make((v) => v.modulusRatio, true), xaxis: 'x', yaxis: 'y' },
+    { ...make((v) => v.dampingPct, false), xaxis: 'x2', yaxis: 'y2' },
+  ];
+}
+
+/** The log shear-strain axis of both curve panels. */
+const strainAxis = () => ({
+  type: 'log',
+  title: { text: 'Shear strain (%)' },
+  range: [-4, 0],
+  gridcolor: COLOURS.grid,
+  dtick: 1,
+  exponentformat: 'none',
+});
 
 function CurvesPlot({ layers, showAlt }: { layers: LayerDesign[]; showAlt: boolean }) {
   const data = useMemo(() => {
@@ -48,79 +83,42 @@ function CurvesPlot({ layers, showAlt }: { layers: LayerDesign[]; showAlt: boole
       const name = `${l.name || `Layer ${i + 1}`}`;
       const x = l.curve.map((p) => p.strainPct);
       out.push(
-        {
+        ...onBothPanels((y, left) => ({
           type: 'scatter',
           mode: 'lines',
           x,
-          y: l.curve.map((p) => p.modulusRatio),
+          y: l.curve.map(y),
           name,
           legendgroup: name,
+          ...(left ? {} : { showlegend: false }),
           line: { color: colour, width: 2 },
-          xaxis: 'x',
-          yaxis: 'y',
-        },
-        {
-          type: 'scatter',
-          mode: 'lines',
-          x,
-          y: l.curve.map((p) => p.dampingPct),
-          name,
-          legendgroup: name,
-          showlegend: false,
-          line: { color: colour, width: 2 },
-          xaxis: 'x2',
-          yaxis: 'y2',
-        },
+        })),
       );
       if (showAlt && l.alternative.curve.length) {
         const ax = l.alternative.curve.map((p) => p.strainPct);
         out.push(
-          {
+          ...onBothPanels((y, left) => ({
             type: 'scatter',
             mode: 'lines',
             x: ax,
-            y: l.alternative.curve.map((p) => p.modulusRatio),
-            name: `${name} (${CURVE_MODEL_SOURCES[l.alternative.model].label})`,
-            legendgroup: name,
+            y: l.alternative.curve.map(y),
+            ...(left ? { name: `${name} (${CURVE_MODEL_SOURCES[l.alternative.model].label})`, legendgroup: name } : {}),
             showlegend: false,
             line: { color: colour, width: 1, dash: 'dash' },
-            xaxis: 'x',
-            yaxis: 'y',
-          },
-          {
-            type: 'scatter',
-            mode: 'lines',
-            x: ax,
-            y: l.alternative.curve.map((p) => p.dampingPct),
-            showlegend: false,
-            line: { color: colour, width: 1, dash: 'dash' },
-            xaxis: 'x2',
-            yaxis: 'y2',
-          },
+          })),
         );
       }
-      if (l.working) {
+      const working = l.working;
+      if (working) {
         out.push(
-          {
+          ...onBothPanels((y) => ({
             type: 'scatter',
             mode: 'markers',
-            x: [l.working.strainPct],
-            y: [l.working.modulusRatio],
+            x: [working.strainPct],
+            y: [y(working)],
             showlegend: false,
             marker: { color: colour, size: 8, symbol: 'diamond', line: { color: COLOURS.rim, width: 1 } },
-            xaxis: 'x',
-            yaxis: 'y',
-          },
-          {
-            type: 'scatter',
-            mode: 'markers',
-            x: [l.working.strainPct],
-            y: [l.working.dampingPct],
-            showlegend: false,
-            marker: { color: colour, size: 8, symbol: 'diamond', line: { color: COLOURS.rim, width: 1 } },
-            xaxis: 'x2',
-            yaxis: 'y2',
-          },
+          })),
         );
       }
       if (l.field) {
@@ -145,23 +143,9 @@ function CurvesPlot({ layers, showAlt }: { layers: LayerDesign[]; showAlt: boole
       ...BASE_LAYOUT,
       margin: { l: 52, r: 12, t: 16, b: 44 },
       grid: { rows: 1, columns: 2, pattern: 'independent', xgap: 0.12 },
-      xaxis: {
-        type: 'log',
-        title: { text: 'Shear strain (%)' },
-        range: [-4, 0],
-        gridcolor: COLOURS.grid,
-        dtick: 1,
-        exponentformat: 'none',
-      },
+      xaxis: strainAxis(),
       yaxis: { title: { text: 'G/Gmax' }, range: [0, 1.05], gridcolor: COLOURS.grid },
-      xaxis2: {
-        type: 'log',
-        title: { text: 'Shear strain (%)' },
-        range: [-4, 0],
-        gridcolor: COLOURS.grid,
-        dtick: 1,
-        exponentformat: 'none',
-      },
+      xaxis2: strainAxis(),
       yaxis2: { title: { text: 'Damping (%)' }, rangemode: 'tozero', gridcolor: COLOURS.grid },
     }),
     [],
@@ -430,11 +414,7 @@ export function DesignPane() {
       </div>
       <CurvesPlot layers={design.layers} showAlt={showAlt} />
       <LayerTable layers={design.layers} units={units} fieldQGiven={design.fieldQGiven} />
-      <ul className="cautions small">
-        {CURVE_CAUTIONS.map((c) => (
-          <li key={c}>{c}</li>
-        ))}
-      </ul>
+      <CautionList items={CURVE_CAUTIONS} className="cautions small" />
       <h3>Liquefaction triggering screen (from Vs)</h3>
       <p className="caution-top">{LIQUEFACTION_CAUTIONS[0]}</p>
       {q ? (
@@ -458,11 +438,7 @@ export function DesignPane() {
           and mark sand layers in the soil column to run the screen.
         </p>
       )}
-      <ul className="cautions small">
-        {LIQUEFACTION_CAUTIONS.map((c) => (
-          <li key={c}>{c}</li>
-        ))}
-      </ul>
+      <CautionList items={LIQUEFACTION_CAUTIONS} className="cautions small" />
     </section>
   );
 }
@@ -509,11 +485,7 @@ export function DesignPrintSection({ design, units }: { design: Derived['design'
           ))}
         </tbody>
       </table>
-      <ul>
-        {CURVE_CAUTIONS.map((c) => (
-          <li key={c}>{c}</li>
-        ))}
-      </ul>
+      <CautionList items={CURVE_CAUTIONS} />
       {q && (
         <>
           <h2>
@@ -545,11 +517,7 @@ export function DesignPrintSection({ design, units }: { design: Derived['design'
               ))}
             </tbody>
           </table>
-          <ul>
-            {LIQUEFACTION_CAUTIONS.map((c) => (
-              <li key={c}>{c}</li>
-            ))}
-          </ul>
+          <CautionList items={LIQUEFACTION_CAUTIONS} />
         </>
       )}
     </>

@@ -12,6 +12,7 @@ import type {
   HitDirection,
   RecordAssignment,
   SoilLayer,
+  Survey,
   TestKind,
   ValueSource,
 } from '../core';
@@ -113,6 +114,44 @@ function QtyField({
   );
 }
 
+/** A labelled depth: "text (m)" and its field. */
+function DepthField({
+  text,
+  units,
+  si,
+  onCommit,
+  ariaLabel,
+  allowEmpty,
+}: {
+  text: string;
+  units: UnitSystem;
+  si: number | null;
+  onCommit: (si: number | null) => void;
+  ariaLabel: string;
+  allowEmpty?: boolean;
+}) {
+  return (
+    <label>
+      {text} ({label('depth', units)}){' '}
+      <QtyField kind="depth" units={units} si={si} allowEmpty={allowEmpty} onCommit={onCommit} ariaLabel={ariaLabel} />
+    </label>
+  );
+}
+
+/** The survey's main hole: the receiver hole under a surface source, the source hole of a crosshole test. */
+function MainHoleSelect({ text, holeIds, value }: { text: string; holeIds: string[]; value: string }) {
+  return (
+    <label>
+      {text}{' '}
+      <select value={value} onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}>
+        {holeIds.map((h) => (
+          <option key={h}>{h}</option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
 function NumField({
   value,
   onCommit,
@@ -139,22 +178,6 @@ function changeKindTo(kind: TestKind): void {
   updateSurvey((s) => changeKind(s, kind, (id) => rawRecords.get(id)?.traces.map((t) => t.channel) ?? null));
 }
 
-function setRecord(id: string, patch: Partial<RecordAssignment>): void {
-  updateSurvey((s) => ({
-    ...s,
-    records: s.records.map((r) =>
-      r.recordId === id
-        ? {
-            ...r,
-            ...patch,
-            ...('depthM' in patch ? { depthSource: 'user' as const } : {}),
-            ...('hit' in patch ? { hitSource: 'user' as const } : {}),
-          }
-        : r,
-    ),
-  }));
-}
-
 /** Several records at once (bulk edit): edited values count as the user's. */
 function setRecords(ids: ReadonlySet<string>, patch: Partial<RecordAssignment>): void {
   updateSurvey((s) => ({
@@ -170,6 +193,10 @@ function setRecords(ids: ReadonlySet<string>, patch: Partial<RecordAssignment>):
         : r,
     ),
   }));
+}
+
+function setRecord(id: string, patch: Partial<RecordAssignment>): void {
+  setRecords(new Set([id]), patch);
 }
 
 /** A channel edited on one record (a per-record override of the channel map): source 'user'. */
@@ -263,6 +290,51 @@ function commonMap(records: RecordAssignment[]): ChannelAssignment[] {
     });
 }
 
+/** What one channel carries: component @ receiver (the receiver list keeps the current one). */
+function ChannelMeaning({
+  survey,
+  meaning: { channel, component, receiver },
+  receivers,
+  inMapBar,
+  onChange,
+}: {
+  survey: Survey;
+  meaning: Pick<ChannelAssignment, 'channel' | 'component' | 'receiver'>;
+  receivers: ReceiverSlot[];
+  /** The channel map bar's menus are labelled "Map component of channel N", a record's "Component of channel N". */
+  inMapBar: boolean;
+  onChange: (patch: { component?: Component; receiver?: ReceiverSlot }) => void;
+}) {
+  const [componentAria, receiverAria] = inMapBar
+    ? [`Map component of channel ${channel}`, `Map receiver of channel ${channel}`]
+    : [`Component of channel ${channel}`, `Receiver of channel ${channel}`];
+  return (
+    <>
+      <select
+        value={component}
+        aria-label={componentAria}
+        onChange={(e) => onChange({ component: e.target.value as Component })}
+      >
+        {COMPONENTS.map((k) => (
+          <option key={k}>{k}</option>
+        ))}
+      </select>
+      @
+      <select
+        value={receiver}
+        aria-label={receiverAria}
+        onChange={(e) => onChange({ receiver: e.target.value as ReceiverSlot })}
+      >
+        {[...new Set([...receivers, receiver])].map((k) => (
+          <option key={k} value={k}>
+            {receiverLabel(survey, k)}
+          </option>
+        ))}
+      </select>
+    </>
+  );
+}
+
 function ChannelMapBar({ receivers }: { receivers: ReceiverSlot[] }) {
   const survey = useApp((s) => s.survey);
   const records = survey.records;
@@ -278,31 +350,13 @@ function ChannelMapBar({ receivers }: { receivers: ReceiverSlot[] }) {
       {map.map((m, i) => (
         <span key={m.channel} className="chan">
           Ch {m.channel}{' '}
-          <select
-            value={m.component}
-            aria-label={`Map component of channel ${m.channel}`}
-            onChange={(e) =>
-              setMap(map.map((x, j) => (j === i ? { ...x, component: e.target.value as Component } : x)))
-            }
-          >
-            {COMPONENTS.map((k) => (
-              <option key={k}>{k}</option>
-            ))}
-          </select>
-          @
-          <select
-            value={m.receiver}
-            aria-label={`Map receiver of channel ${m.channel}`}
-            onChange={(e) =>
-              setMap(map.map((x, j) => (j === i ? { ...x, receiver: e.target.value as ReceiverSlot } : x)))
-            }
-          >
-            {[...new Set([...receivers, m.receiver])].map((k) => (
-              <option key={k} value={k}>
-                {receiverLabel(survey, k)}
-              </option>
-            ))}
-          </select>
+          <ChannelMeaning
+            survey={survey}
+            meaning={m}
+            receivers={receivers}
+            inMapBar
+            onChange={(patch) => setMap(map.map((x, j) => (j === i ? { ...x, ...patch } : x)))}
+          />
         </span>
       ))}
       <button onClick={() => applyChannelMap(map)}>Apply to all records</button>
@@ -508,27 +562,13 @@ function RecordsTable({ units }: { units: UnitSystem }) {
                 </td>
                 {r.channels.map((c) => (
                   <td key={c.channel} className="chan placed">
-                    <select
-                      value={c.component}
-                      onChange={(e) => setChannel(r.recordId, c.channel, { component: e.target.value as Component })}
-                      aria-label={`Component of channel ${c.channel}`}
-                    >
-                      {COMPONENTS.map((k) => (
-                        <option key={k}>{k}</option>
-                      ))}
-                    </select>
-                    @
-                    <select
-                      value={c.receiver}
-                      onChange={(e) => setChannel(r.recordId, c.channel, { receiver: e.target.value as ReceiverSlot })}
-                      aria-label={`Receiver of channel ${c.channel}`}
-                    >
-                      {[...new Set([...receivers, c.receiver])].map((k) => (
-                        <option key={k} value={k}>
-                          {receiverLabel(survey, k)}
-                        </option>
-                      ))}
-                    </select>
+                    <ChannelMeaning
+                      survey={survey}
+                      meaning={c}
+                      receivers={receivers}
+                      inMapBar={false}
+                      onChange={(patch) => setChannel(r.recordId, c.channel, patch)}
+                    />
                     <Src source={c.source} what={`channel ${c.channel}`} />
                   </td>
                 ))}
@@ -549,6 +589,17 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
   const setHole = (patch: Partial<Borehole>) =>
     updateSurvey((s) => ({ ...s, boreholes: s.boreholes.map((h) => (h.id === hole.id ? { ...h, ...patch } : h)) }));
   const [renameErr, setRenameErr] = useState<string | null>(null);
+  const collarCell = (key: 'collarEastM' | 'collarNorthM', word: string) => (
+    <td>
+      <QtyField
+        kind="depth"
+        units={units}
+        si={hole[key]}
+        onCommit={(v) => setHole({ [key]: v ?? 0 })}
+        ariaLabel={`${hole.id} collar ${word}`}
+      />
+    </td>
+  );
   return (
     <>
       <tr>
@@ -561,24 +612,8 @@ function BoreholeRow({ hole, units }: { hole: Borehole; units: UnitSystem }) {
           />
           {renameErr && <span className="error small"> {renameErr}</span>}
         </td>
-        <td>
-          <QtyField
-            kind="depth"
-            units={units}
-            si={hole.collarEastM}
-            onCommit={(v) => setHole({ collarEastM: v ?? 0 })}
-            ariaLabel={`${hole.id} collar east`}
-          />
-        </td>
-        <td>
-          <QtyField
-            kind="depth"
-            units={units}
-            si={hole.collarNorthM}
-            onCommit={(v) => setHole({ collarNorthM: v ?? 0 })}
-            ariaLabel={`${hole.id} collar north`}
-          />
-        </td>
+        {collarCell('collarEastM', 'east')}
+        {collarCell('collarNorthM', 'north')}
         <td className="text wrap">
           {hole.deviation.length
             ? `${hole.deviation.length} stations to ${fmt('depth', units, hole.deviation[hole.deviation.length - 1].depthAlongM)} ${label('depth', units)}`
@@ -769,17 +804,14 @@ function SoilTable({ units }: { units: UnitSystem }) {
       >
         Add layer
       </button>{' '}
-      <label>
-        Water table depth ({dep}){' '}
-        <QtyField
-          kind="depth"
-          units={units}
-          si={soil.waterTableM}
-          allowEmpty
-          onCommit={(v) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, waterTableM: v } }))}
-          ariaLabel="Water table depth"
-        />
-      </label>{' '}
+      <DepthField
+        text="Water table depth"
+        units={units}
+        si={soil.waterTableM}
+        allowEmpty
+        onCommit={(v) => updateSurvey((s) => ({ ...s, soil: { ...s.soil, waterTableM: v } }))}
+        ariaLabel="Water table depth"
+      />{' '}
       <span className="small muted">(empty = none). Without layers a default column is used for stresses.</span>
     </>
   );
@@ -1005,37 +1037,21 @@ export function GeometryPane() {
         </label>
         {surfaceSource(survey.kind) ? (
           <>
-            <label>
-              Receiver hole{' '}
-              <select
-                value={survey.mainHoleId}
-                onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}
-              >
-                {holeIds.map((h) => (
-                  <option key={h}>{h}</option>
-                ))}
-              </select>
-            </label>
-            <label>
-              Source offset ({label('depth', units)}){' '}
-              <QtyField
-                kind="depth"
-                units={units}
-                si={survey.sourceOffsetM}
-                onCommit={(v) => updateSurvey((s) => ({ ...s, sourceOffsetM: v ?? 0 }))}
-                ariaLabel="Source offset"
-              />
-            </label>
-            <label>
-              Source depth ({label('depth', units)}){' '}
-              <QtyField
-                kind="depth"
-                units={units}
-                si={survey.sourceDepthM}
-                onCommit={(v) => updateSurvey((s) => ({ ...s, sourceDepthM: v ?? 0 }))}
-                ariaLabel="Source depth"
-              />
-            </label>
+            <MainHoleSelect text="Receiver hole" holeIds={holeIds} value={survey.mainHoleId} />
+            <DepthField
+              text="Source offset"
+              units={units}
+              si={survey.sourceOffsetM}
+              onCommit={(v) => updateSurvey((s) => ({ ...s, sourceOffsetM: v ?? 0 }))}
+              ariaLabel="Source offset"
+            />
+            <DepthField
+              text="Source depth"
+              units={units}
+              si={survey.sourceDepthM}
+              onCommit={(v) => updateSurvey((s) => ({ ...s, sourceDepthM: v ?? 0 }))}
+              ariaLabel="Source depth"
+            />
             {kindInfo(survey.kind).receiverCounts.length > 1 && (
               <label>
                 Receivers{' '}
@@ -1053,43 +1069,27 @@ export function GeometryPane() {
               </label>
             )}
             {kindInfo(survey.kind).tipLogged && (
-              <label>
-                Receiver above tip ({label('depth', units)}){' '}
-                <QtyField
-                  kind="depth"
-                  units={units}
-                  si={survey.coneOffsetM}
-                  onCommit={(v) => v !== null && v >= 0 && updateSurvey((s) => ({ ...s, coneOffsetM: v }))}
-                  ariaLabel="Cone receiver offset"
-                />
-              </label>
+              <DepthField
+                text="Receiver above tip"
+                units={units}
+                si={survey.coneOffsetM}
+                onCommit={(v) => v !== null && v >= 0 && updateSurvey((s) => ({ ...s, coneOffsetM: v }))}
+                ariaLabel="Cone receiver offset"
+              />
             )}
             {receiverCountOf(survey) === 2 && (
-              <label>
-                Receiver spacing ({label('depth', units)}){' '}
-                <QtyField
-                  kind="depth"
-                  units={units}
-                  si={survey.receiverSpacingM}
-                  onCommit={(v) => v && updateSurvey((s) => ({ ...s, receiverSpacingM: v }))}
-                  ariaLabel="Receiver spacing"
-                />
-              </label>
+              <DepthField
+                text="Receiver spacing"
+                units={units}
+                si={survey.receiverSpacingM}
+                onCommit={(v) => v && updateSurvey((s) => ({ ...s, receiverSpacingM: v }))}
+                ariaLabel="Receiver spacing"
+              />
             )}
           </>
         ) : (
           <>
-            <label>
-              Source hole{' '}
-              <select
-                value={survey.mainHoleId}
-                onChange={(e) => updateSurvey((s) => ({ ...s, mainHoleId: e.target.value }))}
-              >
-                {holeIds.map((h) => (
-                  <option key={h}>{h}</option>
-                ))}
-              </select>
-            </label>
+            <MainHoleSelect text="Source hole" holeIds={holeIds} value={survey.mainHoleId} />
             {[0, 1].map((i) => (
               <label key={i}>
                 {i === 0 ? 'Near' : 'Far'} receiver hole{' '}

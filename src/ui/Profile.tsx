@@ -67,6 +67,51 @@ function comparisonSteps(cmp: ComparisonProfile, bottomM: number, units: UnitSys
   return { x, y };
 }
 
+/** A stepped line of the profile (null values break the line). */
+function stepTrace(
+  name: string,
+  xy: { x: (number | null)[]; y: (number | null)[] },
+  line: PlotData,
+  o: { xaxis?: string; visible?: boolean } = {},
+): PlotData {
+  return {
+    type: 'scatter',
+    mode: 'lines',
+    name,
+    x: xy.x,
+    y: xy.y,
+    ...(o.xaxis ? { xaxis: o.xaxis } : {}),
+    ...(o.visible !== undefined ? { visible: o.visible } : {}),
+    line,
+    hoverinfo: 'skip',
+  };
+}
+
+/**
+ * One-standard-deviation bars across x at each (x, y), drawn without a marker at their centre (mode 'none'):
+ * Plotly styles every marker on each redraw, which made the markers most of the time a pick edit took to
+ * show here. `width` is the length of the bars' end caps in pixels.
+ */
+function sdBars(
+  name: string,
+  x: number[],
+  y: number[],
+  sd: number[],
+  o: { color: string; width: number; xaxis?: string; visible?: boolean },
+): PlotData {
+  return {
+    type: 'scatter',
+    mode: 'none',
+    name,
+    x,
+    y,
+    ...(o.xaxis ? { xaxis: o.xaxis } : {}),
+    ...(o.visible !== undefined ? { visible: o.visible } : {}),
+    error_x: { type: 'data', array: sd, color: o.color, thickness: 1, width: o.width },
+    hoverinfo: 'skip',
+  };
+}
+
 export function ProfilePlot() {
   const d = useDerived();
   const units = useUnits();
@@ -85,112 +130,37 @@ export function ProfilePlot() {
     const g = stepLine(rows, (r) => r.gmaxKpa, units, 'modulus');
     const vs1 = stepLine(rows, (r) => r.vs1Mps, units, 'velocity');
     const withVp = rows.filter((r) => r.vpMps !== null && Number.isFinite(r.vpMps));
-    // The one-sigma bars are drawn without a marker at their centre (mode 'none'): Plotly styles every
-    // marker on each redraw, which made the markers most of the time a pick edit took to show here.
     const out: PlotData[] = [
-      {
-        type: 'scatter',
-        mode: 'lines',
-        name: 'Vs',
-        x: vs.x,
-        y: vs.y,
-        line: { color: COLOURS.S, width: 2 },
-        hoverinfo: 'skip',
-      },
-      {
-        type: 'scatter',
-        mode: 'none',
-        name: 'Vs ± 1 sd',
-        x: rows.map((r) => disp('velocity', units, r.vsMps)),
-        y: mid,
-        error_x: {
-          type: 'data',
-          array: rows.map((r) => disp('velocity', units, r.vsSdMps)),
-          color: COLOURS.S,
-          thickness: 1,
-          width: 3,
-        },
-        hoverinfo: 'skip',
-      },
-      {
-        type: 'scatter',
-        mode: 'lines',
-        name: 'Vp',
-        x: vp.x,
-        y: vp.y,
-        xaxis: 'x4',
-        visible: showVp,
-        line: { color: COLOURS.P, width: 1.6, dash: 'dash' },
-        hoverinfo: 'skip',
-      },
-      {
-        type: 'scatter',
-        mode: 'none',
-        name: 'Vp ± 1 sd',
-        xaxis: 'x4',
-        visible: showVp,
-        x: withVp.map((r) => disp('velocity', units, r.vpMps!)),
-        y: withVp.map((r) => disp('depth', units, r.midM)),
-        error_x: {
-          type: 'data',
-          array: withVp.map((r) =>
-            r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0,
-          ),
-          color: COLOURS.P,
-          thickness: 1,
-          width: 3,
-        },
-        hoverinfo: 'skip',
-      },
-      {
-        type: 'scatter',
-        mode: 'lines',
-        name: 'Gmax',
-        x: g.x,
-        y: g.y,
-        xaxis: 'x2',
-        line: { color: COLOURS.ink, width: 1.6 },
-        hoverinfo: 'skip',
-      },
-      {
-        type: 'scatter',
-        mode: 'none',
-        name: 'Gmax ± 1 sd',
-        x: rows.map((r) => disp('modulus', units, r.gmaxKpa)),
-        y: mid,
-        xaxis: 'x2',
-        error_x: {
-          type: 'data',
-          array: rows.map((r) => disp('modulus', units, r.gmaxSdKpa)),
-          color: COLOURS.ink,
-          thickness: 1,
-          width: 2,
-        },
-        hoverinfo: 'skip',
-      },
-      {
-        type: 'scatter',
-        mode: 'lines',
-        name: 'Vs1',
-        x: vs1.x,
-        y: vs1.y,
-        xaxis: 'x3',
-        line: { color: '#52606d', width: 1.6 },
-        hoverinfo: 'skip',
-      },
+      stepTrace('Vs', vs, { color: COLOURS.S, width: 2 }),
+      sdBars(
+        'Vs ± 1 sd',
+        rows.map((r) => disp('velocity', units, r.vsMps)),
+        mid,
+        rows.map((r) => disp('velocity', units, r.vsSdMps)),
+        { color: COLOURS.S, width: 3 },
+      ),
+      stepTrace('Vp', vp, { color: COLOURS.P, width: 1.6, dash: 'dash' }, { xaxis: 'x4', visible: showVp }),
+      sdBars(
+        'Vp ± 1 sd',
+        withVp.map((r) => disp('velocity', units, r.vpMps!)),
+        withVp.map((r) => disp('depth', units, r.midM)),
+        withVp.map((r) => (r.vpSdMps !== null && Number.isFinite(r.vpSdMps) ? disp('velocity', units, r.vpSdMps) : 0)),
+        { color: COLOURS.P, width: 3, xaxis: 'x4', visible: showVp },
+      ),
+      stepTrace('Gmax', g, { color: COLOURS.ink, width: 1.6 }, { xaxis: 'x2' }),
+      sdBars(
+        'Gmax ± 1 sd',
+        rows.map((r) => disp('modulus', units, r.gmaxKpa)),
+        mid,
+        rows.map((r) => disp('modulus', units, r.gmaxSdKpa)),
+        { color: COLOURS.ink, width: 2, xaxis: 'x2' },
+      ),
+      stepTrace('Vs1', vs1, { color: '#52606d', width: 1.6 }, { xaxis: 'x3' }),
     ];
     if (comparison) {
       const bottomM = rows.length ? rows[rows.length - 1].bottomM : 30;
       const c = comparisonSteps(comparison, bottomM, units);
-      out.push({
-        type: 'scatter',
-        mode: 'lines',
-        name: `compared: ${comparison.name}`,
-        x: c.x,
-        y: c.y,
-        line: { color: COLOURS.compare, width: 1.6, dash: 'dash' },
-        hoverinfo: 'skip',
-      });
+      out.push(stepTrace(`compared: ${comparison.name}`, c, { color: COLOURS.compare, width: 1.6, dash: 'dash' }));
     }
     return out;
   }, [rows, units, comparison, showVp]);

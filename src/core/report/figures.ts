@@ -4,7 +4,7 @@
  * can stand alone as an SVG file or a PNG. Values are drawn in the report's unit system.
  */
 import { toDisplay, unitSpec, type UnitSystem } from '../units';
-import type { ReportData, ReportTrace, ReportWave } from './data';
+import type { ReportData, ReportProfileRow, ReportTrace, ReportWave } from './data';
 import { reportedText } from './digits';
 import {
   axes,
@@ -59,6 +59,19 @@ function subline(d: ReportData): string {
 
 const swatchMarker = (kind: MarkerKind, wave: ReportWave, alt = false) =>
   `<g>${marker(kind, wave, 22, 12, 8, alt)}</g>`;
+
+/** The figure record around its drawn parts (the SVG root carries the id and the title). */
+function figureOf(f: Omit<Figure, 'svg'> & { parts: readonly string[] }): Figure {
+  return {
+    id: f.id,
+    name: f.name,
+    title: f.title,
+    caption: f.caption,
+    svg: figureRoot(f.id, f.width, f.height, f.parts.join(''), f.title),
+    width: f.width,
+    height: f.height,
+  };
+}
 
 // ------------------------------------------------------------------ trace board
 
@@ -225,15 +238,7 @@ export function traceBoardFigure(d: ReportData): Figure {
     `of each: a tick across the trace at the pick time and its symbol above it. ` +
     (thinned > 1 ? `Every ${thinned}th depth is drawn (and the deepest); the tables list them all. ` : '') +
     `Traces are drawn from their lowest and highest sample per time column (min-max decimation), so peaks are kept.`;
-  return {
-    id: 'trace-board',
-    name: 'trace-board',
-    title,
-    caption,
-    svg: figureRoot('trace-board', W, H, parts.join(''), title),
-    width: W,
-    height: H,
-  };
+  return figureOf({ id: 'trace-board', name: 'trace-board', title, caption, width: W, height: H, parts });
 }
 
 // ------------------------------------------------------------------ travel time
@@ -316,15 +321,7 @@ export function travelTimeFigure(d: ReportData): Figure {
     (fits.length
       ? 'Lines: straight-line fits of time against source-receiver distance within each layer, labelled with the layer velocity.'
       : 'No layer fits for this test kind (crosshole intervals are measured between holes at each depth).');
-  return {
-    id: 'travel-time',
-    name: 'travel-time',
-    title,
-    caption,
-    svg: figureRoot('travel-time', W, H, parts.join(''), title),
-    width: W,
-    height: H,
-  };
+  return figureOf({ id: 'travel-time', name: 'travel-time', title, caption, width: W, height: H, parts });
 }
 
 // ------------------------------------------------------------------ profile
@@ -350,6 +347,20 @@ function steps(
     prevBottom = r.bottomM;
   }
   return path;
+}
+
+/** A profile column drawn as a stepped line (one step per interval, a gap where the value is missing). */
+function profileLine(
+  p: Panel,
+  d: ReportData,
+  value: (r: ReportProfileRow) => number | null,
+  toX: (v: number) => number,
+  stroke: string,
+  dash = '',
+): string {
+  const rows = d.profile.map((r) => ({ topM: r.topM, bottomM: r.bottomM, v: value(r) }));
+  const dashed = dash ? ` stroke-dasharray="${dash}"` : '';
+  return `<path d="${steps(p, rows, d.title.units, toX)}" fill="none" stroke="${stroke}" stroke-width="4"${dashed}/>`;
 }
 
 function waterLine(p: Panel, d: ReportData): string {
@@ -399,23 +410,8 @@ export function profileFigure(d: ReportData): Figure {
   const parts: string[] = [heading('Vs and Vp profile', subline(d)), leg.svg, `<defs>${clipFor('pf', p)}</defs>`];
   parts.push(axes(p, `Velocity (${vel})`, `Depth (${dep})`));
   const inner: string[] = [waterLine(p, d)];
-  inner.push(
-    `<path d="${steps(
-      p,
-      d.profile.map((r) => ({ topM: r.topM, bottomM: r.bottomM, v: r.vsMps })),
-      units,
-      v,
-    )}" fill="none" stroke="${COLOURS.S}" stroke-width="4"/>`,
-  );
-  if (hasVp)
-    inner.push(
-      `<path d="${steps(
-        p,
-        d.profile.map((r) => ({ topM: r.topM, bottomM: r.bottomM, v: r.vpMps })),
-        units,
-        v,
-      )}" fill="none" stroke="${COLOURS.P}" stroke-width="4" stroke-dasharray="12 7"/>`,
-    );
+  inner.push(profileLine(p, d, (r) => r.vsMps, v, COLOURS.S));
+  if (hasVp) inner.push(profileLine(p, d, (r) => r.vpMps, v, COLOURS.P, '12 7'));
   for (const r of d.profile) {
     const y = sy(p, toDisplay('depth', units, (r.topM + r.bottomM) / 2));
     inner.push(errorBar(sx(p, v(r.vsMps - r.vsSdMps)), sx(p, v(r.vsMps + r.vsSdMps)), y, COLOURS.S));
@@ -427,15 +423,7 @@ export function profileFigure(d: ReportData): Figure {
   const caption =
     'Interval velocities used in the profile (one step per interval), with one-standard-deviation bars at mid-interval.' +
     (hasVp ? ' Vp is drawn where it was measured and not flagged doubtful.' : '');
-  return {
-    id: 'profile',
-    name: 'profile',
-    title,
-    caption,
-    svg: figureRoot('profile', W, H, parts.join(''), title),
-    width: W,
-    height: H,
-  };
+  return figureOf({ id: 'profile', name: 'profile', title, caption, width: W, height: H, parts });
 }
 
 // ------------------------------------------------------------------ Gmax and Vs1
@@ -477,41 +465,18 @@ export function stiffnessFigure(d: ReportData): Figure {
   parts.push(axes(pg, `Gmax (${mod})`, `Depth (${dep})`));
   parts.push(axes(pv, `Vs1 (${vel})`, '', { yTicks: true }));
   const gi: string[] = [waterLine(pg, d)];
-  gi.push(
-    `<path d="${steps(
-      pg,
-      d.profile.map((r) => ({ topM: r.topM, bottomM: r.bottomM, v: r.gmaxKpa })),
-      units,
-      g,
-    )}" fill="none" stroke="${COLOURS.S}" stroke-width="4"/>`,
-  );
+  gi.push(profileLine(pg, d, (r) => r.gmaxKpa, g, COLOURS.S));
   for (const r of d.profile) {
     const y = sy(pg, toDisplay('depth', units, (r.topM + r.bottomM) / 2));
     gi.push(errorBar(sx(pg, g(r.gmaxKpa - r.gmaxSdKpa)), sx(pg, g(r.gmaxKpa + r.gmaxSdKpa)), y, COLOURS.S));
   }
-  const vi: string[] = [waterLine(pv, d)];
-  vi.push(
-    `<path d="${steps(
-      pv,
-      d.profile.map((r) => ({ topM: r.topM, bottomM: r.bottomM, v: r.vs1Mps })),
-      units,
-      v,
-    )}" fill="none" stroke="${COLOURS.rim}" stroke-width="4" stroke-dasharray="3 5"/>`,
-  );
+  const vi: string[] = [waterLine(pv, d), profileLine(pv, d, (r) => r.vs1Mps, v, COLOURS.rim, '3 5')];
   parts.push(`<g clip-path="url(#gm)">${gi.join('')}</g><g clip-path="url(#v1)">${vi.join('')}</g>`);
   const title = 'Gmax and Vs1';
   const caption =
     'Left: small-strain shear modulus from the interval Vs and the soil column’s density, with the bar from the Vs uncertainty only. ' +
     'Right: stress-normalised shear-wave velocity with each layer’s exponent n.';
-  return {
-    id: 'stiffness',
-    name: 'gmax-vs1',
-    title,
-    caption,
-    svg: figureRoot('stiffness', W, H, parts.join(''), title),
-    width: W,
-    height: H,
-  };
+  return figureOf({ id: 'stiffness', name: 'gmax-vs1', title, caption, width: W, height: H, parts });
 }
 
 /** Every report figure, in report order. */
