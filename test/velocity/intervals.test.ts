@@ -5,7 +5,7 @@
  * excluded intervals. Paths 10 m and 20 m; dt 50 ms gives 200 m/s exactly.
  */
 import { describe, expect, it } from 'vitest';
-import { intervalValues, type StationPair } from '../../src/core/velocity/intervals';
+import { crossCheckSdS, intervalValues, type StationPair } from '../../src/core/velocity/intervals';
 import { defaultSettings, emptyEdits, patchSettings } from '../../src/core/settings';
 import { intervalKey, stationKey, type IntervalKey, type StationKey } from '../../src/core/keys';
 import type { PairDelay, Pick, PickMethod } from '../../src/core/model';
@@ -96,5 +96,20 @@ describe('interval values', () => {
     const row = run([], [delay(K, 'xcorr', -0.001)]).find((r) => r.method === 'xcorr')!;
     expect(row.velocityMps).toBeNull();
     expect(row.flags).toContain('non-positive delay');
+  });
+  it('cross-check against the correlation delay: a zero crossing one period (10 ms) late at one station', () => {
+    // hand-worked: dt 60 ms against a 50 ms delay, sds 0.1414 ms (two picks of 0.1 ms) and 0.1 ms:
+    // excess sqrt(10^2 - 0.1414^2 - 0.1^2) ms = 9.9985 ms; agreeing times give 0
+    expect(crossCheckSdS(0.06, Math.hypot(1e-4, 1e-4), 0.05, 1e-4)).toBeCloseTo(0.0099985, 6);
+    expect(crossCheckSdS(0.0501, 2e-4, 0.05, 1e-4)).toBe(0);
+    expect(crossCheckSdS(0.06, 1e-4, Number.NaN, 1e-4)).toBe(0);
+    const skipped = [pick(A, 'zero-crossing', 0.12), pick(B, 'zero-crossing', 0.18)];
+    const rows = run(skipped, [delay(K, 'xcorr', 0.05)]);
+    const zc = rows.find((r) => r.method === 'zero-crossing')!;
+    // 10 m / 60 ms = 166.7 m/s against 200 m/s by correlation: the sd (after the kind's scale, 0.5-1) takes a large part of the 33 m/s gap
+    expect(zc.velocityMps).toBeCloseTo(166.67, 1);
+    expect(zc.velocitySdMps!).toBeGreaterThan(0.4 * (200 - 166.67));
+    const agreeing = run([pick(A, 'zero-crossing', 0.12), pick(B, 'zero-crossing', 0.17)], [delay(K, 'xcorr', 0.05)]);
+    expect(agreeing.find((r) => r.method === 'zero-crossing')!.velocitySdMps!).toBeLessThan(2);
   });
 });

@@ -165,6 +165,19 @@ export function widenFlaggedSd(chosen: IntervalValue, rows: readonly IntervalVal
   }
 }
 
+/**
+ * The cross-check of a pick method's interval time against the correlation delay of the same pair, s:
+ * both see the same two traces (the same trigger offsets), so a difference beyond what both sds explain
+ * is an error of one of them, most often a pick on the wrong cycle of the pulse (a first trough or zero
+ * crossing one period late at one station). The pick method's sd takes that excess (a method-of-moments
+ * estimate of its error, as in velocity/layering.ts blendIntervals), so a skipped cycle cannot keep a
+ * pick's narrow sd. 0 when they agree or there is no delay.
+ */
+export function crossCheckSdS(dtS: number, dtSdS: number, delayS: number, delaySdS: number): number {
+  if (!Number.isFinite(delayS) || !(delayS > 0)) return 0;
+  return Math.sqrt(Math.max(0, (dtS - delayS) ** 2 - dtSdS ** 2 - delaySdS ** 2));
+}
+
 /** Every interval by every method, with the chosen one marked and flags set. */
 export function intervalValues(inp: IntervalInputs): IntervalValue[] {
   const out: IntervalValue[] = [];
@@ -186,7 +199,15 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
     const rows: IntervalValue[] = [];
     const range = pair.wave === 'S' ? settings.picking.vsRangeMps : settings.picking.vpRangeMps;
     const stationFlags: IntervalFlag[] = [...new Set([...pair.a.flags, ...pair.b.flags])];
-    const finish = (method: IntervalMethod, dtS: number | null, dtSdS: number, extraFlags: IntervalFlag[]) => {
+    // the same pair's correlation delay: the cross-check of the pick methods (crossCheckSdS)
+    const xcorr = (inp.delaysByPair.get(pair.key) ?? []).find((x) => x.method === 'xcorr') ?? null;
+    const finish = (
+      method: IntervalMethod,
+      dtS: number | null,
+      dtSdS: number,
+      extraFlags: IntervalFlag[],
+      crossCheck = false,
+    ) => {
       const flags: IntervalFlag[] = [...new Set([...stationFlags, ...extraFlags])];
       let v: number | null = null;
       let sd: number | null = null;
@@ -197,7 +218,10 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
           v = intervalVelocityMps(pair.a.straightPathM, pair.b.straightPathM, dtS);
           if (v !== null) {
             // error model (velocity/errorModel.ts): trigger offsets, a floor, the straight-path model; then the kind's scale
-            const timeSdS = intervalTimeSdS(dtSdS, pair.kind, pair.a, pair.b, settings.intervals.triggerOffsetSdS);
+            const timeSdS = Math.hypot(
+              intervalTimeSdS(dtSdS, pair.kind, pair.a, pair.b, settings.intervals.triggerOffsetSdS),
+              crossCheck && xcorr ? crossCheckSdS(dtS, dtSdS, xcorr.delayS, xcorr.uncertaintyS) : 0,
+            );
             sd = Math.hypot(
               intervalVelocitySdMps(v, dL, pathSdM, dtS, timeSdS),
               v * pathModelShare(pair.kind, pair.a, pair.b),
@@ -221,7 +245,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       }
       const flags: IntervalFlag[] = [...new Set([...a.flags, ...b.flags])].filter((f) => f !== 'edited');
       if (a.origin === 'edited' || b.origin === 'edited') flags.push('edited');
-      finish(m, b.timeS - a.timeS, Math.hypot(a.uncertaintyS, b.uncertaintyS), flags);
+      finish(m, b.timeS - a.timeS, Math.hypot(a.uncertaintyS, b.uncertaintyS), flags, true);
     }
     for (const m of DELAY_METHODS) {
       const d = (inp.delaysByPair.get(pair.key) ?? []).find((x) => x.method === m);
