@@ -675,6 +675,24 @@ function tailFactor(runs: SurveyRun[], m: string): number | null {
   return z.length ? Math.round(quantile(z, 0.95) * 100) / 100 : null;
 }
 
+/** The 95% point of |error| / sd rounded up to 2 decimals (null without sds): the entry of TAIL_K95. */
+function tailFactorUp(runs: SurveyRun[], m: string): number | null {
+  const z = rowsOf(runs, m).flatMap((r) => (r.sdMps && r.sdMps > 0 ? [Math.abs(r.errorMps) / r.sdMps] : []));
+  return z.length ? Math.ceil(quantile(z, 0.95) * 100 - 1e-9) / 100 : null;
+}
+
+/** TAIL_K95 as TypeScript, ready to paste into src/core/velocity/sdCalibration.ts. */
+export function k95TableSource(table: Record<string, Record<string, number>>): string {
+  const key = (x: string) => (/^[a-z]+$/i.test(x) ? x : `'${x}'`);
+  const lines = Object.entries(table).map(
+    ([kind, row]) =>
+      `  ${key(kind)}: { ${Object.entries(row)
+        .map(([m, v]) => `${key(m)}: ${v}`)
+        .join(', ')} },`,
+  );
+  return `export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, number>>>> = {\n${lines.join('\n')}\n};`;
+}
+
 function withinOf(runs: SurveyRun[], m: string, k: number): number | null {
   const w = withinShare(rowsOf(runs, m), k);
   return w === null ? null : Math.round(w * 1000) / 1000;
@@ -704,6 +722,12 @@ export interface BankReport {
   >;
   /** The sd scale the training intervals ask for (full scale; the app's is in velocity/sdCalibration.ts). */
   sdScale: Record<string, Record<string, number>>;
+  /**
+   * TAIL_K95 for src/core/velocity/sdCalibration.ts: per app test kind and method, the training k95
+   * rounded UP to 2 decimals (the range then covers at least the training share). Measured with the app's
+   * sd as it is, so it must be measured again after any change to SD_SCALE or the error model.
+   */
+  k95Table: Record<string, Record<string, number>>;
   /** Default method per kind: lowest median + P90/2 on training seeds. */
   defaultMethod: Record<string, string>;
   layerModelFailures: Record<string, string[]>;
@@ -717,6 +741,7 @@ export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
     table: {},
     calibration: {},
     sdScale: {},
+    k95Table: {},
     defaultMethod: {},
     layerModelFailures: {},
     qRecovery: {},
@@ -737,6 +762,7 @@ export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
     rep.sdScale[k] = scales;
     rep.table[k] = {};
     rep.calibration[k] = {};
+    rep.k95Table[TEST_KIND[k]] = {};
     for (const m of Object.keys(ft)) {
       if (!fh[m]) continue;
       rep.table[k][m] = { training: ft[m], heldOut: fh[m] };
@@ -748,6 +774,8 @@ export function bankReport(count: number, kinds = BANK_KINDS): BankReport {
         k95,
         withinK95: k95 === null ? null : withinOf(held, m, k95),
       };
+      const k95Up = tailFactorUp(train, m);
+      if (k95Up !== null && m in METHOD_IDS) rep.k95Table[TEST_KIND[k]][m] = k95Up;
     }
     const score = (f: MethodFigures) => f.medianErrPct + f.p90ErrPct / 2;
     rep.defaultMethod[k] = Object.entries(ft)
@@ -779,4 +807,8 @@ export function printBank(rep: BankReport, log: (s: string) => void): void {
         `    field Q per ${sc.padEnd(8)} |Q error| median / P90 %: training ${r.training.medianErrPct ?? '-'} / ${r.training.p90ErrPct ?? '-'} (${r.training.made}/${r.training.n})   held-out ${r.heldOut.medianErrPct ?? '-'} / ${r.heldOut.p90ErrPct ?? '-'} (${r.heldOut.made}/${r.heldOut.n})`,
       );
   }
+  log(
+    '\n  TAIL_K95 (training k95 rounded up; paste into src/core/velocity/sdCalibration.ts after the final SD_SCALE):',
+  );
+  log(k95TableSource(rep.k95Table));
 }

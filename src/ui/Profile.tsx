@@ -276,6 +276,8 @@ interface RowProps {
   compare: { other: string; diff: string } | null;
   showCompare: boolean;
   flags: string;
+  /** The used value's 95% range as text ('low–high'), '–' without an sd. */
+  range95: string;
 }
 
 const IntervalRow = memo(
@@ -301,6 +303,9 @@ const IntervalRow = memo(
         )}
         <td className="flags" title={p.flags}>
           {p.flags}
+        </td>
+        <td data-col="range95" className="range95">
+          {p.range95}
         </td>
         {p.cells.map((c) => (
           <td key={c.method} className={c.chosen ? 'chosen' : ''} data-method={c.method}>
@@ -389,6 +394,11 @@ export function IntervalsTable() {
         const top = fmt('depth', units, g.topM);
         const bottom = fmt('depth', units, g.bottomM);
         const stationB = g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null;
+        const c = g.chosen;
+        const range95 =
+          c && c.low95Mps !== null && c.high95Mps !== null
+            ? `${fmt('velocity', units, c.low95Mps)}–${fmt('velocity', units, c.high95Mps)}`
+            : '–';
         const sig = JSON.stringify([
           top,
           bottom,
@@ -402,6 +412,7 @@ export function IntervalsTable() {
           compare,
           showCompare,
           flagText,
+          range95,
         ]);
         return {
           sig,
@@ -418,6 +429,7 @@ export function IntervalsTable() {
           compare,
           showCompare,
           flags: flagText,
+          range95,
         };
       }),
     [list, methods, edits.chosenMethod, edits.excludedIntervals, units, cmp, showCompare, profileMethod, dep],
@@ -463,6 +475,12 @@ export function IntervalsTable() {
               )}
               {/* Flags before the method columns so they stay in view in the narrow Profile pane. */}
               <th className="text">Flags</th>
+              <th
+                className="range95"
+                title="95% range of the value in the profile: V ∓ k95 × sd, k95 per test kind and method from the bench's training intervals (heavier-tailed than a Gaussian; docs/true-vs.md)"
+              >
+                95% ({v})
+              </th>
               {methods.map((m) => (
                 <th key={m} title={methodInfo(m).label}>
                   {methodInfo(m).shortLabel} ({v})

@@ -159,6 +159,7 @@ function intervalRows(derived: Derived, settings: Settings): ReportInterval[] {
       dtS: used.dtS,
       velocityMps: used.velocityMps,
       velocitySdMps: used.velocitySdMps,
+      range95Mps: used.low95Mps !== null && used.high95Mps !== null ? [used.low95Mps, used.high95Mps] : null,
       otherMethodsMps: others.length ? [Math.min(...others), Math.max(...others)] : null,
       flags: chosen ? [...used.flags] : [...used.flags, 'left out of the profile'],
     });

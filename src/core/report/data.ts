@@ -75,6 +75,8 @@ export interface ReportInterval {
   dtS: number | null;
   velocityMps: number | null;
   velocitySdMps: number | null;
+  /** The 95% range of the velocity, m/s: velocity -+ k95 sd (null without an sd; docs/true-vs.md). */
+  range95Mps: [number, number] | null;
   /** Lowest and highest value of the other methods, m/s (null when none gave one). */
   otherMethodsMps: [number, number] | null;
   flags: string[];

@@ -228,6 +228,9 @@ export function reportHtml(d: ReportData, options: ReportOptions = {}): string {
     reportedText('time', r.dtS, u),
     reportedText('velocity', r.velocityMps, u),
     reportedText('velocitySd', r.velocitySdMps, u),
+    r.range95Mps
+      ? `${reportedText('velocity', r.range95Mps[0], u)}–${reportedText('velocity', r.range95Mps[1], u)}`
+      : '–',
     r.otherMethodsMps
       ? `${reportedText('velocity', r.otherMethodsMps[0], u)}–${reportedText('velocity', r.otherMethodsMps[1], u)}`
       : '–',
@@ -273,7 +276,7 @@ export function reportHtml(d: ReportData, options: ReportOptions = {}): string {
       'small',
     ),
     `</section><section><h2>Intervals: the value used, its method and flags</h2>`,
-    `<p class="muted">One row per interval and wave; “other methods” gives the lowest and highest velocity of the other methods for the same interval.</p>`,
+    `<p class="muted">One row per interval and wave; “±” is one standard deviation; “95% range” is V ∓ k95 × sd, the interval within which 95% of the bench’s training intervals’ true velocity fell (k95 per test kind and method; the errors are heavier-tailed than a Gaussian); “other methods” gives the lowest and highest velocity of the other methods for the same interval.</p>`,
     table(
       [
         { text: `Top (${dep})`, num: true },
@@ -283,6 +286,7 @@ export function reportHtml(d: ReportData, options: ReportOptions = {}): string {
         { text: 'Δt (ms)', num: true },
         { text: `V (${vel})`, num: true },
         { text: `± (${vel})`, num: true },
+        { text: `95% range (${vel})`, num: true },
         { text: `Other methods (${vel})`, num: true },
         { text: 'Flags' },
       ],

@@ -179,6 +179,9 @@ export function profileTable(d: Derived, system: UnitSystem = 'SI'): Table {
     ['method', (r) => r.method],
     [u.name('vs', 'velocity'), (r) => u.value('velocity', r.vsMps)],
     [u.name('vs_sd', 'velocity'), (r) => u.value('velocitySd', r.vsSdMps)],
+    // The 95% range of Vs: vs -+ k95 x vs_sd, k95 per test kind and method from the bench (docs/true-vs.md)
+    [u.name('vs_low95', 'velocity'), (r) => u.value('velocity', r.vsLow95Mps)],
+    [u.name('vs_high95', 'velocity'), (r) => u.value('velocity', r.vsHigh95Mps)],
     [u.name('vp', 'velocity'), (r) => u.value('velocity', r.vpMps)],
     [u.name('vp_sd', 'velocity'), (r) => u.value('velocitySd', r.vpSdMps)],
     ['vp_method', (r) => r.vpMethod ?? ''],
@@ -310,6 +313,16 @@ export function siteJson(d: Derived, settings: Settings): Record<string, unknown
       message: p.message,
       count: p.count,
       blocking: p.blocking,
+    })),
+    // The profile's intervals: Vs, its sd and its 95% range (Vs -+ k95 sd; docs/true-vs.md "The 95% range").
+    intervals: (d.profile ?? []).map((r) => ({
+      topM: reported('distance', r.topM),
+      bottomM: reported('distance', r.bottomM),
+      method: r.method,
+      vsMps: reported('velocity', r.vsMps),
+      vsSdMps: reported('velocitySd', r.vsSdMps),
+      vsLow95Mps: reported('velocity', r.vsLow95Mps),
+      vsHigh95Mps: reported('velocity', r.vsHigh95Mps),
     })),
     bridgedIntervals: (d.site.bridged ?? []).map((b) => ({
       topM: num(b.topM, 3),

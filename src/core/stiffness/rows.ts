@@ -17,6 +17,9 @@ export interface ProfileRow extends StiffnessRow {
   method: IntervalMethod;
   vpMethod: IntervalMethod | null;
   vpSdMps: number | null;
+  /** The 95% range of Vs, m/s (the chosen S interval's low95Mps / high95Mps; null without an sd). */
+  vsLow95Mps: number | null;
+  vsHigh95Mps: number | null;
 }
 
 export function profileRows(
@@ -71,6 +74,8 @@ export function profileRows(
       method: s.method,
       vpMethod: vpUsed ? (p?.method ?? null) : null,
       vpSdMps: velocity[i].vpSdMps,
+      vsLow95Mps: s.low95Mps,
+      vsHigh95Mps: s.high95Mps,
     };
   });
   return { rows, velocity, soil: usedSoil };

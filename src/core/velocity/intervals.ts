@@ -26,7 +26,7 @@ import {
 } from '../catalogue/methods';
 import { intervalVelocityMps, intervalVelocitySdMps } from './formulas';
 import { intervalTimeSdS, pathModelShare } from './errorModel';
-import { sdScale } from './sdCalibration';
+import { range95Mps, sdScale, tailFactor95 } from './sdCalibration';
 
 export type IntervalKind = 'pseudo' | 'true' | 'crosshole';
 
@@ -56,6 +56,12 @@ export interface IntervalValue {
   dtS: number | null;
   velocityMps: number | null;
   velocitySdMps: number | null;
+  /**
+   * The 95% range of the velocity, m/s: velocity -+ k95 x sd (velocity/sdCalibration.ts tailFactor95 for
+   * the test kind and method; low end floored at 0); null without an sd. Set once the sd is final.
+   */
+  low95Mps: number | null;
+  high95Mps: number | null;
   chosen: boolean;
   flags: IntervalFlag[];
 }
@@ -178,6 +184,13 @@ export function crossCheckSdS(dtS: number, dtSdS: number, delayS: number, delayS
   return Math.sqrt(Math.max(0, (dtS - delayS) ** 2 - dtSdS ** 2 - delaySdS ** 2));
 }
 
+/** An interval's 95% range from its final sd (after any widening): velocity -+ k95 x sd for its kind and method. */
+export function setRange95(r: IntervalValue, kind: TestKind): void {
+  const range = range95Mps(r.velocityMps, r.velocitySdMps, tailFactor95(kind, r.method));
+  r.low95Mps = range?.lowMps ?? null;
+  r.high95Mps = range?.highMps ?? null;
+}
+
 /** Every interval by every method, with the chosen one marked and flags set. */
 export function intervalValues(inp: IntervalInputs): IntervalValue[] {
   const out: IntervalValue[] = [];
@@ -232,7 +245,17 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
           }
         }
       }
-      rows.push({ ...base, method, dtS, velocityMps: v, velocitySdMps: sd, chosen: false, flags });
+      rows.push({
+        ...base,
+        method,
+        dtS,
+        velocityMps: v,
+        velocitySdMps: sd,
+        low95Mps: null,
+        high95Mps: null,
+        chosen: false,
+        flags,
+      });
     };
     const pa = inp.picksByStation.get(pair.a.key) ?? [];
     const pb = inp.picksByStation.get(pair.b.key) ?? [];
@@ -271,6 +294,8 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
         dtS: null,
         velocityMps: rf.velocityMps,
         velocitySdMps: rf.sdMps * sdScale(inp.kind ?? 'downhole', method),
+        low95Mps: null,
+        high95Mps: null,
         chosen: false,
         flags: [...stationFlags, ...flags],
       });
@@ -301,6 +326,7 @@ export function intervalValues(inp: IntervalInputs): IntervalValue[] {
       }
       widenFlaggedSd(chosen, rows);
     }
+    for (const r of rows) setRange95(r, inp.kind ?? 'downhole');
     out.push(...rows);
   }
   return out;
