@@ -52,7 +52,7 @@ describe('coverage of stated sds', () => {
   });
 });
 
-describe('the tuning rule (half the 95% quantile of |error| / sd, kept between its 62% and 75% quantiles, never below half its 90% quantile)', () => {
+describe('the tuning rule (half the 95% quantile of |error| / sd, kept between its 65% and 75% quantiles, never below half its 90% quantile)', () => {
   it('Gaussian errors twice the stated sd ask for a scale of 1.96 (the normal 97.5% point) and then cover 67.3% / 95.0%', () => {
     const rows = gaussianRows(2, 1, 11);
     const s = calibrationScale(rows.map((r) => Math.abs(r.errorMps) / r.sdMps))!;
