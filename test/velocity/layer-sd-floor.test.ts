@@ -5,8 +5,7 @@
  * quadrature (independent errors add in variance: any statistics text).
  */
 import { describe, expect, it } from 'vitest';
-import { layerVelocitySdFloorShare } from '../../src/core/velocity/layerMethod';
-import { withLayerFloor } from '../../src/core/velocity/layers';
+import { layerVelocitySdFloorShare, withLayerFloor } from '../../src/core/velocity/layerMethod';
 import { sdScale } from '../../src/core/velocity/sdCalibration';
 
 describe('layer velocity sd floor', () => {

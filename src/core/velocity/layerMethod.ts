@@ -64,6 +64,11 @@ const MODEL_SD_SHARE: Partial<Record<TestKind, number>> = {
 export function layerVelocitySdFloorShare(kind: TestKind): number {
   return (MODEL_SD_SHARE[kind] ?? 0.06) * sdScale(kind, 'layer-model');
 }
+
+/** A layer fit's sd with the systematic floor added in quadrature (layerVelocitySdFloorShare). */
+export function withLayerFloor(fitSdMps: number, velocityMps: number, kind: TestKind): number {
+  return Math.hypot(fitSdMps, layerVelocitySdFloorShare(kind) * velocityMps);
+}
 /**
  * Multiplier of a fitted boundary's position sd (gap / sqrt 12): the gap itself is a choice of the
  * segmentation and may be the neighbouring one. Tuned on training seeds (1, 2, 3.5; bench/diagnose.ts). The
@@ -222,5 +227,11 @@ export function layerMethod(
     const path = PATH_SHARE * pathModelShare(p.kind, p.a, p.b);
     byPair.set(p.key, { velocityMps: v, sdMps: Math.hypot(blend[i].layerWithModelSdMps, v * v * local, v * path) });
   });
-  return { fit: r.fit, reason: null, byPair };
+  // the layers' own Vs sd (shown per layer and exported) takes the same systematic floor as the
+  // straight-line and refracted-ray layer fits: the fit's covariance alone says 115 +- 0.3 m/s
+  const fit: LayeredFit = {
+    ...r.fit,
+    layers: r.fit.layers.map((l) => ({ ...l, vsSdMps: withLayerFloor(l.vsSdMps, l.vsMps, kind) })),
+  };
+  return { fit, reason: null, byPair };
 }

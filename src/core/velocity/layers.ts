@@ -20,7 +20,7 @@ import { fitLine } from './formulas';
 import { fitLayerModel, fitLayersWithRays, type LayerModelFit, type RayFitResult } from './rayfit';
 import type { StationPair } from './intervals';
 import { intervalTimeSdS } from './errorModel';
-import { layerVelocitySdFloorShare } from './layerMethod';
+import { withLayerFloor } from './layerMethod';
 import type { TravelTimeRow } from './direct';
 
 export interface LayerFit {
@@ -86,11 +86,6 @@ export function layerModelFor(
       velocitySdMps: l.velocitySdMps === null ? null : withLayerFloor(l.velocitySdMps, l.velocityMps, survey.kind),
     })),
   };
-}
-
-/** A layer fit's sd with the systematic floor added in quadrature (layerMethod.ts layerVelocitySdFloorShare). */
-export function withLayerFloor(fitSdMps: number, velocityMps: number, kind: Survey['kind']): number {
-  return Math.hypot(fitSdMps, layerVelocitySdFloorShare(kind) * velocityMps);
 }
 
 /** Travel time against path length, fitted per layer (user boundaries, else the soil layers). */
