@@ -7,6 +7,9 @@ const port = Number(process.env.E2E_PORT || 4173);
 export default defineConfig({
   testDir: 'e2e',
   timeout: 90_000,
+  // a loaded machine (several checkouts testing at once) reads and parses dropped files in more than the
+  // default 5 s; a condition that never comes still fails, 20 s later
+  expect: { timeout: 20_000 },
   workers: 1,
   retries: 0,
   reporter: [['list'], ['json', { outputFile: 'reports/e2e.json' }]],
