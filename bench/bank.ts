@@ -24,9 +24,10 @@ import { layerIndexAt, trueVsAt } from '../src/core/synth/earth';
 import { renderArrival } from '../src/core/synth/pulse';
 import { randomEarth, trueIntervalVsMps, verticalTimeS, verticalTStarS } from '../src/core/synth/randomEarth';
 import type { EarthModel } from '../src/core/synth/earth';
-import { INTERVAL_METHOD_CATALOGUE, type IntervalMethod } from '../src/core/catalogue/methods';
+import { INTERVAL_METHOD_CATALOGUE, type IntervalMethod, isOnsetPick } from '../src/core/catalogue/methods';
 import type { TestKind } from '../src/core/model';
 import { calibrationScale, sdScale, withinShare } from '../src/core/velocity/sdCalibration';
+import { layerMethod } from '../src/core/velocity/layerMethod';
 import { blendIntervals, fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
 import { INTERCEPT_PRIOR_SD_S } from '../src/core/velocity/layerMethod';
 
@@ -578,7 +579,7 @@ function byMethod(runs: SurveyRun[]): Map<string, IntervalResult[]> {
   return by;
 }
 
-const TEST_KIND: Record<BankKind, TestKind> = {
+export const TEST_KIND: Record<BankKind, TestKind> = {
   'one-receiver': 'downhole',
   'two-receiver': 'downhole-pair',
   'cone-0.5m': 'seismic-cone',
@@ -811,4 +812,27 @@ export function printBank(rep: BankReport, log: (s: string) => void): void {
     '\n  TAIL_K95 (training k95 rounded up; paste into src/core/velocity/sdCalibration.ts after the final SD_SCALE):',
   );
   log(k95TableSource(rep.k95Table));
+}
+
+/**
+ * The pipeline's layered model (velocity/layerMethod.ts) recomputed from a prepared survey's picks and
+ * delays with default settings, so a change to the layering is measured without re-picking
+ * (bench/shallow.ts, bench/shallow-eval.ts). Its sds are before the kind's scale.
+ */
+export function layerModelOf(p: PreparedCase): ReturnType<typeof layerMethod> {
+  const st = defaultSettings();
+  return layerMethod(
+    TEST_KIND[p.c.kind],
+    0,
+    p.pairs,
+    p.derived.picks,
+    p.derived.delays,
+    {
+      mode: 'auto',
+      boundariesM: [],
+      minThicknessM: st.layering.minThicknessM,
+      triggerOffsetSdS: st.intervals.triggerOffsetSdS,
+    },
+    isOnsetPick,
+  );
 }

@@ -5,15 +5,11 @@
  * overall and over intervals with top < 4 m, within 1/2 sd (the kind's scale), intervals off by > 15%.
  * For a tuning, edit the setting and run again.
  */
-import { layerMethod } from '../src/core/velocity/layerMethod';
-import { defaultSettings } from '../src/core/settings';
-import { isOnsetPick } from '../src/core/catalogue/methods';
 import { sdScale } from '../src/core/velocity/sdCalibration';
-import { bankCase, type BankKind, prepareCase, seeds } from './bank';
+import { bankCase, type BankKind, layerModelOf, prepareCase, seeds } from './bank';
 
 const count = Number(process.argv[2] ?? 12);
 const kinds = (process.env.KINDS ?? 'one-receiver,cone-0.5m,two-receiver').split(',') as BankKind[];
-const st = defaultSettings();
 const q = (xs: number[], f: number) => {
   const s = [...xs].sort((a, b) => a - b);
   const pos = (s.length - 1) * f;
@@ -32,21 +28,7 @@ const prepared = new Map(kinds.map((k) => [k, seeds('training', count).map((s) =
     const z: number[] = [];
     const worst: string[] = [];
     for (const p of prepared.get(k)!) {
-      const d = p.derived;
-      const r = layerMethod(
-        tk,
-        0,
-        p.pairs,
-        d.picks,
-        d.delays,
-        {
-          mode: 'auto',
-          boundariesM: [],
-          minThicknessM: st.layering.minThicknessM,
-          triggerOffsetSdS: st.intervals.triggerOffsetSdS,
-        },
-        isOnsetPick,
-      );
+      const r = layerModelOf(p);
       for (const pr of p.pairs) {
         if (pr.wave !== 'S') continue;
         const x = r.byPair.get(pr.key);

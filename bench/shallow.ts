@@ -4,11 +4,11 @@
  * the time's error against the true refracted-ray time (what the intercept should hold) and the fit's
  * residual, and the shallow intervals' errors.
  */
-import { layerMethod, layerObservations } from '../src/core/velocity/layerMethod';
+import { layerObservations } from '../src/core/velocity/layerMethod';
 import { defaultSettings } from '../src/core/settings';
 import { isOnsetPick } from '../src/core/catalogue/methods';
 import { layeredRay } from '../src/core/survey/rays';
-import { bankCase, type BankKind, prepareCase, seeds } from './bank';
+import { bankCase, type BankKind, layerModelOf, prepareCase, seeds } from './bank';
 
 const count = Number(process.argv[2] ?? 12);
 const kind = (process.argv[3] ?? 'one-receiver') as BankKind;
@@ -18,20 +18,7 @@ for (const s of seeds('training', count)) {
   const c = bankCase(kind, s);
   const p = prepareCase(c);
   const d = p.derived;
-  const r = layerMethod(
-    testKind,
-    0,
-    p.pairs,
-    d.picks,
-    d.delays,
-    {
-      mode: 'auto',
-      boundariesM: [],
-      minThicknessM: st.layering.minThicknessM,
-      triggerOffsetSdS: st.intervals.triggerOffsetSdS,
-    },
-    isOnsetPick,
-  );
+  const r = layerModelOf(p);
   const onsets = new Map(d.picks.filter((x) => x.wave === 'S' && isOnsetPick(x)).map((x) => [x.stationKey, x]));
   const xc = new Map(d.delays.filter((x) => x.wave === 'S' && x.method === 'xcorr').map((x) => [x.pairKey, x]));
   const obs = layerObservations(testKind, p.pairs, onsets, xc as never, st.intervals.triggerOffsetSdS);
