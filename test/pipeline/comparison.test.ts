@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { cleanDownhole, runClean } from '../helpers/cleanSurvey';
 import { derive, runPipeline, siteSpread } from '../../src/core/pipeline';
 import { demoCrossholeGeometry, demoCrossholeOptions, demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
 import type { ComparisonProfile } from '../../src/core/site/comparison';
@@ -47,26 +48,8 @@ describe('site spread computed later equals the one derive() computes at once', 
 describe('user layer boundaries are closed by the surface and the deepest station', () => {
   it('"5, 10" gives straight-line fits 0-5, 5-10 and 10-bottom, and a refracted-ray model of the same three layers', () => {
     const model = demoEarthModel();
-    const res = synthesizeSurvey(
-      model,
-      { kind: 'downhole', holeId: 'DH1', depthsM: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14], sourceOffsetM: 2 },
-      {
-        seed: 4,
-        sampleIntervalS: 5e-5,
-        samplesPerTrace: 3000,
-        sFrequencyHz: 100,
-        pFrequencyHz: 400,
-        attenuation: false,
-        snr: null,
-        maxTriggerDelayS: 0,
-      },
-    );
-    const out = runPipeline({
-      survey: res.survey,
-      records: new Map(res.records.map((r) => [r.id, r])),
-      settings: patchSettings(defaultSettings(), { layering: { mode: 'user', boundariesM: [5, 10] } }),
-      edits: emptyEdits(),
-    });
+    const res = cleanDownhole([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14], { seed: 4, model });
+    const out = runClean(res, patchSettings(defaultSettings(), { layering: { mode: 'user', boundariesM: [5, 10] } }));
     const s = out.derived.layerFits.filter((f) => f.wave === 'S').map((f) => [f.topM, f.bottomM]);
     expect(s).toEqual([
       [0, 5],

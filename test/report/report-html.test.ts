@@ -2,15 +2,14 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { cleanDownhole, runClean } from '../helpers/cleanSurvey';
 import { makeReport, runReport } from '../../src/cli/report';
-import { runPipeline } from '../../src/core/pipeline';
 import { reportDataFrom } from '../../src/core/report/adapter';
 import { decimateTrace, MAX_TRACES_PER_PANEL, thinTraces, TRACE_COLUMNS } from '../../src/core/report/figures';
 import { reportHtml } from '../../src/core/report/html';
 import { standaloneSvg } from '../../src/core/report/svg';
 import { externalReferences } from '../helpers/external';
 import { defaultSettings, emptyEdits } from '../../src/core/settings';
-import { demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
 
 /** Every demo survey in sample-data (one folder per test kind, each with its project.zip). */
 const DEMO_SURVEYS = readdirSync('sample-data').filter((d) => existsSync(`sample-data/${d}/project.zip`));
@@ -69,23 +68,10 @@ describe('CLI report of each demo survey (issue 17 checks)', () => {
 });
 
 describe('report from a forward-model survey', () => {
-  const res = synthesizeSurvey(
-    demoEarthModel(),
-    { kind: 'downhole', holeId: 'DH9', depthsM: [1, 2, 3, 4, 5, 6, 7, 8], sourceOffsetM: 2 },
-    {
-      seed: 11,
-      sampleIntervalS: 5e-5,
-      samplesPerTrace: 3000,
-      sFrequencyHz: 100,
-      pFrequencyHz: 400,
-      attenuation: false,
-      snr: null,
-      maxTriggerDelayS: 0,
-    },
-  );
+  const res = cleanDownhole([1, 2, 3, 4, 5, 6, 7, 8], { seed: 11, holeId: 'DH9' });
   const settings = defaultSettings();
   const edits = emptyEdits();
-  const out = runPipeline({ survey: res.survey, records: new Map(res.records.map((r) => [r.id, r])), settings, edits });
+  const out = runClean(res, settings, edits);
   const inputs = {
     survey: res.survey,
     settings,

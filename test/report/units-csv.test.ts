@@ -1,30 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { runPipeline } from '../../src/core/pipeline';
+import { cleanDownhole, runClean } from '../helpers/cleanSurvey';
 import { profileTable } from '../../src/core/report/tables';
-import { defaultSettings, emptyEdits } from '../../src/core/settings';
-import { demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
 
 describe('profile CSV in US customary units (exact factors: 0.3048 m/ft, 1 ksi = 6.894757 MPa, 1 psf = 0.04788026 kPa; NIST SP 811)', () => {
-  const res = synthesizeSurvey(
-    demoEarthModel(),
-    { kind: 'downhole', holeId: 'DH1', depthsM: [2, 3, 4, 5, 6], sourceOffsetM: 2 },
-    {
-      seed: 3,
-      sampleIntervalS: 5e-5,
-      samplesPerTrace: 3000,
-      sFrequencyHz: 100,
-      pFrequencyHz: 400,
-      attenuation: false,
-      snr: null,
-      maxTriggerDelayS: 0,
-    },
-  );
-  const out = runPipeline({
-    survey: res.survey,
-    records: new Map(res.records.map((r) => [r.id, r])),
-    settings: defaultSettings(),
-    edits: emptyEdits(),
-  });
+  const res = cleanDownhole([2, 3, 4, 5, 6], { seed: 3 });
+  const out = runClean(res);
   const si = profileTable(out.derived, 'SI');
   const us = profileTable(out.derived, 'US');
   const col = (t: typeof si, name: string) => t.rows.map((r) => r[t.columns.indexOf(name)] as number);

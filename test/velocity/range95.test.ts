@@ -7,12 +7,11 @@
  * exact 0.3048 m/ft (NIST SP 811); rounding of velocities to 3 significant digits (docs/significant-digits.md).
  */
 import { describe, expect, it } from 'vitest';
+import { cleanDownhole, runClean } from '../helpers/cleanSurvey';
 import { makeReport } from '../../src/cli/report';
 import { mulberry32 } from '../../src/core/random';
-import { runPipeline } from '../../src/core/pipeline';
 import { profileTable, siteJson, toCsv } from '../../src/core/report/tables';
-import { defaultSettings, emptyEdits } from '../../src/core/settings';
-import { demoEarthModel, synthesizeSurvey } from '../../src/core/synth';
+import { defaultSettings } from '../../src/core/settings';
 import { setRange95, type IntervalValue } from '../../src/core/velocity/intervals';
 import { GAUSSIAN_K95, range95Mps, TAIL_K95, tailFactor95, withinShare } from '../../src/core/velocity/sdCalibration';
 
@@ -69,26 +68,8 @@ describe('range v -+ k sd (hand-worked)', () => {
 });
 
 describe('the range through the pipeline and the exports', () => {
-  const res = synthesizeSurvey(
-    demoEarthModel(),
-    { kind: 'downhole', holeId: 'DH1', depthsM: [2, 3, 4, 5, 6, 7], sourceOffsetM: 2 },
-    {
-      seed: 3,
-      sampleIntervalS: 5e-5,
-      samplesPerTrace: 3000,
-      sFrequencyHz: 100,
-      pFrequencyHz: 400,
-      attenuation: false,
-      snr: null,
-      maxTriggerDelayS: 0,
-    },
-  );
-  const out = runPipeline({
-    survey: res.survey,
-    records: new Map(res.records.map((r) => [r.id, r])),
-    settings: defaultSettings(),
-    edits: emptyEdits(),
-  });
+  const res = cleanDownhole([2, 3, 4, 5, 6, 7], { seed: 3 });
+  const out = runClean(res);
   const d = out.derived;
 
   it('every interval row with an sd carries v -+ k95 sd of its method; rows without one carry none', () => {
