@@ -162,6 +162,11 @@ export const SD_WIDENING_FLAGS = ['low correlation', 'at lag bound', 'outside la
  */
 export function widenFlaggedSd(chosen: IntervalValue, rows: readonly IntervalValue[]): void {
   if (chosen.velocityMps === null || !chosen.flags.some((f) => SD_WIDENING_FLAGS.includes(f))) return;
+  // A model's value comes from all the times, and its sd already holds this interval's disagreement
+  // with its own delay (layering.ts blendIntervals, the local misfit): the spread of the per-interval
+  // picks (on a cone 10-50% for onsets and troughs) is not its error. Widening it made 44% of the cone's
+  // layer-model sds 5-20 times too wide and the rest too narrow (docs/true-vs.md "Fifth round").
+  if (methodInfo(chosen.method).kind === 'model') return;
   const vs = rows.filter((r) => r.velocityMps !== null).map((r) => r.velocityMps!);
   if (vs.length < 2) return;
   const halfRange = (Math.max(...vs) - Math.min(...vs)) / 2;

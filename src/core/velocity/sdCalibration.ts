@@ -66,7 +66,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.739,
     phase: 0.775,
     'ray-fit': 0.91,
-    'layer-model': 0.253,
+    'layer-model': 0.361,
     joint: 0.696,
   },
   'downhole-pair': {
@@ -76,7 +76,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     'zero-crossing': 0.453,
     xcorr: 0.675,
     phase: 0.794,
-    'layer-model': 0.137,
+    'layer-model': 0.308,
     joint: 0.945,
   },
   'seismic-cone': {
@@ -87,7 +87,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.832,
     phase: 0.829,
     'ray-fit': 1.03,
-    'layer-model': 0.209,
+    'layer-model': 0.24,
     joint: 0.728,
   },
   crosshole: {
@@ -124,7 +124,7 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 2.01,
     phase: 2,
     'ray-fit': 2.01,
-    'layer-model': 2.78,
+    'layer-model': 2.48,
     joint: 2.01,
   },
   'downhole-pair': {
@@ -134,7 +134,7 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     'zero-crossing': 2.01,
     xcorr: 2.3,
     phase: 2.01,
-    'layer-model': 2.74,
+    'layer-model': 2.69,
     joint: 2.44,
   },
   'seismic-cone': {
@@ -145,7 +145,7 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 2,
     phase: 2.01,
     'ray-fit': 2,
-    'layer-model': 2.82,
+    'layer-model': 2.26,
     joint: 2.33,
   },
   crosshole: { onset: 1.74, peak: 1.21, trough: 1.48, 'zero-crossing': 1.74, xcorr: 2, phase: 1.58, joint: 2.69 },
