@@ -27,6 +27,8 @@ import type { StationPair } from './intervals';
 import {
   blendIntervals,
   fitLayering,
+  type LayeringOptions,
+  type LayeringResult,
   type LayeredFit,
   layerIntervalVs,
   localMisfitSlownessSd,
@@ -82,6 +84,18 @@ const BOUNDARY_SD_SCALE: Partial<Record<TestKind, number>> = { downhole: 2, 'dow
  * 0.5 lowered the median and P90 of every downhole kind (missed thin layers and gradients are the tail).
  */
 const PENALTY_SCALE = 0.5;
+/**
+ * The automatic layering is made with each of these BIC penalty multipliers, and an interval's Vs is the
+ * mean of its slowness over the layerings (the one with PENALTY_SCALE is the layering shown). Which
+ * layers the times resolve is uncertain exactly where a layer is thin or its contrast small, and one
+ * choice of the penalty either keeps or drops it; the mean over the choices is a model average with
+ * equal weights (bagging a model selection, Breiman 1996, Machine Learning 24(2), from memory), and the
+ * spread between the layerings joins the interval's sd. Chosen on training seeds (docs/true-vs.md "Fifth
+ * round"): median / P90 cone 1.24 / 7.25 -> 1.21 / 6.92%, one receiver 1.29 / 5.75 -> 1.15 / 5.42%, two
+ * receivers 0.52 / 3.47 -> 0.50 / 3.48% (three penalties 0.35-0.7, and minimum thicknesses 0.5-1.5 m,
+ * gained less).
+ */
+const ENSEMBLE_PENALTY_SCALES = [0.25, 0.35, 0.5, 0.7, 1];
 /**
  * Prior sd of the common intercept of one-receiver times (mean 0: the trigger delay is already off the
  * times), in every fit and as the pin of the top layer's line at the source (velocity/layering.ts "The
@@ -176,6 +190,44 @@ export function layerObservations(
   return obs;
 }
 
+/**
+ * The last layerings made, by their travel times and options: an edit that leaves the S times alone (a
+ * peak or trough pick, a P pick, an onset other than a chain's first, a method choice) reuses them
+ * instead of repeating the five automatic layerings (ENSEMBLE_PENALTY_SCALES; 40-270 ms for a 40-depth
+ * cone). fitLayering is pure and its results are only read, so a remembered result is the same result.
+ */
+const REMEMBERED_FITS = new Map<string, LayeringResult>();
+const REMEMBERED_FITS_MAX = 16;
+
+function rememberedFit(obs: TimeObservation[], o: LayeringOptions): LayeringResult {
+  const key = JSON.stringify([obs, o]);
+  const known = REMEMBERED_FITS.get(key);
+  if (known) return known;
+  const r = fitLayering(obs, o);
+  if (REMEMBERED_FITS.size >= REMEMBERED_FITS_MAX) {
+    const oldest = REMEMBERED_FITS.keys().next().value;
+    if (oldest !== undefined) REMEMBERED_FITS.delete(oldest);
+  }
+  REMEMBERED_FITS.set(key, r);
+  return r;
+}
+
+/**
+ * An interval's Vs as the mean slowness over several layerings, and the spread of the layerings (the sd
+ * of their slownesses, in velocity), m/s.
+ */
+export function ensembleIntervalVs(
+  fits: readonly LayeredFit[],
+  topM: number,
+  bottomM: number,
+): { vsMps: number; spreadMps: number } {
+  const slowness = fits.map((f) => 1 / layerIntervalVs(f, topM, bottomM).vsMps).filter((x) => Number.isFinite(x));
+  if (!slowness.length) return { vsMps: Number.NaN, spreadMps: 0 };
+  const mean = slowness.reduce((a, x) => a + x, 0) / slowness.length;
+  const variance = slowness.reduce((a, x) => a + (x - mean) ** 2, 0) / slowness.length;
+  return { vsMps: 1 / mean, spreadMps: Math.sqrt(variance) / (mean * mean) };
+}
+
 export function layerMethod(
   kind: TestKind,
   sourceDepthM: number,
@@ -198,16 +250,28 @@ export function layerMethod(
       reason: `only ${obs.length} S travel times (a first onset and correlation delays are needed; 3 or more)`,
       byPair,
     };
-  const r = fitLayering(obs, {
-    sourceDepthM,
-    mode: s.mode,
-    boundariesM: [...s.boundariesM],
-    minThicknessM: s.minThicknessM,
-    penaltyScale: PENALTY_SCALE,
-    intercept: kind !== 'downhole-pair',
-    interceptPriorSdS: INTERCEPT_PRIOR_SD_S,
-  });
+  const fitWithPenalty = (penaltyScale: number) =>
+    rememberedFit(obs, {
+      sourceDepthM,
+      mode: s.mode,
+      boundariesM: [...s.boundariesM],
+      minThicknessM: s.minThicknessM,
+      penaltyScale,
+      intercept: kind !== 'downhole-pair',
+      interceptPriorSdS: INTERCEPT_PRIOR_SD_S,
+    });
+  const r = fitWithPenalty(PENALTY_SCALE);
   if (!r.ok) return { fit: null, reason: r.reason, byPair };
+  // automatic layering: the interval values average the layerings of every penalty (ENSEMBLE_PENALTY_SCALES)
+  const members =
+    s.mode === 'auto'
+      ? [
+          r.fit,
+          ...ENSEMBLE_PENALTY_SCALES.filter((x) => x !== PENALTY_SCALE)
+            .map(fitWithPenalty)
+            .flatMap((m) => (m.ok ? [m.fit] : [])),
+        ]
+      : [r.fit];
   const sPairs = pairs.filter((p) => p.wave === 'S');
   const pseudo = kind !== 'downhole-pair';
   const lm = sPairs.map((p) =>
@@ -234,8 +298,9 @@ export function layerMethod(
     // unresolved share of its own measurement (OWN_SD_SHARE); MODEL_SD_SHARE floors the layers' own sds
     { modelSdShare: 0 },
   );
+  const ensemble = sPairs.map((p) => ensembleIntervalVs(members, p.a.receiverPos[2], p.b.receiverPos[2]));
   sPairs.forEach((p, i) => {
-    const v = lm[i].vsMps;
+    const v = ensemble[i].vsMps;
     if (!(Number.isFinite(v) && v > 0)) return;
     // the local misfit of the fit about the interval (a missed layer), added in slowness
     const local = localMisfitSlownessSd(obs, r.fit.residualsS, p.a.receiverPos[2], p.b.receiverPos[2], LOCAL_WINDOW_M);
@@ -245,7 +310,7 @@ export function layerMethod(
     const unresolved = OWN_SD_SHARE * (own[i].sd ?? 0);
     byPair.set(p.key, {
       velocityMps: v,
-      sdMps: Math.hypot(blend[i].layerWithModelSdMps, v * v * local, v * path, unresolved),
+      sdMps: Math.hypot(blend[i].layerWithModelSdMps, v * v * local, v * path, unresolved, ensemble[i].spreadMps),
     });
   });
   // the layers' own Vs sd (shown per layer and exported) takes the same systematic floor as the

@@ -66,7 +66,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.739,
     phase: 0.775,
     'ray-fit': 0.91,
-    'layer-model': 0.361,
+    'layer-model': 0.315,
     joint: 0.696,
   },
   'downhole-pair': {
@@ -76,7 +76,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     'zero-crossing': 0.453,
     xcorr: 0.675,
     phase: 0.794,
-    'layer-model': 0.308,
+    'layer-model': 0.301,
     joint: 0.945,
   },
   'seismic-cone': {
@@ -87,7 +87,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.832,
     phase: 0.829,
     'ray-fit': 1.03,
-    'layer-model': 0.24,
+    'layer-model': 0.209,
     joint: 0.728,
   },
   crosshole: {
