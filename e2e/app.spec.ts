@@ -222,6 +222,12 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   await page.emulateMedia({ media: 'print' });
   await expect(page.locator('.print-summary')).toBeVisible();
   await expect(page.locator('.print-summary')).toContainText('qualified professional');
+  // Each profile row shows its Vs 95% range (the core's low-high, to the nearest m/s as on screen).
+  await expect(page.locator('.print-summary th', { hasText: '95% range (m/s)' })).toBeVisible();
+  const p0 = ref.derived.profile[0];
+  await expect(page.locator('.print-summary td[data-col="range95"]').first()).toHaveText(
+    `${p0.vsLow95Mps!.toFixed(0)}–${p0.vsHigh95Mps!.toFixed(0)}`,
+  );
   await page.screenshot({ path: `${SCREENS}/06-print-summary.png`, fullPage: true });
   await page.emulateMedia({ media: 'screen' });
 
