@@ -222,6 +222,12 @@ test('demo survey, corrupt file, pick edits by mouse and keys, undo, exports, re
   await page.emulateMedia({ media: 'print' });
   await expect(page.locator('.print-summary')).toBeVisible();
   await expect(page.locator('.print-summary')).toContainText('qualified professional');
+  // Each profile row shows its Vs 95% range (the core's low-high, to the nearest m/s as on screen).
+  await expect(page.locator('.print-summary th', { hasText: '95% range (m/s)' })).toBeVisible();
+  const p0 = ref.derived.profile[0];
+  await expect(page.locator('.print-summary td[data-col="range95"]').first()).toHaveText(
+    `${p0.vsLow95Mps!.toFixed(0)}–${p0.vsHigh95Mps!.toFixed(0)}`,
+  );
   await page.screenshot({ path: `${SCREENS}/06-print-summary.png`, fullPage: true });
   await page.emulateMedia({ media: 'screen' });
 
@@ -299,6 +305,24 @@ test('geometry, US units, keyboard help and the bottom strip render; Start fresh
       [[hovered.topM / 0.3048, hovered.bottomM / 0.3048]].map((p) => p.map((v) => expect.closeTo(v, 6))),
     );
   await page.screenshot({ path: `${SCREENS}/13-hovered-interval.png` });
+
+  // The Profile's Vs bars are each profile row's 95% range from the core (arms high - v and v - low, in
+  // ft/s here: 1 ft = 0.3048 m, NIST SP 811), and the legend says so.
+  await expect(page.getByTestId('profile-bars-legend')).toContainText('Vs bars 95% range');
+  const vsBar = await page.evaluate(() => {
+    const div = document.querySelector('[data-plot="profile"]') as unknown as {
+      data: { name: string; x: number[]; error_x?: { symmetric?: boolean; array: number[]; arrayminus?: number[] } }[];
+    };
+    return div.data.find((t) => t.name === 'Vs 95% range')!;
+  });
+  const ranged = (await derivedState(page)).profile
+    .filter((r) => r.vsLow95Mps !== null && r.vsHigh95Mps !== null)
+    .sort((a, b) => a.topM - b.topM);
+  expect(ranged.length).toBeGreaterThan(0);
+  expect(vsBar.error_x?.symmetric).toBe(false);
+  expect(vsBar.x).toEqual(ranged.map((r) => expect.closeTo(r.vsMps / 0.3048, 6)));
+  expect(vsBar.error_x?.array).toEqual(ranged.map((r) => expect.closeTo((r.vsHigh95Mps! - r.vsMps) / 0.3048, 6)));
+  expect(vsBar.error_x?.arrayminus).toEqual(ranged.map((r) => expect.closeTo((r.vsMps - r.vsLow95Mps!) / 0.3048, 6)));
   await page.getByRole('button', { name: 'Keyboard help' }).click();
   await expect(page.getByRole('dialog', { name: 'Keyboard' })).toBeVisible();
   await page.screenshot({ path: `${SCREENS}/12-keyboard-help.png` });

@@ -385,7 +385,10 @@ function Messages() {
   );
 }
 
-/** Shown only when printing (print stylesheet): survey, settings, profile table, site class, cautions. */
+/**
+ * Shown only when printing (print stylesheet): survey, settings, profile table (Vs with its sd and 95%
+ * range), site class, cautions.
+ */
 function PrintSummary() {
   // Deferred: an edit re-renders this hidden summary after the frame that shows the Profile.
   const d = useDeferredValue(useDerived());
@@ -433,7 +436,8 @@ const PrintBody = memo(function PrintBody({
             <th>Top ({dep})</th>
             <th>Bottom ({dep})</th>
             <th>Vs ({v})</th>
-            <th>± ({v})</th>
+            <th>± 1 sd ({v})</th>
+            <th title="Vs ∓ k95 × sd, k95 per test kind and method (docs/true-vs.md)">95% range ({v})</th>
             <th>Vp ({v})</th>
             <th>Gmax ({label('modulus', units)})</th>
             <th>Vs1 ({v})</th>
@@ -448,6 +452,11 @@ const PrintBody = memo(function PrintBody({
               <td>{fmt('depth', units, r.bottomM)}</td>
               <td>{fmt('velocity', units, r.vsMps)}</td>
               <td>{fmt('velocity', units, r.vsSdMps)}</td>
+              <td data-col="range95">
+                {r.vsLow95Mps !== null && r.vsHigh95Mps !== null
+                  ? `${fmt('velocity', units, r.vsLow95Mps)}–${fmt('velocity', units, r.vsHigh95Mps)}`
+                  : '–'}
+              </td>
               <td>{fmt('velocity', units, r.vpMps)}</td>
               <td>{fmt('modulus', units, r.gmaxKpa)}</td>
               <td>{fmt('velocity', units, r.vs1Mps)}</td>

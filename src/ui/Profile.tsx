@@ -1,6 +1,7 @@
 /**
- * Profile: Vs and Vp step profile with one-sigma bars, Gmax and Vs1 beside it, and the method
- * comparison table (every method's interval velocity, the one used, flags as short words).
+ * Profile: Vs and Vp step profile with bars (Vs: the 95% range, or one sigma where an interval has no
+ * range; Vp and Gmax: one sigma), Gmax and Vs1 beside it, and the method comparison table (every
+ * method's interval velocity, the one used, flags as short words).
  */
 import { CurrentSetupProblems } from './Setup';
 import { unitText } from './unitText';
@@ -24,6 +25,7 @@ import { setView, useApp } from '../state/store';
 import { BASE_LAYOUT, bandShapes, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { fromDisplay } from '../core';
 import { disp, fmt, label, useUnits } from './units';
+import { vsBars } from './profileBars';
 import type { UnitSystem } from '../core';
 
 function stepLine(
@@ -88,16 +90,17 @@ function stepTrace(
 }
 
 /**
- * One-standard-deviation bars across x at each (x, y), drawn without a marker at their centre (mode 'none'):
- * Plotly styles every marker on each redraw, which made the markers most of the time a pick edit took to
- * show here. `width` is the length of the bars' end caps in pixels.
+ * Bars across x at each (x, y), drawn without a marker at their centre (mode 'none'): Plotly styles every
+ * marker on each redraw, which made the markers most of the time a pick edit took to show here. `plus`
+ * is the arm towards higher x; `minus`, when given, the arm towards lower x (asymmetric bars), else the
+ * same as `plus`. `width` is the length of the bars' end caps in pixels.
  */
-function sdBars(
+function bars(
   name: string,
   x: number[],
   y: number[],
-  sd: number[],
-  o: { color: string; width: number; xaxis?: string; visible?: boolean },
+  plus: number[],
+  o: { color: string; width: number; minus?: number[]; xaxis?: string; visible?: boolean },
 ): PlotData {
   return {
     type: 'scatter',
@@ -107,7 +110,14 @@ function sdBars(
     y,
     ...(o.xaxis ? { xaxis: o.xaxis } : {}),
     ...(o.visible !== undefined ? { visible: o.visible } : {}),
-    error_x: { type: 'data', array: sd, color: o.color, thickness: 1, width: o.width },
+    error_x: {
+      type: 'data',
+      ...(o.minus ? { symmetric: false, arrayminus: o.minus } : {}),
+      array: plus,
+      color: o.color,
+      thickness: 1,
+      width: o.width,
+    },
     hoverinfo: 'skip',
   };
 }
@@ -130,17 +140,25 @@ export function ProfilePlot() {
     const g = stepLine(rows, (r) => r.gmaxKpa, units, 'modulus');
     const vs1 = stepLine(rows, (r) => r.vs1Mps, units, 'velocity');
     const withVp = rows.filter((r) => r.vpMps !== null && Number.isFinite(r.vpMps));
+    // Vs: the 95% range from the core rows; +-1 sd only where a row has none (its own trace, named so).
+    const vsBar = vsBars(rows, units);
     const out: PlotData[] = [
       stepTrace('Vs', vs, { color: COLOURS.S, width: 2 }),
-      sdBars(
-        'Vs ± 1 sd',
-        rows.map((r) => disp('velocity', units, r.vsMps)),
-        mid,
-        rows.map((r) => disp('velocity', units, r.vsSdMps)),
-        { color: COLOURS.S, width: 3 },
-      ),
+      bars('Vs 95% range', vsBar.range95.x, vsBar.range95.y, vsBar.range95.plus, {
+        color: COLOURS.S,
+        width: 3,
+        minus: vsBar.range95.minus,
+      }),
+      ...(vsBar.sdOnly.x.length
+        ? [
+            bars('Vs ± 1 sd (no 95% range)', vsBar.sdOnly.x, vsBar.sdOnly.y, vsBar.sdOnly.plus, {
+              color: COLOURS.S,
+              width: 3,
+            }),
+          ]
+        : []),
       stepTrace('Vp', vp, { color: COLOURS.P, width: 1.6, dash: 'dash' }, { xaxis: 'x4', visible: showVp }),
-      sdBars(
+      bars(
         'Vp ± 1 sd',
         withVp.map((r) => disp('velocity', units, r.vpMps!)),
         withVp.map((r) => disp('depth', units, r.midM)),
@@ -148,7 +166,7 @@ export function ProfilePlot() {
         { color: COLOURS.P, width: 3, xaxis: 'x4', visible: showVp },
       ),
       stepTrace('Gmax', g, { color: COLOURS.ink, width: 1.6 }, { xaxis: 'x2' }),
-      sdBars(
+      bars(
         'Gmax ± 1 sd',
         rows.map((r) => disp('modulus', units, r.gmaxKpa)),
         mid,
@@ -606,6 +624,7 @@ export function ProfilePane() {
   const showVp = useApp((s) => s.view.showVp);
   const units = useUnits();
   const vs30 = d?.site.vs30;
+  const vsRowsWithoutRange = (d?.profile ?? []).some((r) => r.vsLow95Mps === null || r.vsHigh95Mps === null);
   return (
     <section className="profile" aria-label="Profile">
       <div className="pane-head">
@@ -634,7 +653,12 @@ export function ProfilePane() {
             · <span style={{ color: COLOURS.compare }}>╍ compared profile</span>
           </>
         ) : null}{' '}
-        · bars ±1 sd
+        <span
+          data-testid="profile-bars-legend"
+          title="Vs bars: V ∓ k95 × sd of the interval in the profile, k95 per test kind and method from the bench's training intervals (docs/true-vs.md); an interval without a range keeps ±1 sd. Vp and Gmax bars: ±1 sd."
+        >
+          · Vs bars 95% range{vsRowsWithoutRange ? ' (±1 sd where none)' : ''}; Vp, Gmax ±1 sd
+        </span>
       </div>
       <CurrentSetupProblems />
       <div

@@ -4,13 +4,15 @@
  *
  * External references: the two-sided 95% point of the standard normal is 1.96, P(|Z| <= 1.96) = 0.9500
  * (any table of the normal distribution, e.g. Abramowitz & Stegun 1964, table 26.1); US units with the
- * exact 0.3048 m/ft (NIST SP 811); rounding of velocities to 3 significant digits (docs/significant-digits.md).
+ * exact 0.3048 m/ft (NIST SP 811); rounding of velocities to 3 significant digits (docs/significant-digits.md;
+ * the expected cells are rounded here with JavaScript's own Number.prototype.toPrecision, ECMA-262).
  */
 import { describe, expect, it } from 'vitest';
 import { cleanDownhole, runClean } from '../helpers/cleanSurvey';
 import { makeReport } from '../../src/cli/report';
 import { mulberry32 } from '../../src/core/random';
-import { profileTable, siteJson, toCsv } from '../../src/core/report/tables';
+import { intervalsTable, profileTable, siteJson, toCsv } from '../../src/core/report/tables';
+import type { Derived } from '../../src/core/pipeline';
 import { defaultSettings } from '../../src/core/settings';
 import { setRange95, type IntervalValue } from '../../src/core/velocity/intervals';
 import { GAUSSIAN_K95, range95Mps, TAIL_K95, tailFactor95, withinShare } from '../../src/core/velocity/sdCalibration';
@@ -141,5 +143,94 @@ describe('HTML report interval table', () => {
     const { html } = makeReport('sample-data/downhole/project.zip', { madeAt: '2026-12-02T10:00:00.000Z' });
     expect(html).toContain('<th class="n">95% range (m/s)</th>');
     expect(html).toMatch(/<td class="n">\d+(\.\d+)?–\d+(\.\d+)?<\/td>/);
+  });
+});
+
+describe('intervals.csv: the 95% range of every interval row', () => {
+  /** One interval row as the core makes it, its range set by setRange95 for its kind and method. */
+  const row = (wave: 'S' | 'P', velocityMps: number, sdMps: number | null): IntervalValue => {
+    const r = {
+      key: `DH1:${wave}:2-3`,
+      wave,
+      kind: 'pseudo',
+      stationA: 'a',
+      stationB: 'b',
+      topM: 2,
+      bottomM: 3,
+      pathAM: 2.83,
+      pathBM: 3.61,
+      method: 'layer-model',
+      dtS: 0.004,
+      velocityMps,
+      velocitySdMps: sdMps,
+      low95Mps: null,
+      high95Mps: null,
+      chosen: true,
+      flags: [],
+    } as unknown as IntervalValue;
+    setRange95(r, 'downhole');
+    return r;
+  };
+  const derivedOf = (rows: IntervalValue[]) => ({ intervals: rows }) as unknown as Derived;
+  /** Header and first data row of the CSV text, as maps from column name to cell text. */
+  const cellsOf = (csv: string) => {
+    const [head, ...lines] = csv.split('\n').filter((l) => l && !l.startsWith('#'));
+    const names = head.split(',');
+    return lines.map((l) => new Map(l.split(',').map((c, i) => [names[i], c])));
+  };
+  // 3 significant digits (docs/significant-digits.md), by the language's own rounding (ECMA-262 toPrecision).
+  const sig3 = (x: number) => String(Number(x.toPrecision(3)));
+  const k = tailFactor95('downhole', 'layer-model');
+
+  it('SI: 200 m/s, sd 10 m/s -> vs_low95_mps = 200 - k95 x 10, vs_high95_mps = 200 + k95 x 10', () => {
+    const csv = toCsv(intervalsTable(derivedOf([row('S', 200, 10)]), 'SI'));
+    expect(csv.split('\n')[0]).toContain(
+      'vs_mps,vs_sd_mps,vs_low95_mps,vs_high95_mps,vp_mps,vp_sd_mps,vp_low95_mps,vp_high95_mps,flags',
+    );
+    const [c] = cellsOf(csv);
+    expect(c.get('vs_low95_mps')).toBe(sig3(200 - k * 10));
+    expect(c.get('vs_high95_mps')).toBe(sig3(200 + k * 10));
+    // An S row leaves the P columns empty.
+    expect(c.get('vp_low95_mps')).toBe('');
+    expect(c.get('vp_high95_mps')).toBe('');
+  });
+
+  it('US: the same row in ft/s, 1 ft = 0.3048 m exactly (NIST SP 811)', () => {
+    const csv = toCsv(intervalsTable(derivedOf([row('S', 200, 10)]), 'US'));
+    expect(csv.split('\n')[0]).toContain('vs_ftps,vs_sd_ftps,vs_low95_ftps,vs_high95_ftps,vp_ftps');
+    const [c] = cellsOf(csv);
+    expect(c.get('vs_low95_ftps')).toBe(sig3((200 - k * 10) / 0.3048));
+    expect(c.get('vs_high95_ftps')).toBe(sig3((200 + k * 10) / 0.3048));
+  });
+
+  it('a P row fills the vp range columns; a row without an sd leaves its range empty', () => {
+    const csv = toCsv(intervalsTable(derivedOf([row('P', 1500, 40), row('S', 200, null)]), 'SI'));
+    const [p, s] = cellsOf(csv);
+    expect(p.get('vp_low95_mps')).toBe(sig3(1500 - k * 40));
+    expect(p.get('vp_high95_mps')).toBe(sig3(1500 + k * 40));
+    expect(p.get('vs_low95_mps')).toBe('');
+    expect(s.get('vs_mps')).toBe('200');
+    expect(s.get('vs_low95_mps')).toBe('');
+    expect(s.get('vs_high95_mps')).toBe('');
+  });
+
+  it('through the pipeline: each row shows its own low95Mps / high95Mps to 3 significant digits', () => {
+    const d = runClean(cleanDownhole([2, 3, 4, 5, 6], { seed: 3 })).derived;
+    const t = intervalsTable(d, 'SI');
+    const col = (name: string) => t.columns.indexOf(name);
+    const halfUnit3 = (x: number) => 0.5 * 10 ** (Math.floor(Math.log10(Math.abs(x))) - 2) + 1e-9;
+    expect(d.intervals.some((r) => r.low95Mps !== null)).toBe(true);
+    d.intervals.forEach((r, j) => {
+      const w = r.wave === 'S' ? 'vs' : 'vp';
+      const lo = t.rows[j][col(`${w}_low95_mps`)];
+      const hi = t.rows[j][col(`${w}_high95_mps`)];
+      if (r.low95Mps === null || r.high95Mps === null) {
+        expect(lo).toBeNull();
+        expect(hi).toBeNull();
+        return;
+      }
+      expect(Math.abs((lo as number) - r.low95Mps)).toBeLessThanOrEqual(halfUnit3(r.low95Mps));
+      expect(Math.abs((hi as number) - r.high95Mps)).toBeLessThanOrEqual(halfUnit3(r.high95Mps));
+    });
   });
 });

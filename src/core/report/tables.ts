@@ -145,7 +145,14 @@ export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
   const u = unitColumn(system);
   const rows = d.intervals.map((r) => {
     const v = u.value('velocity', r.velocityMps);
-    return { r, v, sd: u.value('velocitySd', r.velocitySdMps), flags: withNoValue(r.flags, v === null, true) };
+    return {
+      r,
+      v,
+      sd: u.value('velocitySd', r.velocitySdMps),
+      low95: u.value('velocity', r.low95Mps),
+      high95: u.value('velocity', r.high95Mps),
+      flags: withNoValue(r.flags, v === null, true),
+    };
   });
   return tableOf(rows, [
     [u.name('depth_top', 'depth'), ({ r }) => u.value('distance', r.topM)],
@@ -161,8 +168,14 @@ export function intervalsTable(d: Derived, system: UnitSystem = 'SI'): Table {
     ['dt_ms', ({ r }) => ms(r.dtS)],
     [u.name('vs', 'velocity'), ({ r, v }) => (r.wave === 'S' ? v : null)],
     [u.name('vs_sd', 'velocity'), ({ r, sd }) => (r.wave === 'S' ? sd : null)],
+    // The 95% range (v -+ k95 x sd, velocity/intervals.ts setRange95; docs/true-vs.md "The 95% range") right
+    // after the sd, as in profile.csv; each wave's columns hold only its own rows; empty without an sd.
+    [u.name('vs_low95', 'velocity'), ({ r, low95 }) => (r.wave === 'S' ? low95 : null)],
+    [u.name('vs_high95', 'velocity'), ({ r, high95 }) => (r.wave === 'S' ? high95 : null)],
     [u.name('vp', 'velocity'), ({ r, v }) => (r.wave === 'P' ? v : null)],
     [u.name('vp_sd', 'velocity'), ({ r, sd }) => (r.wave === 'P' ? sd : null)],
+    [u.name('vp_low95', 'velocity'), ({ r, low95 }) => (r.wave === 'P' ? low95 : null)],
+    [u.name('vp_high95', 'velocity'), ({ r, high95 }) => (r.wave === 'P' ? high95 : null)],
     ['flags', ({ flags }) => flags.join('; ')],
   ]);
 }
