@@ -110,14 +110,16 @@ export const INTERCEPT_PRIOR_SD_S = 5e-4;
 const LOCAL_WINDOW_M = 1;
 /**
  * Share of the straight-versus-vertical path bound (velocity/errorModel.ts pathModelShare) taken as the
- * sd of the unmeasured ground above the first receiver. Tuned on training seeds: first for the tail of the
- * values (0.1, 0.25, 0.5, 1, 1.5, 2; the shallow intervals were the tail of every downhole kind), then, with
- * the own-measurement term below, for the shape of |error| / sd (0.25, 0.5, 1): at 1 the intervals above
- * 4 m were 97-100% within 1 sd and the deep ones 68% on the cone; 0.5 with OWN_SD_SHARE 0.5 and no
- * model-error floor in the interval sd gave the lightest tail (95% point of |error| / sd 2.25-2.68 against
- * 2.75-2.82; docs/true-vs.md "Fifth round").
+ * sd of the unmeasured ground above the first receiver, per test kind. Tuned on training seeds: first for
+ * the tail of the values (0.1, 0.25, 0.5, 1, 1.5, 2; the shallow intervals were the tail of every downhole
+ * kind), then for the shape of |error| / sd (0, 0.25, 0.5, 1; the 95% point of |error| / sd on training,
+ * docs/true-vs.md "Fifth round"). One receiver per hit (downhole, cone): 0 (95% points 2.54 and 2.15
+ * against 2.70 and 2.54 at 0.5; the intervals above 4 m were 97-100% within 1 sd): the first onset,
+ * timed from the source, measures the ground above the first receiver, and the top layer's line passes
+ * through the source (the intercept prior). Two receivers: 0.5 (0: 2.70 -> 3.33, the intervals above 4 m
+ * 51% within 1 sd): their differences say nothing of the ground above the upper receiver.
  */
-const PATH_SHARE = 0.5;
+const PATH_SHARE: Partial<Record<TestKind, number>> = { downhole: 0, 'seismic-cone': 0, 'downhole-pair': 0.5 };
 /**
  * Share of the interval's own measurement sd (its correlation delay, with both hits' trigger offsets
  * for one receiver per hit) taken as the layered model's error for that interval. The layers are chosen
@@ -305,7 +307,7 @@ export function layerMethod(
     // the local misfit of the fit about the interval (a missed layer), added in slowness
     const local = localMisfitSlownessSd(obs, r.fit.residualsS, p.a.receiverPos[2], p.b.receiverPos[2], LOCAL_WINDOW_M);
     // the ground above the first receiver is not measured: near the surface the slanted rays depend on it
-    const path = PATH_SHARE * pathModelShare(p.kind, p.a, p.b);
+    const path = (PATH_SHARE[kind] ?? 0.5) * pathModelShare(p.kind, p.a, p.b);
     // what this interval's own delay could not resolve (OWN_SD_SHARE)
     const unresolved = OWN_SD_SHARE * (own[i].sd ?? 0);
     byPair.set(p.key, {

@@ -55,7 +55,7 @@ export function calibrationScale(zAbs: readonly number[]): number | null {
  * The layer model (the default of the downhole kinds) has a tail of |error| / sd too heavy for 95% within
  * 2 sd and at most 75% within 1 sd at once (a layer missed between receivers or a gradient, that nothing in
  * the travel times flags): its scales meet the 2-sd band at its lower edge (90%) on the training seeds, and
- * 1-sd coverage then runs near 80% (docs/true-vs.md "Calibration").
+ * 1-sd coverage then runs at 71-77% (docs/true-vs.md "Calibration", "Fifth round").
  */
 export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, number>>>> = {
   downhole: {
@@ -66,7 +66,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.739,
     phase: 0.775,
     'ray-fit': 0.91,
-    'layer-model': 0.315,
+    'layer-model': 0.342,
     joint: 0.696,
   },
   'downhole-pair': {
@@ -87,7 +87,7 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 0.832,
     phase: 0.829,
     'ray-fit': 1.03,
-    'layer-model': 0.209,
+    'layer-model': 0.25,
     joint: 0.728,
   },
   crosshole: {
@@ -124,7 +124,7 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 2.01,
     phase: 2,
     'ray-fit': 2.01,
-    'layer-model': 2.48,
+    'layer-model': 2.55,
     joint: 2.01,
   },
   'downhole-pair': {
@@ -134,7 +134,7 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     'zero-crossing': 2.01,
     xcorr: 2.3,
     phase: 2.01,
-    'layer-model': 2.69,
+    'layer-model': 2.7,
     joint: 2.44,
   },
   'seismic-cone': {
@@ -145,7 +145,7 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     xcorr: 2,
     phase: 2.01,
     'ray-fit': 2,
-    'layer-model': 2.26,
+    'layer-model': 2.15,
     joint: 2.33,
   },
   crosshole: { onset: 1.74, peak: 1.21, trough: 1.48, 'zero-crossing': 1.74, xcorr: 2, phase: 1.58, joint: 2.69 },
