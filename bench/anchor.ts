@@ -14,6 +14,7 @@ import { join } from 'node:path';
 import Papa from 'papaparse';
 import { makeDemoProject } from '../src/core/synth/demo';
 import { toDelimitedText } from '../src/core/synth/text';
+import { toProjectJson } from '../src/core/io/project/document';
 
 const ROOT = join(import.meta.dirname, '..');
 const BUNDLE = join(ROOT, 'dist-cli', 'borewave.cjs');
@@ -65,7 +66,7 @@ function median(xs: number[]): number {
 }
 
 /** The downhole demo with its records as delimited text (a folder holding project.json and .csv files). */
-function textVariant(dir: string): string {
+export function textVariant(dir: string): string {
   const demo = makeDemoProject('downhole');
   const rename = (n: string) => n.replace(/\.sg2$/i, '.csv');
   const doc = structuredClone(demo.doc);
@@ -73,7 +74,8 @@ function textVariant(dir: string): string {
   doc.files = doc.files.map(rename);
   mkdirSync(dir, { recursive: true });
   for (const r of demo.result.records) writeFileSync(join(dir, rename(r.fileName)), toDelimitedText(r));
-  writeFileSync(join(dir, 'project.json'), JSON.stringify(doc, null, 1));
+  // the file format (toProjectJson), not the in-memory document
+  writeFileSync(join(dir, 'project.json'), JSON.stringify(toProjectJson(doc), null, 1));
   return dir;
 }
 

@@ -38,8 +38,27 @@ from scipy import signal
 
 
 # ---------------------------------------------------------------- project
+def first_layout(doc):
+    """The fields this script reads, in the first project layout, from either layout: the second lists
+    files as {path, role}, gives each record its file and its depth and hit as {value, source}, and
+    names a borehole holeId."""
+    if not doc.get("files") or isinstance(doc["files"][0], str):
+        return doc
+    doc = dict(doc)
+    doc["files"] = [f["path"] for f in doc["files"] if f.get("role", "wave") == "wave"]
+    survey = dict(doc["survey"])
+    value = lambda x: x.get("value") if isinstance(x, dict) else x
+    survey["records"] = [
+        dict(r, recordId=r.get("file", r["recordId"]), depthM=value(r.get("depthM")), hit=value(r.get("hit")))
+        for r in survey["records"]
+    ]
+    survey["boreholes"] = [dict(h, id=h.get("id", h.get("holeId"))) for h in survey["boreholes"]]
+    doc["survey"] = survey
+    return doc
+
+
 def open_project(path):
-    """project.json (dict) and a function name -> bytes, from a .zip archive or a folder."""
+    """project.json (dict, first layout) and a function name -> bytes, from a .zip archive or a folder."""
     if os.path.isdir(path):
         with open(os.path.join(path, "project.json"), "rb") as f:
             doc = json.load(f)
@@ -48,10 +67,10 @@ def open_project(path):
             with open(os.path.join(path, name), "rb") as f:
                 return f.read()
 
-        return doc, read
+        return first_layout(doc), read
     z = zipfile.ZipFile(path)
     doc = json.loads(z.read("project.json"))
-    return doc, z.read
+    return first_layout(doc), z.read
 
 
 # ---------------------------------------------------------------- SEG-2

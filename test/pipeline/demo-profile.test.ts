@@ -10,6 +10,8 @@ import { join } from 'node:path';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { runProfile } from '../../src/cli/profile';
+import { prepare } from '../../src/core/pipeline';
+import { defaultSettings } from '../../src/core/settings';
 import { newProjectDocument, writeProjectArchive } from '../../src/core/io/project';
 import { writeSeg2 } from '../../src/core/io/seg2';
 import {
@@ -123,6 +125,17 @@ describe('bad input is named and the rest still computes', () => {
     expect(stderr).toContain(res.survey.records[4].recordId);
     expect(stderr).toContain('RECORD_NO_DEPTH');
     expect(rows.length).toBeGreaterThan(20);
+  });
+  it('a record with no channel for the shear wave is named, not silently left out (common practice)', () => {
+    const res = synthesizeSurvey(model, demoDownholeGeometry(), demoDownholeOptions());
+    const survey = { ...res.survey, records: res.survey.records.map((r, i) => (i === 3 ? { ...r, channels: [] } : r)) };
+    const prep = prepare(survey, new Map(res.records.map((r) => [r.id, r])), defaultSettings());
+    const named = prep.issues.filter((p) => p.code === 'RECORD_NO_CHANNEL');
+    expect(named).toHaveLength(1);
+    expect(named[0].file).toBe(survey.records[3].recordId);
+    expect(named[0].message).toContain('no channels assigned at all');
+    // the other records still make their stations
+    expect(prep.stations.length).toBeGreaterThan(20);
   });
   it('an unreadable project exits 2 with a one-line reason', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'bw-'));

@@ -141,6 +141,16 @@ export function buildStations(
       });
       continue;
     }
+    const shearComponent = componentFor(survey.kind, 'S');
+    if (!ra.channels.some((ch) => ch.component === shearComponent)) {
+      // no station can come of it: say so rather than leave the record silently out of the profile
+      issues.push({
+        code: 'RECORD_NO_CHANNEL',
+        message: `Record ${ra.recordId} has no channel assigned to the ${shearComponent} component that carries the shear wave${ra.channels.length ? '' : ' (no channels assigned at all)'}: set its channels in Geometry.`,
+        file: ra.recordId,
+        field: 'channels',
+      });
+    }
     for (const wave of waves) {
       const comp = componentFor(survey.kind, wave);
       for (const ch of ra.channels) {
