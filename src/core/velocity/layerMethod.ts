@@ -10,12 +10,16 @@
  *   time (settings.triggerOffsetSdS; uniform 0-0.5 ms gives 0.5/sqrt(12) = 0.14 ms).
  * - two receivers per hit: the cross-correlation delay between the receivers of each hit (no trigger
  *   offset in a difference).
+ * Automatic boundaries: the layering is made with five BIC penalties and each interval takes the mean
+ * slowness of the five (ENSEMBLE_PENALTY_SCALES); the layering shown is the PENALTY_SCALE one.
  * Interval sd: the fit's covariance, the spread of a boundary inside its gap, and a model error (how far
- * true intervals depart from their layer's value) estimated from the intervals' own delays, with a floor
- * (velocity/layering.ts blendIntervals); the fit's local misfit about the interval (localMisfitSlownessSd:
- * a layer the model missed); near the surface a share of the straight-versus-vertical path bound (the
- * ground above the first receiver is not measured); then one scale per test kind applied with every method's
- * (velocity/sdCalibration.ts, tuned on the training seeds; held-out figures in `npm run bench`).
+ * true intervals depart from their layer's value) estimated from the intervals' own delays
+ * (velocity/layering.ts blendIntervals) with the unresolved share of the interval's own delay sd
+ * (OWN_SD_SHARE); the fit's local misfit about the interval (localMisfitSlownessSd: a layer the model
+ * missed); for two receivers a share of the straight-versus-vertical path bound (the ground above the
+ * upper receiver is not measured); the spread of the five layerings; then one scale per test kind applied
+ * with every method's (velocity/sdCalibration.ts, tuned on the training seeds; held-out figures in
+ * `npm run bench`, docs/true-vs.md "Fifth round").
  */
 import { horizontalDistanceM } from '../survey/geometry';
 import type { Station } from '../survey/stations';
