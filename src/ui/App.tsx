@@ -31,7 +31,7 @@ import { TravelTime } from './TravelTime';
 import { Splitter } from './Splitter';
 import { UpdateBanner } from './UpdateBanner';
 import { warmHardwareWebgl } from './gl';
-import { fmt, label, useUnits } from './units';
+import { fmt, fmtRange95, label, useUnits } from './units';
 
 function isTyping(t: EventTarget | null): boolean {
   const el = t as HTMLElement | null;
@@ -452,11 +452,7 @@ const PrintBody = memo(function PrintBody({
               <td>{fmt('depth', units, r.bottomM)}</td>
               <td>{fmt('velocity', units, r.vsMps)}</td>
               <td>{fmt('velocity', units, r.vsSdMps)}</td>
-              <td data-col="range95">
-                {r.vsLow95Mps !== null && r.vsHigh95Mps !== null
-                  ? `${fmt('velocity', units, r.vsLow95Mps)}–${fmt('velocity', units, r.vsHigh95Mps)}`
-                  : '–'}
-              </td>
+              <td data-col="range95">{fmtRange95(units, r.vsLow95Mps, r.vsHigh95Mps)}</td>
               <td>{fmt('velocity', units, r.vpMps)}</td>
               <td>{fmt('modulus', units, r.gmaxKpa)}</td>
               <td>{fmt('velocity', units, r.vs1Mps)}</td>

@@ -24,7 +24,7 @@ import {
 import { setView, useApp } from '../state/store';
 import { BASE_LAYOUT, bandShapes, COLOURS, hoveredBand, Plot, pointerToData, type PlotData } from './plot';
 import { fromDisplay } from '../core';
-import { disp, fmt, label, useUnits } from './units';
+import { disp, fmt, fmtRange95, label, useUnits } from './units';
 import { vsBars } from './profileBars';
 import type { UnitSystem } from '../core';
 
@@ -413,10 +413,7 @@ export function IntervalsTable() {
         const bottom = fmt('depth', units, g.bottomM);
         const stationB = g.chosen?.stationB ?? g.byMethod.onset?.stationB ?? null;
         const c = g.chosen;
-        const range95 =
-          c && c.low95Mps !== null && c.high95Mps !== null
-            ? `${fmt('velocity', units, c.low95Mps)}–${fmt('velocity', units, c.high95Mps)}`
-            : '–';
+        const range95 = c ? fmtRange95(units, c.low95Mps, c.high95Mps) : '–';
         const sig = JSON.stringify([
           top,
           bottom,

@@ -16,6 +16,11 @@ export function fmt(kind: QuantityKind, u: UnitSystem, si: number | null | undef
   return toDisplay(kind, u, si).toFixed(decimals ?? unitSpec(kind, u).decimals);
 }
 
+/** A velocity's 95% range for a table cell, 'low–high' in display units; an en dash without one. */
+export function fmtRange95(u: UnitSystem, lowMps: number | null, highMps: number | null): string {
+  return lowMps !== null && highMps !== null ? `${fmt('velocity', u, lowMps)}–${fmt('velocity', u, highMps)}` : '–';
+}
+
 export function disp(kind: QuantityKind, u: UnitSystem, si: number): number {
   return toDisplay(kind, u, si);
 }
