@@ -99,6 +99,21 @@ describe('report from a forward-model survey', () => {
     const shown = Number(vs.toPrecision(3));
     expect(html).toContain(`<td class="n">${shown}</td>`);
   });
+  it('the profile figure draws each Vs row over its 95% range, at least +-1.96 sd wide (normal table)', () => {
+    const data = reportDataFrom(inputs);
+    const withRange = data.profile.filter((r) => r.vsRange95Mps !== null);
+    expect(withRange.length).toBeGreaterThan(5);
+    for (const r of withRange) {
+      const [low, high] = r.vsRange95Mps!;
+      expect(low).toBeLessThan(r.vsMps);
+      expect(high - r.vsMps).toBeGreaterThanOrEqual(1.96 * r.vsSdMps - 1e-9);
+    }
+    // the same range as the profile table (velocity/intervals.ts setRange95): one source for both
+    const core = out.derived.profile.find((p) => p.topM === withRange[0].topM)!;
+    expect(withRange[0].vsRange95Mps).toEqual([core.vsLow95Mps, core.vsHigh95Mps]);
+    const html = reportHtml(data);
+    expect(html).toContain('Vs: 95% range');
+  });
   it('set-up problems replace Vs30 and the site class with "set-up incomplete" and the list', () => {
     const site = { ...out.derived.site, setupProblems: ['Hit direction missing for 4 records: set it in Geometry.'] };
     const derived = { ...out.derived, site };

@@ -254,6 +254,7 @@ export function reportDataFrom(inp: ReportInputs): ReportData {
       bottomM: r.bottomM,
       vsMps: r.vsMps,
       vsSdMps: r.vsSdMps,
+      vsRange95Mps: r.vsLow95Mps !== null && r.vsHigh95Mps !== null ? [r.vsLow95Mps, r.vsHigh95Mps] : null,
       vpMps: r.vpMps,
       vpSdMps: r.vpSdMps,
       gmaxKpa: r.gmaxKpa,

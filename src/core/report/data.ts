@@ -87,6 +87,8 @@ export interface ReportProfileRow {
   bottomM: number;
   vsMps: number;
   vsSdMps: number;
+  /** The 95% range of Vs, m/s: the chosen interval's velocity -+ k95 sd (null without one; docs/true-vs.md). */
+  vsRange95Mps: [number, number] | null;
   vpMps: number | null;
   vpSdMps: number | null;
   gmaxKpa: number;

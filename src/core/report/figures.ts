@@ -385,10 +385,22 @@ export function profileFigure(d: ReportData): Figure {
   const W = FIGURE_WIDTH;
   const H = 1500;
   const hasVp = d.profile.some((r) => r.vpMps !== null);
+  // Vs bars: the 95% range where the row has one (as the app's Profile plot), else +-1 sd; Vp: +-1 sd
+  const vsBar = (r: ReportProfileRow): [number, number] => r.vsRange95Mps ?? [r.vsMps - r.vsSdMps, r.vsMps + r.vsSdMps];
+  const hasRange = d.profile.some((r) => r.vsRange95Mps !== null);
+  const hasSdOnly = hasVp || d.profile.some((r) => r.vsRange95Mps === null);
   const items: LegendItem[] = [
     { label: 'Vs (interval)', swatch: lineSwatch(COLOURS.S, '', 4) },
     ...(hasVp ? [{ label: 'Vp (interval)', swatch: lineSwatch(COLOURS.P, '12 7', 4) }] : []),
-    { label: '± 1 standard deviation', swatch: errorBar(6, 38, 12, COLOURS.ink, 6) },
+    ...(hasRange ? [{ label: 'Vs: 95% range', swatch: errorBar(6, 38, 12, COLOURS.S, 6) }] : []),
+    ...(hasSdOnly
+      ? [
+          {
+            label: `± 1 standard deviation${hasRange ? ' (Vp; Vs rows without a range)' : ''}`,
+            swatch: errorBar(6, 38, 12, COLOURS.ink, 6),
+          },
+        ]
+      : []),
     ...(d.waterTableM !== null ? [{ label: 'water table', swatch: lineSwatch(COLOURS.water, '4 6', 2) }] : []),
   ];
   const leg = legend(items, 40, 104, W - 80);
@@ -396,7 +408,7 @@ export function profileFigure(d: ReportData): Figure {
   const v = (x: number) => toDisplay('velocity', units, x);
   const xmax = Math.max(
     1,
-    ...d.profile.map((r) => v(r.vsMps + r.vsSdMps)),
+    ...d.profile.map((r) => v(vsBar(r)[1])),
     ...d.profile.map((r) => (r.vpMps !== null ? v(r.vpMps + (r.vpSdMps ?? 0)) : 0)),
   );
   const p: Panel = {
@@ -414,14 +426,15 @@ export function profileFigure(d: ReportData): Figure {
   if (hasVp) inner.push(profileLine(p, d, (r) => r.vpMps, v, COLOURS.P, '12 7'));
   for (const r of d.profile) {
     const y = sy(p, toDisplay('depth', units, (r.topM + r.bottomM) / 2));
-    inner.push(errorBar(sx(p, v(r.vsMps - r.vsSdMps)), sx(p, v(r.vsMps + r.vsSdMps)), y, COLOURS.S));
+    const [lowMps, highMps] = vsBar(r);
+    inner.push(errorBar(sx(p, v(lowMps)), sx(p, v(highMps)), y, COLOURS.S));
     if (r.vpMps !== null && r.vpSdMps !== null)
       inner.push(errorBar(sx(p, v(r.vpMps - r.vpSdMps)), sx(p, v(r.vpMps + r.vpSdMps)), y, COLOURS.P));
   }
   parts.push(`<g clip-path="url(#pf)">${inner.join('')}</g>`);
   const title = 'Vs and Vp profile';
   const caption =
-    'Interval velocities used in the profile (one step per interval), with one-standard-deviation bars at mid-interval.' +
+    'Interval velocities used in the profile (one step per interval), with bars at mid-interval: for Vs the 95% range (k95 standard deviations either side, k95 per test kind and method from the calibration in docs/true-vs.md; one standard deviation where a row has no range), for Vp one standard deviation.' +
     (hasVp ? ' Vp is drawn where it was measured and not flagged doubtful.' : '');
   return figureOf({ id: 'profile', name: 'profile', title, caption, width: W, height: H, parts });
 }
