@@ -52,7 +52,16 @@ describe('coverage of stated sds', () => {
   });
 });
 
-describe('the tuning rule (half the 95% quantile of |error| / sd, kept between its 65% and 75% quantiles, never below half its 90% quantile)', () => {
+describe('the tuning rule (half the 95% quantile of |error| / sd, kept between its 68% and 75% quantiles, never below half its 90% quantile)', () => {
+  it('a light tail (|z| uniform on 0-1, analytic quantiles q = p): half the 95% point (0.475) is below the 68% point, so the scale is 0.68 and 1 sd holds 68%, as a Gaussian (normal table: 68.3%)', () => {
+    const z = Array.from({ length: 10001 }, (_, i) => i / 10000);
+    const s = calibrationScale(z)!;
+    expect(Math.abs(s - 0.68)).toBeLessThan(1e-9);
+    const rows = z.map((e) => ({ errorMps: e, sdMps: s }));
+    expect(Math.abs(withinShare(rows, 1)! - 0.68)).toBeLessThan(0.001);
+    expect(withinShare(rows, 2)).toBe(1);
+  });
+
   it('Gaussian errors twice the stated sd ask for a scale of 1.96 (the normal 97.5% point) and then cover 67.3% / 95.0%', () => {
     const rows = gaussianRows(2, 1, 11);
     const s = calibrationScale(rows.map((r) => Math.abs(r.errorMps) / r.sdMps))!;
