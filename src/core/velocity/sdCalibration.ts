@@ -55,8 +55,8 @@ export function calibrationScale(zAbs: readonly number[]): number | null {
  *
  * The layer model (the default of the downhole kinds) has a tail of |error| / sd too heavy for 95% within
  * 2 sd and at most 75% within 1 sd at once (a layer missed between receivers or a gradient, that nothing in
- * the travel times flags): its scales meet the 2-sd band at its lower edge (90%) on the training seeds, and
- * 1-sd coverage then runs at 71-77% (docs/true-vs.md "Calibration", "Fifth round").
+ * the travel times flags): its scales hold 75% within 1 sd on the training seeds, and 93-94% then lie
+ * within 2 sd (docs/true-vs.md "Calibration", "Sixth round").
  */
 export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, number>>>> = {
   downhole: {
