@@ -24,6 +24,7 @@ export * from './picking/edits';
 export * from './survey/paste';
 export * from './survey/stations';
 export * from './velocity/intervals';
+export { vsBarMps } from './velocity/sdCalibration';
 export * from './report/tables';
 export * from './site/classes';
 export * from './site/comparison';

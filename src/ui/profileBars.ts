@@ -5,7 +5,7 @@
  * its +-1 sd bar, in a trace of its own so that its name says so. Nothing is computed here but the
  * lengths of the arms.
  */
-import { toDisplay, type ProfileRow, type UnitSystem } from '../core';
+import { toDisplay, vsBarMps, type ProfileRow, type UnitSystem } from '../core';
 
 export interface AsymmetricBars {
   x: number[];
@@ -34,22 +34,12 @@ export function vsBars(
   const out: VsBars = { range95: empty(), sdOnly: empty() };
   for (const r of rows) {
     if (!Number.isFinite(r.vsMps)) continue;
-    const hasRange =
-      r.vsLow95Mps !== null &&
-      r.vsHigh95Mps !== null &&
-      Number.isFinite(r.vsLow95Mps) &&
-      Number.isFinite(r.vsHigh95Mps);
-    const to = hasRange ? out.range95 : out.sdOnly;
+    const bar = vsBarMps(r.vsMps, r.vsSdMps, r.vsLow95Mps, r.vsHigh95Mps);
+    const to = bar.isRange95 ? out.range95 : out.sdOnly;
     to.x.push(v(r.vsMps));
     to.y.push(toDisplay('depth', units, r.midM));
-    if (hasRange) {
-      to.plus.push(v(r.vsHigh95Mps!) - v(r.vsMps));
-      to.minus.push(v(r.vsMps) - v(r.vsLow95Mps!));
-    } else {
-      const sd = Number.isFinite(r.vsSdMps) ? v(r.vsSdMps) : 0;
-      to.plus.push(sd);
-      to.minus.push(sd);
-    }
+    to.plus.push(v(bar.highMps) - v(r.vsMps));
+    to.minus.push(v(r.vsMps) - v(bar.lowMps));
   }
   return out;
 }

@@ -15,7 +15,7 @@ import { intervalsTable, profileTable, siteJson, toCsv } from '../../src/core/re
 import type { Derived } from '../../src/core/pipeline';
 import { defaultSettings } from '../../src/core/settings';
 import { setRange95, type IntervalValue } from '../../src/core/velocity/intervals';
-import { GAUSSIAN_K95, range95Mps, TAIL_K95, tailFactor95, withinShare } from '../../src/core/velocity/sdCalibration';
+import { GAUSSIAN_K95, range95Mps, TAIL_K95, tailFactor95, vsBarMps, withinShare } from '../../src/core/velocity/sdCalibration';
 
 describe('k95 per test kind and method', () => {
   it('a method with no bench entry is taken as Gaussian: 1.96 (normal table, two-sided 95%)', () => {
@@ -233,5 +233,17 @@ describe('intervals.csv: the 95% range of every interval row', () => {
       expect(Math.abs((lo as number) - r.low95Mps)).toBeLessThanOrEqual(halfUnit3(r.low95Mps));
       expect(Math.abs((hi as number) - r.high95Mps)).toBeLessThanOrEqual(halfUnit3(r.high95Mps));
     });
+  });
+});
+
+describe('the extent of a Vs bar in the plots (vsBarMps; one rule for the Profile plot and the report)', () => {
+  it('the 95% range where there is one, asymmetric when its low end was floored at 0', () => {
+    expect(vsBarMps(100, 60, 0, 220)).toEqual({ lowMps: 0, highMps: 220, isRange95: true });
+  });
+  it('v -+ 1 sd without a range: 250 +- 12 m/s gives 238-262', () => {
+    expect(vsBarMps(250, 12, null, null)).toEqual({ lowMps: 238, highMps: 262, isRange95: false });
+  });
+  it('no width without an sd', () => {
+    expect(vsBarMps(250, null, null, null)).toEqual({ lowMps: 250, highMps: 250, isRange95: false });
   });
 });

@@ -6,6 +6,7 @@
 import { toDisplay, unitSpec, type UnitSystem } from '../units';
 import type { ReportData, ReportProfileRow, ReportTrace, ReportWave } from './data';
 import { reportedText } from './digits';
+import { vsBarMps } from '../velocity/sdCalibration';
 import {
   axes,
   c,
@@ -386,7 +387,10 @@ export function profileFigure(d: ReportData): Figure {
   const H = 1500;
   const hasVp = d.profile.some((r) => r.vpMps !== null);
   // Vs bars: the 95% range where the row has one (as the app's Profile plot), else +-1 sd; Vp: +-1 sd
-  const vsBar = (r: ReportProfileRow): [number, number] => r.vsRange95Mps ?? [r.vsMps - r.vsSdMps, r.vsMps + r.vsSdMps];
+  const vsBar = (r: ReportProfileRow): [number, number] => {
+    const b = vsBarMps(r.vsMps, r.vsSdMps, r.vsRange95Mps?.[0] ?? null, r.vsRange95Mps?.[1] ?? null);
+    return [b.lowMps, b.highMps];
+  };
   const hasRange = d.profile.some((r) => r.vsRange95Mps !== null);
   const hasSdOnly = hasVp || d.profile.some((r) => r.vsRange95Mps === null);
   const items: LegendItem[] = [

@@ -169,3 +169,19 @@ export function range95Mps(
   if (vMps === null || sdMps === null || !Number.isFinite(vMps) || !Number.isFinite(sdMps) || !(sdMps > 0)) return null;
   return { lowMps: Math.max(0, vMps - k95 * sdMps), highMps: vMps + k95 * sdMps };
 }
+
+/**
+ * The extent of an interval's Vs bar in a plot, m/s: its 95% range where it has one (range95Mps), else
+ * v -+ 1 sd (0 wide without a finite sd). One rule for the app's Profile plot and the report's figure.
+ */
+export function vsBarMps(
+  vMps: number,
+  sdMps: number | null,
+  low95Mps: number | null,
+  high95Mps: number | null,
+): { lowMps: number; highMps: number; isRange95: boolean } {
+  if (low95Mps !== null && high95Mps !== null && Number.isFinite(low95Mps) && Number.isFinite(high95Mps))
+    return { lowMps: low95Mps, highMps: high95Mps, isRange95: true };
+  const sd = sdMps !== null && Number.isFinite(sdMps) ? sdMps : 0;
+  return { lowMps: vMps - sd, highMps: vMps + sd, isRange95: false };
+}
