@@ -15,7 +15,14 @@ import { intervalsTable, profileTable, siteJson, toCsv } from '../../src/core/re
 import type { Derived } from '../../src/core/pipeline';
 import { defaultSettings } from '../../src/core/settings';
 import { setRange95, type IntervalValue } from '../../src/core/velocity/intervals';
-import { GAUSSIAN_K95, range95Mps, TAIL_K95, tailFactor95, vsBarMps, withinShare } from '../../src/core/velocity/sdCalibration';
+import {
+  GAUSSIAN_K95,
+  range95Mps,
+  TAIL_K95,
+  tailFactor95,
+  vsBarMps,
+  withinShare,
+} from '../../src/core/velocity/sdCalibration';
 
 describe('k95 per test kind and method', () => {
   it('a method with no bench entry is taken as Gaussian: 1.96 (normal table, two-sided 95%)', () => {
