@@ -98,10 +98,13 @@ describe('interval values', () => {
     expect(row.flags).toContain('non-positive delay');
   });
   it('cross-check against the correlation delay: a zero crossing one period (10 ms) late at one station', () => {
-    // hand-worked: dt 60 ms against a 50 ms delay, sds 0.1414 ms (two picks of 0.1 ms) and 0.1 ms:
-    // excess sqrt(10^2 - 0.1414^2 - 0.1^2) ms = 9.9985 ms; agreeing times give 0
-    expect(crossCheckSdS(0.06, Math.hypot(1e-4, 1e-4), 0.05, 1e-4)).toBeCloseTo(0.0099985, 6);
+    // hand-worked: dt 60 ms against a 50 ms delay, sds 0.1414 ms (two picks of 0.1 ms) and 0.1 ms, beyond
+    // 3 combined sds: excess sqrt(10^2 - 9 (0.1414^2 + 0.1^2)) ms = sqrt(100 - 0.27) = 9.98649 ms
+    expect(crossCheckSdS(0.06, Math.hypot(1e-4, 1e-4), 0.05, 1e-4)).toBeCloseTo(0.00998649, 7);
+    // within 3 combined sds (0.1 ms apart, 3 x 0.2236 ms = 0.67 ms): scatter, 0; just beyond: the excess
     expect(crossCheckSdS(0.0501, 2e-4, 0.05, 1e-4)).toBe(0);
+    expect(crossCheckSdS(0.0506, 2e-4, 0.05, 1e-4)).toBe(0);
+    expect(crossCheckSdS(0.0508, 2e-4, 0.05, 1e-4)).toBeCloseTo(Math.sqrt(0.8e-3 ** 2 - 9 * 5e-8), 9);
     expect(crossCheckSdS(0.06, 1e-4, Number.NaN, 1e-4)).toBe(0);
     const skipped = [pick(A, 'zero-crossing', 0.12), pick(B, 'zero-crossing', 0.18)];
     const rows = run(skipped, [delay(K, 'xcorr', 0.05)]);
