@@ -118,6 +118,38 @@ describe('automatic layering from noise-free refracted-ray times', () => {
     expect(r.fit.layers).toHaveLength(2);
     expect(Math.abs(r.fit.layers[1].topM - 4.1)).toBeLessThan(0.25);
   });
+
+  it('two receivers: the first onset timed from the source fixes the ground above the first receiver', () => {
+    // 130 m/s over 240 m/s from 1.6 m (between the receivers at 1 and 2 m), upper receivers 1-12 m, 1 m
+    // apart, source 2 m away: the 1-2 m interval's true Vs is 1 / (0.6 / 130 + 0.4 / 240) = 159.0 m/s
+    const model = [
+      { topM: 0, velocityMps: 130 },
+      { topM: 1.6, velocityMps: 240 },
+    ];
+    const diffs = differenceTimes(model, grid(1, 12, 1), 1);
+    const fromSource: TimeObservation = {
+      depthAM: 0,
+      offsetAM: 0,
+      depthBM: 1,
+      offsetM: OFFSET_M,
+      timeS: layeredRay(model, 0, 1, OFFSET_M).timeS,
+      sdS: 5e-4,
+    };
+    const opts = { sourceDepthM: 0, mode: 'auto', minThicknessM: 1, intercept: false } as const;
+    const withSource = fitLayering([fromSource, ...diffs], opts);
+    expect(withSource.ok).toBe(true);
+    if (!withSource.ok) return;
+    expect(withSource.fit.layers[0].vsMps).toBeCloseTo(130, 0);
+    expect(withSource.fit.layers[withSource.fit.layers.length - 1].vsMps).toBeCloseTo(240, 0);
+    // the boundary is placed inside its gap from the vertically reduced differences (1.5 m here), so the
+    // interval that holds it comes within 3%
+    expect(Math.abs(layerIntervalVs(withSource.fit, 1, 2).vsMps - 159.0)).toBeLessThan(0.03 * 159);
+    // the differences alone cannot see the slow top layer: the 1-2 m interval comes out twice too fast
+    const alone = fitLayering(diffs, opts);
+    expect(alone.ok).toBe(true);
+    if (!alone.ok) return;
+    expect(layerIntervalVs(alone.fit, 1, 2).vsMps).toBeGreaterThan(1.5 * 159);
+  });
 });
 
 describe('user layering', () => {

@@ -49,8 +49,10 @@ export interface TimeObservation {
   /** Upper receiver depth for a difference T(b) - T(a) of one hit; null = absolute time to b. */
   depthAM: number | null;
   depthBM: number;
-  /** Horizontal source-receiver offset, m (both receivers of a difference share it). */
+  /** Horizontal source-receiver offset, m (both receivers of a difference share it unless offsetAM is set). */
   offsetM: number;
+  /** Horizontal offset of the upper end of a difference, m (default offsetM; 0 with depthAM at the source: the time from the source). */
+  offsetAM?: number;
   timeS: number;
   sdS: number;
 }
@@ -171,7 +173,7 @@ function fitFixed(
     const A = new Float64Array(n * np);
     p.obs.forEach((o, i) => {
       const pb = pathsPerLayer(model, p.sourceDepthM, o.depthBM, o.offsetM);
-      const pa = o.depthAM === null ? null : pathsPerLayer(model, p.sourceDepthM, o.depthAM, o.offsetM);
+      const pa = o.depthAM === null ? null : pathsPerLayer(model, p.sourceDepthM, o.depthAM, o.offsetAM ?? o.offsetM);
       for (let j = 0; j < m; j++) A[i * np + j] = pb[j] - (pa ? pa[j] : 0);
       if (useIntercept && o.depthAM === null) A[i * np + m] = 1;
     });
@@ -227,7 +229,7 @@ function verticalReduced(p: Problem, topsM: number[], slowness: Float64Array | n
     if (!slowness) {
       // straight rays at one velocity: vertical time = time x vertical / slant
       const sb = Math.hypot(o.offsetM, o.depthBM - p.sourceDepthM);
-      const sa = Math.hypot(o.offsetM, za - p.sourceDepthM);
+      const sa = Math.hypot(o.offsetAM ?? o.offsetM, za - p.sourceDepthM);
       const vert = o.depthBM - za;
       const slant = sb - sa;
       return { ...o, timeS: slant > 0 ? (o.timeS * vert) / slant : o.timeS };
@@ -237,7 +239,7 @@ function verticalReduced(p: Problem, topsM: number[], slowness: Float64Array | n
     const vb = layeredRay(model, p.sourceDepthM, o.depthBM, 0).timeS;
     corr = rb - vb;
     if (o.depthAM !== null) {
-      const ra = layeredRay(model, p.sourceDepthM, o.depthAM, o.offsetM).timeS;
+      const ra = layeredRay(model, p.sourceDepthM, o.depthAM, o.offsetAM ?? o.offsetM).timeS;
       const va = layeredRay(model, p.sourceDepthM, o.depthAM, 0).timeS;
       corr -= ra - va;
     }

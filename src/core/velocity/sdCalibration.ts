@@ -77,8 +77,8 @@ export const SD_SCALE: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     'zero-crossing': 0.439,
     xcorr: 0.669,
     phase: 0.804,
-    'layer-model': 0.538,
-    joint: 1.072,
+    'layer-model': 0.554,
+    joint: 0.822,
   },
   'seismic-cone': {
     onset: 1,
@@ -135,8 +135,8 @@ export const TAIL_K95: Partial<Record<TestKind, Partial<Record<IntervalMethod, n
     'zero-crossing': 2.01,
     xcorr: 2.32,
     phase: 2,
-    'layer-model': 2.5,
-    joint: 2.59,
+    'layer-model': 2.7,
+    joint: 2.04,
   },
   'seismic-cone': {
     onset: 2.22,
