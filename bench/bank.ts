@@ -29,7 +29,7 @@ import type { TestKind } from '../src/core/model';
 import { calibrationScale, sdScale, withinShare } from '../src/core/velocity/sdCalibration';
 import { layerMethod } from '../src/core/velocity/layerMethod';
 import { blendIntervals, fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
-import { INTERCEPT_PRIOR_SD_S } from '../src/core/velocity/layerMethod';
+import { INTERCEPT_PRIOR_SD_S, SOURCE_TIME_PRIOR_SD_S } from '../src/core/velocity/layerMethod';
 
 export type BankKind = 'one-receiver' | 'two-receiver' | 'cone-0.5m' | 'crosshole';
 export const BANK_KINDS: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m', 'crosshole'];
@@ -487,8 +487,28 @@ function layerObservations(c: Case, stations: Stations, d: Derived, t: LayerMode
     return Math.hypot(s.receiverPos[0] - s.sourcePos[0], s.receiverPos[1] - s.sourcePos[1]);
   };
   const depthOf = (key: StationKey) => sStations.get(key)!.receiverPos[2];
+  const onsets = new Map<string, { timeS: number; sdS: number }>();
+  for (const p of d.picks)
+    if (p.wave === 'S' && (p.method === 'aic' || p.method === 'stalta') && p.origin !== 'excluded')
+      onsets.set(p.stationKey, { timeS: p.timeS, sdS: p.uncertaintyS });
   if (c.kind === 'two-receiver') {
     const obs: TimeObservation[] = [];
+    // as the app (velocity/layerMethod.ts layerObservations): the shallowest upper receiver's onset as a time from the source
+    const firstIv = d.intervals
+      .filter((iv) => iv.wave === 'S' && iv.method === 'xcorr')
+      .sort((a, b) => depthOf(a.stationA) - depthOf(b.stationA))[0];
+    const first = firstIv ? onsets.get(firstIv.stationA) : undefined;
+    if (firstIv && first) {
+      const st = sStations.get(firstIv.stationA)!;
+      obs.push({
+        depthAM: st.sourcePos[2],
+        offsetAM: 0,
+        depthBM: depthOf(firstIv.stationA),
+        offsetM: offsetOf(firstIv.stationA),
+        timeS: first.timeS,
+        sdS: Math.hypot(first.sdS, TRIGGER_OFFSET_SD_S, SOURCE_TIME_PRIOR_SD_S),
+      });
+    }
     for (const iv of d.intervals) {
       if (iv.wave !== 'S' || iv.method !== 'xcorr' || iv.dtS === null) continue;
       const delay = d.delays.find((x) => x.pairKey === iv.key && x.method === 'xcorr');
@@ -503,10 +523,6 @@ function layerObservations(c: Case, stations: Stations, d: Derived, t: LayerMode
     return obs;
   }
   // one receiver per hit: absolute times with the per-hit trigger offset as a prior (its mean is the fitted intercept)
-  const onsets = new Map<string, { timeS: number; sdS: number }>();
-  for (const p of d.picks)
-    if (p.wave === 'S' && (p.method === 'aic' || p.method === 'stalta') && p.origin !== 'excluded')
-      onsets.set(p.stationKey, { timeS: p.timeS, sdS: p.uncertaintyS });
   const keys = [...sStations.keys()].sort((a, b) => depthOf(a) - depthOf(b));
   const obs: TimeObservation[] = [];
   if (t.timeSource === 'onset') {

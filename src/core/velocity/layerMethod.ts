@@ -120,7 +120,7 @@ export const INTERCEPT_PRIOR_SD_S = 5e-4;
  * away the 1-3 m intervals had a P90 error of 31% on the training seeds (4.9% with this time; 0.3 and 1 ms
  * tried: 4.2% and 7.5% there, 2.34% and 2.53% P90 overall against 2.43%; docs/true-vs.md "Seventh round").
  */
-const SOURCE_TIME_PRIOR_SD_S = INTERCEPT_PRIOR_SD_S;
+export const SOURCE_TIME_PRIOR_SD_S = INTERCEPT_PRIOR_SD_S;
 /** Receivers within this distance of an interval measure the fit's local misfit there, m. */
 const LOCAL_WINDOW_M = 1;
 /**
