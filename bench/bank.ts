@@ -29,7 +29,7 @@ import type { TestKind } from '../src/core/model';
 import { calibrationScale, sdScale, withinShare } from '../src/core/velocity/sdCalibration';
 import { layerMethod } from '../src/core/velocity/layerMethod';
 import { blendIntervals, fitLayering, layerIntervalVs, type TimeObservation } from '../src/core/velocity/layering';
-import { INTERCEPT_PRIOR_SD_S, SOURCE_TIME_PRIOR_SD_S } from '../src/core/velocity/layerMethod';
+import { INTERCEPT_PRIOR_SD_S, sourceTimeObservation } from '../src/core/velocity/layerMethod';
 
 export type BankKind = 'one-receiver' | 'two-receiver' | 'cone-0.5m' | 'crosshole';
 export const BANK_KINDS: BankKind[] = ['one-receiver', 'two-receiver', 'cone-0.5m', 'crosshole'];
@@ -498,17 +498,14 @@ function layerObservations(c: Case, stations: Stations, d: Derived, t: LayerMode
       .filter((iv) => iv.wave === 'S' && iv.method === 'xcorr')
       .sort((a, b) => depthOf(a.stationA) - depthOf(b.stationA))[0];
     const first = firstIv ? onsets.get(firstIv.stationA) : undefined;
-    if (firstIv && first) {
-      const st = sStations.get(firstIv.stationA)!;
-      obs.push({
-        depthAM: st.sourcePos[2],
-        offsetAM: 0,
-        depthBM: depthOf(firstIv.stationA),
-        offsetM: offsetOf(firstIv.stationA),
-        timeS: first.timeS,
-        sdS: Math.hypot(first.sdS, TRIGGER_OFFSET_SD_S, SOURCE_TIME_PRIOR_SD_S),
-      });
-    }
+    if (firstIv && first)
+      obs.push(
+        sourceTimeObservation(
+          sStations.get(firstIv.stationA)!,
+          { timeS: first.timeS, uncertaintyS: first.sdS },
+          TRIGGER_OFFSET_SD_S,
+        ),
+      );
     for (const iv of d.intervals) {
       if (iv.wave !== 'S' || iv.method !== 'xcorr' || iv.dtS === null) continue;
       const delay = d.delays.find((x) => x.pairKey === iv.key && x.method === 'xcorr');

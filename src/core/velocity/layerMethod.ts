@@ -120,7 +120,7 @@ export const INTERCEPT_PRIOR_SD_S = 5e-4;
  * away the 1-3 m intervals had a P90 error of 31% on the training seeds (4.9% with this time; 0.3 and 1 ms
  * tried: 4.2% and 7.5% there, 2.34% and 2.53% P90 overall against 2.43%; docs/true-vs.md "Seventh round").
  */
-export const SOURCE_TIME_PRIOR_SD_S = INTERCEPT_PRIOR_SD_S;
+const SOURCE_TIME_PRIOR_SD_S = INTERCEPT_PRIOR_SD_S;
 /** Receivers within this distance of an interval measure the fit's local misfit there, m. */
 const LOCAL_WINDOW_M = 1;
 /**
@@ -167,6 +167,26 @@ export interface LayerMethodResult {
 
 const KINDS = new Set<TestKind>(['downhole', 'downhole-pair', 'seismic-cone']);
 
+/**
+ * Two receivers per hit: a station's onset as a travel time from the source, a difference whose upper
+ * end is the source itself (offsetAM 0); its sd holds the pick, the trigger offset and the onset
+ * pick's bias (SOURCE_TIME_PRIOR_SD_S).
+ */
+export function sourceTimeObservation(
+  station: { receiverPos: Station['receiverPos']; sourcePos: Station['sourcePos'] },
+  onset: { timeS: number; uncertaintyS: number },
+  triggerOffsetSdS: number,
+): TimeObservation {
+  return {
+    depthAM: station.sourcePos[2],
+    offsetAM: 0,
+    depthBM: station.receiverPos[2],
+    offsetM: horizontalDistanceM(station.receiverPos, station.sourcePos),
+    timeS: onset.timeS,
+    sdS: Math.hypot(onset.uncertaintyS, triggerOffsetSdS, SOURCE_TIME_PRIOR_SD_S),
+  };
+}
+
 /** Observations for the layered fit from the S stations, pairs, onset picks and xcorr delays. */
 export function layerObservations(
   kind: TestKind,
@@ -183,15 +203,7 @@ export function layerObservations(
     // ground above the first receiver (SOURCE_TIME_PRIOR_SD_S)
     const first = [...sPairs].sort((x, y) => x.a.receiverPos[2] - y.a.receiverPos[2])[0];
     const onset = first ? onsetPicks.get(first.a.key) : undefined;
-    if (first && onset)
-      obs.push({
-        depthAM: first.a.sourcePos[2],
-        offsetAM: 0,
-        depthBM: first.a.receiverPos[2],
-        offsetM: offsetOf(first.a),
-        timeS: onset.timeS,
-        sdS: Math.hypot(onset.uncertaintyS, triggerOffsetSdS, SOURCE_TIME_PRIOR_SD_S),
-      });
+    if (first && onset) obs.push(sourceTimeObservation(first.a, onset, triggerOffsetSdS));
     for (const p of sPairs) {
       const d = xcorrByPair.get(p.key);
       if (!d) continue;
